@@ -1,0 +1,3 @@
+// Public face of libs/forecasting: each area re-exports its estimators from its own index.
+export * from './core/errors';
+export * from './core/types';
