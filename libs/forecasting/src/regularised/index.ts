@@ -1,0 +1,2 @@
+// Filled by this area's estimators as they land.
+export {};
