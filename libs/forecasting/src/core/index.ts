@@ -1,2 +1,6 @@
 export * from './errors';
 export * from './types';
+export * from './incomplete-gamma';
+export * from './normal';
+export * from './chi-square';
+export * from './arma-filter';
