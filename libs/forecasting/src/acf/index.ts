@@ -1,2 +1,3 @@
-// Filled by this area's estimators as they land.
-export {};
+export * from './autocovariance';
+export * from './levinson-durbin';
+export * from './pacf';
