@@ -1,0 +1,34 @@
+/**
+ * The one place errors become responses: RFC 9457 problem details, never a stack trace, SQL text or
+ * secret. Unknown errors are logged in full on the server and answered with a generic 500.
+ */
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { ZodError } from 'zod';
+import { HttpProblem } from './http-problem';
+
+const problemContentType = 'application/problem+json';
+
+/** Answers any /api path no route took. */
+export const apiNotFound: RequestHandler = (req, _res, next) => {
+  next(new HttpProblem('notFound', `No API route for ${req.method} ${req.path}.`));
+};
+
+/** Converts thrown errors into problem responses. */
+export const problemHandler: ErrorRequestHandler = (error, req, res, _next) => {
+  const problem = toHttpProblem(error);
+  if (problem.kind === 'internal') req.log?.error({ err: error }, 'unhandled error');
+  res.status(problem.toProblem().status).type(problemContentType).send(JSON.stringify(problem.toProblem(req.originalUrl)));
+};
+
+function toHttpProblem(error: unknown): HttpProblem {
+  if (error instanceof HttpProblem) return error;
+  if (error instanceof ZodError) {
+    const errors = error.issues.map((issue) => ({ pointer: `/${issue.path.join('/')}`, detail: issue.message }));
+    return new HttpProblem('invalidInput', 'Correct the fields listed in errors and try again.', errors);
+  }
+  const status = (error as { status?: number; type?: string }).status;
+  if ((error as { type?: string }).type === 'entity.too.large') return new HttpProblem('payloadTooLarge', 'The request body is larger than the server accepts.');
+  if ((error as { type?: string }).type === 'entity.parse.failed') return new HttpProblem('invalidInput', 'The request body is not valid JSON.');
+  if (status === 404) return new HttpProblem('notFound');
+  return new HttpProblem('internal', 'The error was logged. Try again, and tell your administrator if it persists.');
+}

@@ -1,0 +1,18 @@
+/**
+ * The product's queues and their handlers, registered by every worker process. Each queue is created
+ * explicitly (pg-boss 10 ignores jobs sent to a queue that does not exist).
+ */
+import type PgBoss from 'pg-boss';
+import type { Logger } from 'pino';
+
+/** What a queue's handler may use. */
+export interface WorkerContext {
+  logger: Logger;
+  concurrency: number;
+  databaseUrl: string;
+}
+
+/** Creates every queue and starts its handler. Queues are added here as features land. */
+export async function registerQueues(_boss: PgBoss, _context: WorkerContext): Promise<void> {
+  // The intake (import) and nightly refit queues register here.
+}

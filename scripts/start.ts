@@ -1,0 +1,86 @@
+/**
+ * `npm start`: everything a fresh machine needs to run Loadwright with its demo data. Starts
+ * PostgreSQL on loopback (unless DATABASE_URL names a server), migrates, seeds the demo cooperative
+ * when the database is empty, rebuilds the web app when stale, then runs the API and the worker(s)
+ * until Ctrl-C, which stops all it started.
+ */
+import { resolve } from 'node:path';
+import { migrate } from '@loadwright/db';
+import { ConfigError, loadConfig } from '../apps/api/src/config';
+import { firstExit, startTypeScript, stopAll, type NamedChild } from './child-processes';
+import { AlreadyRunningError, acquireInstanceLock } from './instance-lock';
+import { defaultLocation, ensurePostgres, stopPostgres } from './postgres';
+import { buildWeb, isWebBuildStale } from './web-build';
+import { seedDemoIfEmpty, demoAccountsText } from './demo-seed';
+
+const repoRoot = resolve(import.meta.dirname, '..');
+
+async function main(): Promise<number> {
+  const config = loadConfig();
+  const url = `http://${config.HOST === '0.0.0.0' ? '127.0.0.1' : config.HOST}:${config.PORT}`;
+  const releaseLock = acquireInstanceLock(resolve(repoRoot, '.data/instance.json'), { pid: process.pid, url, startedAt: new Date().toISOString() });
+  const children: NamedChild[] = [];
+  let startedPostgres = false;
+  let stopping = false;
+
+  const shutdown = async (code: number) => {
+    if (stopping) return;
+    stopping = true;
+    console.log('\nStopping Loadwright…');
+    await stopAll(children);
+    if (startedPostgres) await stopPostgres(defaultLocation());
+    releaseLock();
+    console.log('Stopped.');
+    process.exit(code);
+  };
+  for (const signal of ['SIGINT', 'SIGTERM'] as const) process.once(signal, () => void shutdown(0));
+
+  try {
+    step('Starting PostgreSQL');
+    const database = await ensurePostgres();
+    startedPostgres = database.startedHere;
+    step(`Migrating ${redact(database.url)}`);
+    await migrate(database.url);
+    step('Checking demo data');
+    const seeded = await seedDemoIfEmpty(database.url);
+    if (seeded) console.log('  Seeded the demo cooperative.');
+    if (isWebBuildStale()) {
+      step('Building the web app (first start or changed sources, about 30 s)');
+      await buildWeb();
+    }
+    const env = { ...process.env, DATABASE_URL: database.url };
+    children.push(startTypeScript('API', 'apps/api/src/server.ts', env));
+    for (let i = 1; i <= config.WORKER_PROCESSES; i++) children.push(startTypeScript(`worker ${i}`, 'jobs/worker.ts', { ...env, WORKER_NAME: `worker-${i}` }));
+    console.log(`\nLoadwright is running at ${url}\n\n${demoAccountsText()}\nPress Ctrl-C to stop.\n`);
+    const exited = await firstExit(children);
+    if (!stopping) {
+      console.error(`The ${exited.name} process stopped unexpectedly (exit code ${exited.code}); stopping the rest.`);
+      await shutdown(1);
+    }
+    return 1;
+  } catch (error) {
+    console.error(`\nLoadwright could not start: ${(error as Error).message}`);
+    await shutdown(1);
+    return 1;
+  }
+}
+
+function step(text: string): void {
+  console.log(`• ${text}`);
+}
+
+function redact(url: string): string {
+  const parsed = new URL(url);
+  if (parsed.password) parsed.password = '***';
+  return parsed.toString();
+}
+
+try {
+  await main();
+} catch (error) {
+  if (error instanceof ConfigError || error instanceof AlreadyRunningError) {
+    console.error(error.message);
+    process.exit(1);
+  }
+  throw error;
+}
