@@ -1,0 +1,58 @@
+import Holidays from 'date-holidays';
+import { ForecastingError } from '../core/errors';
+
+/** Where the holidays come from: a `date-holidays` country (and optional state/region) plus extra dates. */
+export interface HolidaySpec {
+  /** ISO 3166-1 alpha-2 country code, e.g. "US". */
+  country: string;
+  /** State/region code within the country as `date-holidays` names it, e.g. "TX". */
+  region?: string;
+  /** Extra local dates (YYYY-MM-DD) treated as holidays: plant shutdowns, bridge days, local events. */
+  extraDates: string[];
+}
+
+const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/;
+
+/**
+ * The set of holiday dates (local YYYY-MM-DD) for the given years: the `date-holidays` entries of type
+ * "public" (statutory days off, including observed substitute days) plus `extraDates`. Bank, school,
+ * optional and observance days are left out because most load does not respond to them; add the ones that
+ * matter to `extraDates`. Holidays starting in the afternoon keep their calendar date.
+ *
+ * @throws ForecastingError 'invalid-argument' for an unknown country or region or a malformed extra date.
+ */
+export function holidayDates(spec: HolidaySpec, years: Iterable<number>): Set<string> {
+  const fn = 'holidayDates';
+  const catalogue = new Holidays();
+  const countries = catalogue.getCountries() ?? {};
+  if (!(spec.country in countries)) {
+    throw new ForecastingError('invalid-argument', fn, `unknown country "${spec.country}": use an ISO 3166-1 alpha-2 code such as "US"`);
+  }
+  if (spec.region !== undefined) {
+    const regions = catalogue.getStates(spec.country) ?? {};
+    if (!(spec.region in regions)) {
+      throw new ForecastingError('invalid-argument', fn, `unknown region "${spec.region}" for ${spec.country}; known: ${Object.keys(regions).join(', ') || 'none'}`);
+    }
+  }
+  const calendar = spec.region === undefined ? new Holidays(spec.country) : new Holidays(spec.country, spec.region);
+  const dates = new Set<string>();
+  for (const year of years) {
+    for (const holiday of calendar.getHolidays(year) || []) {
+      if (holiday.type === 'public') dates.add(holiday.date.slice(0, 10));
+    }
+  }
+  for (const extra of spec.extraDates) {
+    if (!ISO_DATE.test(extra) || Number.isNaN(Date.parse(`${extra}T00:00:00Z`))) {
+      throw new ForecastingError('invalid-argument', fn, `extra date "${extra}" is not a date in YYYY-MM-DD form`);
+    }
+    dates.add(extra);
+  }
+  return dates;
+}
+
+/** The calendar years spanned by local dates (YYYY-MM-DD), for asking the holiday calendar. */
+export function yearsOf(localDates: readonly string[]): number[] {
+  const years = new Set<number>();
+  for (const date of localDates) years.add(Number(date.slice(0, 4)));
+  return [...years].sort((a, b) => a - b);
+}

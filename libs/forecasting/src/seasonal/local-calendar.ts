@@ -1,0 +1,78 @@
+import { ForecastingError, assertFinite } from '../core/errors';
+
+/** Local wall-clock position of each hourly timestamp in the series' own time zone. */
+export interface LocalCalendar {
+  /** Local hour 0..23. */
+  hourOfDay: Uint8Array;
+  /** ISO weekday 0..6 with Monday = 0 (ISO 8601 weeks start on Monday). */
+  dayOfWeek: Uint8Array;
+  /** dayOfWeek * 24 + hourOfDay, 0..167 (Monday 00:00 = 0). */
+  hourOfWeek: Uint16Array;
+  /** Local calendar date as YYYY-MM-DD (for day types and holidays). */
+  localDate: string[];
+}
+
+const formatters = new Map<string, Intl.DateTimeFormat>();
+
+/** One cached formatter per zone; building Intl.DateTimeFormat is the slow part. */
+function formatterFor(timeZone: string): Intl.DateTimeFormat {
+  let formatter = formatters.get(timeZone);
+  if (!formatter) {
+    try {
+      formatter = new Intl.DateTimeFormat('en-US', {
+        timeZone,
+        hourCycle: 'h23',
+        year: 'numeric',
+        month: '2-digit',
+        day: '2-digit',
+        hour: '2-digit',
+      });
+    } catch {
+      throw new ForecastingError('invalid-argument', 'localCalendar', `unknown IANA time zone "${timeZone}" (e.g. "America/Chicago")`);
+    }
+    formatters.set(timeZone, formatter);
+  }
+  return formatter;
+}
+
+/**
+ * Maps UTC epoch-millisecond timestamps to local hour, ISO weekday, hour-of-week slot and date in an
+ * IANA time zone (Intl with the platform's tz database).
+ *
+ * Daylight saving, by wall clock: on the spring-forward day the skipped local hour (02:00 in
+ * America/Chicago) gets no observation, so that day fills 23 slots; on the fall-back day the repeated
+ * local hour (01:00 CDT and 01:00 CST) maps both observations to the same slot (hour 1), so that slot
+ * holds two observations. Zones without DST (America/Phoenix, Asia/Kolkata) always have 24 hours a day.
+ * Minutes are ignored: in zones with half-hour offsets (Asia/Kolkata, UTC+05:30) an observation stamped
+ * 10:00 UTC falls in local 15:30 and takes slot hour 15.
+ *
+ * @throws ForecastingError 'invalid-argument' for an unknown zone, 'non-finite-input' for bad timestamps.
+ */
+export function localCalendar(timestamps: ArrayLike<number>, timeZone: string): LocalCalendar {
+  assertFinite('localCalendar', timestamps, 'timestamps');
+  const formatter = formatterFor(timeZone);
+  const n = timestamps.length;
+  const hourOfDay = new Uint8Array(n);
+  const dayOfWeek = new Uint8Array(n);
+  const hourOfWeek = new Uint16Array(n);
+  const localDate = new Array<string>(n);
+  for (let i = 0; i < n; i++) {
+    let year = 0;
+    let month = 0;
+    let day = 0;
+    let hour = 0;
+    for (const part of formatter.formatToParts(timestamps[i])) {
+      if (part.type === 'year') year = Number(part.value);
+      else if (part.type === 'month') month = Number(part.value);
+      else if (part.type === 'day') day = Number(part.value);
+      else if (part.type === 'hour') hour = Number(part.value);
+    }
+    // getUTCDay: Sunday = 0; shift so that Monday = 0.
+    const weekday = (new Date(Date.UTC(year, month - 1, day)).getUTCDay() + 6) % 7;
+    hourOfDay[i] = hour;
+    dayOfWeek[i] = weekday;
+    hourOfWeek[i] = weekday * 24 + hour;
+    localDate[i] = `${String(year).padStart(4, '0')}-${String(month).padStart(2, '0')}-${String(day).padStart(2, '0')}`;
+  }
+  return { hourOfDay, dayOfWeek, hourOfWeek, localDate };
+}
