@@ -1,2 +1,2 @@
-// Filled by this area's estimators as they land.
-export {};
+export * from './yule-walker';
+export * from './cmle';

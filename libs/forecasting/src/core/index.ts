@@ -4,3 +4,5 @@ export * from './incomplete-gamma';
 export * from './normal';
 export * from './chi-square';
 export * from './arma-filter';
+export * from './ar-stationarity';
+export * from './information-criteria';
