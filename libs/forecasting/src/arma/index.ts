@@ -1,2 +1,5 @@
-// Filled by this area's estimators as they land.
-export {};
+// ARMA estimation by nonlinear least squares on the conditional sum of squares, and its building blocks.
+export { nlsArma, type NlsOptions, type NlsFitResult } from './nls';
+export { hannanRissanen } from './hannan-rissanen';
+export { cssSumOfSquares, cssNormalEquations, createCssWorkspace, cssParameterCount, type CssLayout, type CssWorkspace } from './css';
+export { isStationary, isInvertible, reciprocalRoots, reflectAr, reflectMa, stabilise, type Complex } from './polynomial-roots';
