@@ -1,2 +1,6 @@
-// Filled by this area's estimators as they land.
-export {};
+// Regularised AR over wide lag sets: ridge and lasso, penalty by BIC or rolling-origin validation.
+export { ridgeAr, ridgePath } from './ridge';
+export { lassoAr, lassoPath, lassoLambdaMax, softThreshold, type LassoArOptions } from './lasso';
+export { isStationaryAr } from './ar-stationarity';
+export { buildLaggedDesign, type LaggedDesign } from './lagged-design';
+export type { RegularisedFit, RegularisedArOptions, PenaltyPathPoint, PenaltySelection } from './regularised-fit';

@@ -1,0 +1,101 @@
+/**
+ * Standardised lagged design for regularised AR: the regression of x_t on x_{t−L_1}, …, x_{t−L_k}.
+ *
+ * Model (sign convention of R's arima, for definiteness):
+ *   (x_t − μ) = Σ_j φ_{L_j} (x_{t−L_j} − μ) + e_t,  equivalently  x_t = c + Σ_j φ_{L_j} x_{t−L_j} + e_t,  c = μ(1 − Σφ).
+ *
+ * Method: the rows are t = maxLag+1..n (conditioning on the first maxLag values, as conditional least squares);
+ * each regressor column is centred and divided by its standard deviation, the response is centred, so the
+ * intercept drops out of the penalised problem and is recovered afterwards (Hastie, Tibshirani & Friedman 2009,
+ * The Elements of Statistical Learning, 2nd ed., §3.4.1; Friedman, Hastie & Tibshirani 2010, J. Stat. Softw. 33(1), §2).
+ *
+ * Conventions: column standard deviations use divisor m = n − maxLag (as glmnet), so every standardised column
+ * has Σ z² = m exactly; the penalty then treats every lag on the same scale whatever the units of the load.
+ *
+ * @throws ForecastingError 'invalid-argument' for an empty, non-integer, non-positive or repeated lag;
+ *   'non-finite-input'; 'too-few-observations' unless n − maxLag ≥ k + 2; 'constant-series' when a lagged column
+ *   or the response has no variation.
+ * References: Friedman, Hastie & Tibshirani (2010), J. Stat. Softw. 33(1); Hastie, Tibshirani & Friedman (2009).
+ */
+import { ForecastingError, assertFinite, assertLength } from '../core/errors';
+
+/** The centred and scaled lagged regression behind ridge and lasso AR. */
+export interface LaggedDesign {
+  /** Lags in increasing order. */
+  lags: number[];
+  /** Largest lag: the number of leading observations conditioned on. */
+  maxLag: number;
+  /** Rows used: n − maxLag. */
+  rows: number;
+  /** Standardised columns, one Float64Array of length `rows` per lag. */
+  columns: Float64Array[];
+  /** Centred response x_t − ȳ for t = maxLag+1..n. */
+  response: Float64Array;
+  /** Mean ȳ of the response rows. */
+  responseMean: number;
+  /** Mean of each raw lagged column. */
+  columnMeans: Float64Array;
+  /** Standard deviation (divisor `rows`) of each raw lagged column. */
+  columnScales: Float64Array;
+}
+
+/** Checks a lag set and returns it sorted; throws on an empty, non-integer, non-positive or repeated lag. */
+export function normaliseLags(fn: string, lags: readonly number[]): number[] {
+  if (lags.length === 0) throw new ForecastingError('invalid-argument', fn, 'the lag set is empty: pass e.g. lags 1..48 and 168');
+  const sorted = [...lags].sort((a, b) => a - b);
+  for (let i = 0; i < sorted.length; i++) {
+    const lag = sorted[i];
+    if (!Number.isInteger(lag) || lag < 1) {
+      throw new ForecastingError('invalid-argument', fn, `lags must be positive integers, got ${lag}`);
+    }
+    if (i > 0 && sorted[i - 1] === lag) throw new ForecastingError('invalid-argument', fn, `lag ${lag} appears twice`);
+  }
+  return sorted;
+}
+
+/** Builds the standardised lagged design of `x` for the given lags (see the file comment). */
+export function buildLaggedDesign(fn: string, x: ArrayLike<number>, lagSet: readonly number[]): LaggedDesign {
+  const lags = normaliseLags(fn, lagSet);
+  assertFinite(fn, x);
+  const maxLag = lags[lags.length - 1];
+  const k = lags.length;
+  assertLength(fn, x, maxLag + k + 2, `largest lag ${maxLag} plus ${k} lags plus 2`);
+  const rows = x.length - maxLag;
+
+  let responseMean = 0;
+  for (let t = maxLag; t < x.length; t++) responseMean += x[t];
+  responseMean /= rows;
+  const response = new Float64Array(rows);
+  let responseSs = 0;
+  for (let r = 0; r < rows; r++) {
+    response[r] = x[maxLag + r] - responseMean;
+    responseSs += response[r] * response[r];
+  }
+  if (!(responseSs > 0)) throw new ForecastingError('constant-series', fn, 'the series is constant after the first maxLag values');
+
+  const columns: Float64Array[] = [];
+  const columnMeans = new Float64Array(k);
+  const columnScales = new Float64Array(k);
+  for (let j = 0; j < k; j++) {
+    const lag = lags[j];
+    const column = new Float64Array(rows);
+    let mean = 0;
+    for (let r = 0; r < rows; r++) {
+      column[r] = x[maxLag + r - lag];
+      mean += column[r];
+    }
+    mean /= rows;
+    let ss = 0;
+    for (let r = 0; r < rows; r++) {
+      column[r] -= mean;
+      ss += column[r] * column[r];
+    }
+    const scale = Math.sqrt(ss / rows);
+    if (!(scale > 0)) throw new ForecastingError('constant-series', fn, `the column at lag ${lag} is constant`);
+    for (let r = 0; r < rows; r++) column[r] /= scale;
+    columns.push(column);
+    columnMeans[j] = mean;
+    columnScales[j] = scale;
+  }
+  return { lags, maxLag, rows, columns, response, responseMean, columnMeans, columnScales };
+}
