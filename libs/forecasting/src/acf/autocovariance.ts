@@ -36,7 +36,31 @@ export function autocovariance(x: ArrayLike<number>, maxLag: number): Float64Arr
   const w = new Float64Array(n);
   for (let t = 0; t < n; t++) w[t] = x[t] - mean;
   const gamma = new Float64Array(maxLag + 1);
-  for (let k = 0; k <= maxLag; k++) {
+  // Four lags per pass over the series (each w[t] loaded once for four products); the tail of
+  // each lag beyond the shared range is added separately.
+  let k = 0;
+  for (; k + 3 <= maxLag; k += 4) {
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
+    const shared = n - k - 3;
+    for (let t = 0; t < shared; t++) {
+      const a = w[t];
+      s0 += a * w[t + k];
+      s1 += a * w[t + k + 1];
+      s2 += a * w[t + k + 2];
+      s3 += a * w[t + k + 3];
+    }
+    for (let t = Math.max(shared, 0); t < n - k; t++) s0 += w[t] * w[t + k];
+    for (let t = Math.max(shared, 0); t < n - k - 1; t++) s1 += w[t] * w[t + k + 1];
+    for (let t = Math.max(shared, 0); t < n - k - 2; t++) s2 += w[t] * w[t + k + 2];
+    gamma[k] = s0 / n;
+    gamma[k + 1] = s1 / n;
+    gamma[k + 2] = s2 / n;
+    gamma[k + 3] = s3 / n;
+  }
+  for (; k <= maxLag; k++) {
     let sum = 0;
     for (let t = 0; t < n - k; t++) sum += w[t] * w[t + k];
     gamma[k] = sum / n;

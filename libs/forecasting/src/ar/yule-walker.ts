@@ -28,9 +28,9 @@
  * References: Yule (1927), Phil. Trans. R. Soc. A 226; Walker (1931), Proc. R. Soc. A 131;
  * Brockwell & Davis (2016) §5.1.1; R `stats::ar.yw` source (ar.R) for the rescaled variance.
  */
-import { inverse, Matrix } from 'ml-matrix';
 import { autocovariance } from '../acf/autocovariance';
 import { levinsonDurbin } from '../acf/levinson-durbin';
+import { toeplitzInverseDiagonal } from '../acf/toeplitz-inverse';
 import { armaResiduals } from '../core/arma-filter';
 import { assertFinite, assertLength, ForecastingError } from '../core/errors';
 import { conditionalInformationCriteria } from '../core/information-criteria';
@@ -54,10 +54,8 @@ export function yuleWalker(x: ArrayLike<number>, p: number): FitResult {
   const sigma2 = phi ? phi.variances[p] : gamma[0];
   if (!(sigma2 > 0)) throw new ForecastingError('non-stationary', fn, 'the innovation variance vanished; the series is (numerically) a perfect AR recursion');
 
-  const toeplitz = Matrix.zeros(p, p);
-  for (let i = 0; i < p; i++) for (let j = 0; j < p; j++) toeplitz.set(i, j, gamma[Math.abs(i - j)]);
-  const precision = p > 0 ? inverse(toeplitz) : toeplitz;
-  const arStderr = ar.map((_, i) => Math.sqrt((sigma2 * precision.get(i, i)) / n));
+  const precision = p > 0 ? toeplitzInverseDiagonal(gamma, p) : new Float64Array(0);
+  const arStderr = ar.map((_, i) => Math.sqrt((sigma2 * precision[i]) / n));
   const persistence = 1 - ar.reduce((s, v) => s + v, 0);
   const criteria = conditionalInformationCriteria(n, p, 0, sigma2);
 

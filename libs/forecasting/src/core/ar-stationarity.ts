@@ -1,5 +1,5 @@
 /**
- * Stationarity (causality) test for an AR polynomial φ(z) = 1 − φ_1 z − … − φ_p z^p.
+ * Causality (stationarity) test for an AR polynomial φ(z) = 1 − φ_1 z − … − φ_p z^p.
  *
  * The AR part of (x_t − μ) = Σ φ_i (x_{t−i} − μ) + e_t + … is causal and stationary iff every
  * root of φ(z) lies outside the unit circle.
@@ -33,6 +33,6 @@ export function arToPartialAutocorrelations(ar: ArrayLike<number>): Float64Array
 }
 
 /** True when φ(z) = 1 − Σ φ_i z^i has all its roots outside the unit circle. */
-export function isStationaryAr(ar: ArrayLike<number>): boolean {
+export function isCausalAr(ar: ArrayLike<number>): boolean {
   return arToPartialAutocorrelations(ar) !== null;
 }

@@ -33,14 +33,42 @@ export function armaResiduals(
   const q = ma.length;
   const w = new Float64Array(n);
   for (let t = 0; t < n; t++) w[t] = x[t] - mean;
+  const phi = Float64Array.from(ar);
+  const theta = Float64Array.from(ma);
   const e = new Float64Array(n);
-  for (let t = p; t < n; t++) {
-    let value = w[t];
-    for (let i = 0; i < p; i++) value -= ar[i] * w[t - i - 1];
-    // e before t = p is 0 (conditioned on or pre-sample), so those terms drop out.
-    const reach = Math.min(q, t - p);
-    for (let j = 0; j < reach; j++) value -= ma[j] * e[t - j - 1];
-    e[t] = value;
+  // AR part u_t = w_t − Σ φ_i w_{t−i} first: it is not recursive, so four t share each φ_i.
+  let t = p;
+  for (; t + 3 < n; t += 4) {
+    let u0 = w[t];
+    let u1 = w[t + 1];
+    let u2 = w[t + 2];
+    let u3 = w[t + 3];
+    for (let i = 0; i < p; i++) {
+      const c = phi[i];
+      const base = t - i - 1;
+      u0 -= c * w[base];
+      u1 -= c * w[base + 1];
+      u2 -= c * w[base + 2];
+      u3 -= c * w[base + 3];
+    }
+    e[t] = u0;
+    e[t + 1] = u1;
+    e[t + 2] = u2;
+    e[t + 3] = u3;
+  }
+  for (; t < n; t++) {
+    let u = w[t];
+    for (let i = 0; i < p; i++) u -= phi[i] * w[t - i - 1];
+    e[t] = u;
+  }
+  // MA part e_t = u_t − Σ θ_j e_{t−j}, recursive; e before t = p is 0 (conditioned on or pre-sample).
+  if (q > 0) {
+    for (let s = p; s < n; s++) {
+      let value = e[s];
+      const reach = Math.min(q, s - p);
+      for (let j = 0; j < reach; j++) value -= theta[j] * e[s - j - 1];
+      e[s] = value;
+    }
   }
   return e;
 }

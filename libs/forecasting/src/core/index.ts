@@ -6,3 +6,4 @@ export * from './chi-square';
 export * from './arma-filter';
 export * from './ar-stationarity';
 export * from './information-criteria';
+export * from './householder-least-squares';
