@@ -15,7 +15,7 @@
  * References: Zou, Hastie & Tibshirani (2007); Bergmeir, Hyndman & Koo (2018); Tashman (2000).
  */
 import { ForecastingError } from '../core/errors';
-import { isStationaryAr } from './ar-stationarity';
+import { isCausalAr } from '../core/ar-stationarity';
 import { buildLaggedDesign, type LaggedDesign } from './lagged-design';
 import {
   backTransform,
@@ -52,7 +52,7 @@ export function selectPenalty(
   let bestScore = Infinity;
   solutions.forEach((solution, i) => {
     const { ar } = backTransform(design, solution.beta);
-    const stationary = isStationaryAr(ar);
+    const stationary = isCausalAr(ar);
     const rss = residualSumOfSquares(design, solution.beta);
     const bic = stationary && rss > 0 ? criteria(rss, design.rows, solution.df).bic : null;
     const mse = validationMse ? validationMse[i] : null;

@@ -9,14 +9,14 @@
  *   the number of parameters counted by AIC/AICc/BIC is k = df + 2 (df of the penalised coefficients,
  *   plus the mean and σ²), with BIC's log(n − maxLag). df is reported beside them.
  * @throws ForecastingError 'non-stationary' when the AR polynomial has a root on or inside the unit circle
- *   (μ is then undefined and forecasts would diverge); 'constant-series' when the lags reproduce the series
+ *   (step-down test, core/ar-stationarity.ts; μ is then undefined and forecasts would diverge); 'constant-series' when the lags reproduce the series
  *   exactly (σ² = 0).
  * References: Zou, Hastie & Tibshirani (2007), Ann. Statist. 35(5) (lasso df); Hastie, Tibshirani & Friedman
  *   (2009) §3.4.1 eq. 3.50 (ridge df); Brockwell & Davis (2016) §5.2 (conditional likelihood).
  */
 import { ForecastingError } from '../core/errors';
 import type { FitResult } from '../core/types';
-import { isStationaryAr } from './ar-stationarity';
+import { isCausalAr } from '../core/ar-stationarity';
 import type { LaggedDesign } from './lagged-design';
 
 /** How the penalty was chosen. */
@@ -122,7 +122,7 @@ export function assembleFit(
   extra: { selection: 'fixed' | PenaltySelection; path: PenaltyPathPoint[]; converged: boolean | null; iterations: number | null },
 ): RegularisedFit {
   const { ar, intercept } = backTransform(design, solution.beta);
-  if (!isStationaryAr(ar)) {
+  if (!isCausalAr(ar)) {
     throw new ForecastingError(
       'non-stationary',
       fn,

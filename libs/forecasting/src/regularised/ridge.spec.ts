@@ -3,12 +3,14 @@
  * - λ = 0 against R: fixtures/reference/ref/lh.json `ols["3"].lm_ols` (call `E <- embed(as.numeric(x), 4);
  *   lm(E[, 1] ~ E[, -1])`, R 4.2.2), data fixtures/reference/data/lh.json. R stores 15 significant digits and
  *   both sides solve the same least-squares problem (R by QR, here by SVD), so 1e-10 absolute / 1e-8 relative.
- * - λ = 0 against a QR least-squares fit computed below with ml-matrix on a simulated AR(3), to 1e-8.
+ * - λ = 0 against a QR least-squares fit computed below with ml-matrix, and against the engine's cmleAr, on a
+ *   simulated AR(3), to 1e-8.
  * - Closed form (ZᵀZ + λI)⁻¹Zᵀy on a hand case, arithmetic in the comments, to 1e-12 (rounding only).
  */
 import { readFileSync } from 'node:fs';
 import { Matrix, QrDecomposition, inverse } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
+import { cmleAr } from '../ar/cmle';
 import { ForecastingError } from '../core/errors';
 import { ridgeAr } from './ridge';
 import { simulateSparseAr } from './simulated-ar.testing';
@@ -54,6 +56,11 @@ describe('ridgeAr', () => {
     expect(Math.abs(fit.intercept - qr.intercept) / Math.abs(qr.intercept)).toBeLessThan(1e-8);
     expect(Math.abs(fit.sigma2 - qr.rss / (x.length - 3)) / fit.sigma2).toBeLessThan(1e-8);
     expect(fit.mean).toBeCloseTo(qr.intercept / (1 - qr.ar.reduce((s, v) => s + v, 0)), 8);
+    const cmle = cmleAr(x, 3);
+    fit.ar.forEach((phi, i) => expect(Math.abs(phi - cmle.ar[i])).toBeLessThan(1e-8));
+    expect(Math.abs(fit.mean - cmle.mean)).toBeLessThan(1e-8);
+    expect(Math.abs(fit.sigma2 / cmle.sigma2 - 1)).toBeLessThan(1e-8);
+    expect(fit.loglik!).toBeCloseTo(cmle.loglik!, 8);
     // Residuals: the first maxLag are the conditioned-on zeros.
     expect(Array.from(fit.residuals.subarray(0, 3))).toEqual([0, 0, 0]);
   });
