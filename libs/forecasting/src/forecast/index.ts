@@ -1,2 +1,3 @@
-// Filled by this area's estimators as they land.
-export {};
+export * from './psi-weights';
+export * from './forecast-arma';
+export * from './intervals';
