@@ -1,2 +1,2 @@
-// Filled by this area's estimators as they land.
-export {};
+export * from './ljung-box';
+export * from './residual-diagnostics';
