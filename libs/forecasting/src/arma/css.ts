@@ -65,19 +65,61 @@ export function cssSumOfSquares(
 
 /** Buffers reused across Levenberg-Marquardt iterations so a fit allocates once. */
 export interface CssWorkspace {
-  /** Jacobian rows ∂e_t/∂β, row-major n × k; the recursion reads back the last q rows. */
+  layout: CssLayout;
+  /** Jacobian rows ∂e_t/∂β in a ring of q + 1 rows (the recursion reads back only q), k per row. */
   derivatives: Float64Array;
-  /** Second-derivative rows ∂²e_t/∂β_a∂β_b (a ≤ b, packed), row-major n × k(k+1)/2. */
+  /** Second-derivative rows ∂²e_t/∂β_a∂β_b over the packed pairs a ≤ b, same ring, k(k+1)/2 per row. */
   secondDerivatives: Float64Array;
   residuals: Float64Array;
+  /** Packed pair index → a, b, the MA lag of a and of b (−1 when not an MA parameter), and the constant term. */
+  pairA: Int32Array;
+  pairB: Int32Array;
+  pairLagA: Int32Array;
+  pairLagB: Int32Array;
+  pairConstant: Float64Array;
+  /** Σ e_t ∂²e_t/∂β_a∂β_b over the packed pairs. */
+  packedCurvature: Float64Array;
+  /** Ring offsets of the rows t−1..t−q during a pass (first and second derivatives). */
+  backRow: Int32Array;
+  backRow2: Int32Array;
 }
 
-/** Allocates the buffers for a series of length n and k parameters. */
-export function createCssWorkspace(n: number, k: number): CssWorkspace {
+/** Allocates the buffers for a series of length n under `layout`. */
+export function createCssWorkspace(n: number, layout: CssLayout): CssWorkspace {
+  const { p, q, includeMean } = layout;
+  const k = cssParameterCount(layout);
+  const kk = (k * (k + 1)) / 2;
+  const pairA = new Int32Array(kk);
+  const pairB = new Int32Array(kk);
+  const pairLagA = new Int32Array(kk);
+  const pairLagB = new Int32Array(kk);
+  const pairConstant = new Float64Array(kk);
+  const maLag = (c: number) => (c >= p && c < p + q ? c - p : -1);
+  let idx = 0;
+  for (let a = 0; a < k; a++) {
+    for (let b = a; b < k; b++) {
+      pairA[idx] = a;
+      pairB[idx] = b;
+      pairLagA[idx] = maLag(a);
+      pairLagB[idx] = maLag(b);
+      // ∂/∂μ of ∂e_t/∂φ_i = −(x_{t−i} − μ) is +1.
+      pairConstant[idx] = includeMean && b === p + q && a < p ? 1 : 0;
+      idx++;
+    }
+  }
   return {
-    derivatives: new Float64Array(n * k),
-    secondDerivatives: new Float64Array(n * ((k * (k + 1)) / 2)),
+    layout,
+    derivatives: new Float64Array((q + 1) * k),
+    secondDerivatives: new Float64Array((q + 1) * kk),
     residuals: new Float64Array(n),
+    pairA,
+    pairB,
+    pairLagA,
+    pairLagB,
+    pairConstant,
+    packedCurvature: new Float64Array(kk),
+    backRow: new Int32Array(q),
+    backRow2: new Int32Array(q),
   };
 }
 
@@ -88,42 +130,43 @@ export function createCssWorkspace(n: number, k: number): CssWorkspace {
  *   ∂²e_t/∂β_a∂β_b = [a = φ_i, b = μ] − Σ_j θ_j ∂²e_{t−j}/∂β_a∂β_b
  *                    − [a = θ_j] ∂e_{t−j}/∂β_b − [b = θ_j] ∂e_{t−j}/∂β_a
  * (differentiate the recursion of ∂e_t once more; φ-φ and μ-μ terms are identically 0).
- * Returns Infinity on overflow.
+ * Returns Infinity on overflow. `workspace` must have been created for the same n and layout.
  */
 export function cssNormalEquations(
   x: Float64Array,
   beta: Float64Array,
-  layout: CssLayout,
   workspace: CssWorkspace,
   jtj: Float64Array,
   jte: Float64Array,
   hessian: Float64Array | null = null,
 ): number {
-  const { p, q, includeMean } = layout;
+  const { p, q, includeMean } = workspace.layout;
   const k = p + q + (includeMean ? 1 : 0);
   const kk = (k * (k + 1)) / 2;
   const n = x.length;
   const mu = includeMean ? beta[p + q] : 0;
-  const muIndex = p + q;
   const e = workspace.residuals;
   const d = workspace.derivatives;
   const s2 = workspace.secondDerivatives;
+  const { pairA, pairB, pairLagA, pairLagB, pairConstant } = workspace;
+  const curvature = workspace.packedCurvature;
+  const { backRow, backRow2 } = workspace;
   const second = hessian !== null;
   jtj.fill(0);
   jte.fill(0);
-  if (second) hessian.fill(0);
+  curvature.fill(0);
   let oneMinusSumPhi = 1;
   for (let i = 0; i < p; i++) oneMinusSumPhi -= beta[i];
-  for (let t = 0; t < p; t++) {
-    e[t] = 0;
-    for (let c = 0; c < k; c++) d[t * k + c] = 0;
-    if (second) for (let c = 0; c < kk; c++) s2[t * kk + c] = 0;
-  }
+  for (let t = 0; t < p; t++) e[t] = 0;
+  // Ring of q + 1 rows: row t lives in slot t mod (q + 1); rows before p are never read (reach).
+  const ring = q + 1;
+  let slot = 0;
   let sum = 0;
   for (let t = p; t < n; t++) {
-    const row = t * k;
+    const row = slot * k;
+    const row2 = slot * kk;
     const reach = q < t - p ? q : t - p;
-    // Direct terms of e_t and of each derivative.
+    // Residual and the direct terms of each derivative.
     let et = x[t] - mu;
     for (let i = 0; i < p; i++) {
       const lagged = x[t - 1 - i] - mu;
@@ -131,30 +174,28 @@ export function cssNormalEquations(
       d[row + i] = -lagged;
     }
     for (let j = 0; j < q; j++) d[row + p + j] = j < reach ? -e[t - 1 - j] : 0;
-    if (includeMean) d[row + muIndex] = -oneMinusSumPhi;
+    if (includeMean) d[row + p + q] = -oneMinusSumPhi;
+    // Ring offsets of rows t−1..t−reach, shared by every recursion below.
+    for (let j = 0; j < reach; j++) {
+      const back = slot - 1 - j < 0 ? slot - 1 - j + ring : slot - 1 - j;
+      backRow[j] = back * k;
+      backRow2[j] = back * kk;
+    }
     if (second) {
-      const row2 = t * kk;
-      // Packed upper triangle: pair (a, b), a ≤ b, at index a·k − a(a−1)/2 + (b − a).
-      let idx = 0;
-      for (let a = 0; a < k; a++) {
-        for (let b = a; b < k; b++) {
-          // ∂/∂μ of −(x_{t−i} − μ) is +1 for every φ_i.
-          let value = includeMean && b === muIndex && a < p ? 1 : 0;
-          for (let j = 0; j < reach; j++) {
-            const theta = beta[p + j];
-            value -= theta * s2[row2 - (j + 1) * kk + idx];
-          }
-          if (a >= p && a < p + q && a - p < reach) value -= d[(t - 1 - (a - p)) * k + b];
-          if (b >= p && b < p + q && b - p < reach) value -= d[(t - 1 - (b - p)) * k + a];
-          s2[row2 + idx] = value;
-          idx++;
-        }
+      for (let idx = 0; idx < kk; idx++) {
+        let value = pairConstant[idx];
+        for (let j = 0; j < reach; j++) value -= beta[p + j] * s2[backRow2[j] + idx];
+        const lagA = pairLagA[idx];
+        if (lagA >= 0 && lagA < reach) value -= d[backRow[lagA] + pairB[idx]];
+        const lagB = pairLagB[idx];
+        if (lagB >= 0 && lagB < reach) value -= d[backRow[lagB] + pairA[idx]];
+        s2[row2 + idx] = value;
       }
     }
     // Moving-average feedback, shared by the residual and every first derivative.
     for (let j = 0; j < reach; j++) {
       const theta = beta[p + j];
-      const back = row - (j + 1) * k;
+      const back = backRow[j];
       et -= theta * e[t - 1 - j];
       for (let c = 0; c < k; c++) d[row + c] -= theta * d[back + c];
     }
@@ -166,20 +207,16 @@ export function cssNormalEquations(
       const base = a * k;
       for (let b = a; b < k; b++) jtj[base + b] += da * d[row + b];
     }
-    if (second) {
-      const row2 = t * kk;
-      let idx = 0;
-      for (let a = 0; a < k; a++) {
-        const base = a * k;
-        for (let b = a; b < k; b++) hessian[base + b] += et * s2[row2 + idx++];
-      }
-    }
+    if (second) for (let idx = 0; idx < kk; idx++) curvature[idx] += et * s2[row2 + idx];
+    slot = slot + 1 === ring ? 0 : slot + 1;
   }
   for (let a = 0; a < k; a++) for (let b = 0; b < a; b++) jtj[a * k + b] = jtj[b * k + a];
   if (second) {
-    for (let a = 0; a < k; a++) {
-      for (let b = a; b < k; b++) hessian[a * k + b] += jtj[a * k + b];
-      for (let b = 0; b < a; b++) hessian[a * k + b] = hessian[b * k + a];
+    for (let idx = 0; idx < kk; idx++) {
+      const a = pairA[idx];
+      const b = pairB[idx];
+      hessian[a * k + b] = jtj[a * k + b] + curvature[idx];
+      hessian[b * k + a] = hessian[a * k + b];
     }
   }
   return Number.isFinite(sum) ? sum : Infinity;

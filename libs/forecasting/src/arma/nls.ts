@@ -116,7 +116,7 @@ export function nlsArma(x: ArrayLike<number>, p: number, q: number, options: Nls
   beta.set(start.ma, p);
   if (includeMean) beta[p + q] = start.mean;
 
-  const workspace = createCssWorkspace(n, k);
+  const workspace = createCssWorkspace(n, layout);
   let jtj = new Float64Array(k * k);
   let gradient = new Float64Array(k);
   let hessian = new Float64Array(k * k);
@@ -128,11 +128,11 @@ export function nlsArma(x: ArrayLike<number>, p: number, q: number, options: Nls
   const step = new Float64Array(k);
   const trial = new Float64Array(k);
 
-  let css = cssNormalEquations(series, beta, layout, workspace, jtj, gradient, hessian);
+  let css = cssNormalEquations(series, beta, workspace, jtj, gradient, hessian);
   if (!Number.isFinite(css)) {
     throw new ForecastingError('no-convergence', FN, 'the sum of squares is not finite at the starting values');
   }
-  let lambda = 1e-8;
+  let lambda = 1e-12;
   let iterations = 0;
   let converged = k === 0;
   while (!converged && iterations < maxIterations) {
@@ -161,7 +161,7 @@ export function nlsArma(x: ArrayLike<number>, p: number, q: number, options: Nls
         lambda = Math.max(lambda * 10, 1e-6);
         continue;
       }
-      const trialCss = cssNormalEquations(series, trial, layout, workspace, trialJtj, trialGradient, trialHessian);
+      const trialCss = cssNormalEquations(series, trial, workspace, trialJtj, trialGradient, trialHessian);
       if (trialCss < css) {
         beta.set(trial);
         css = trialCss;
