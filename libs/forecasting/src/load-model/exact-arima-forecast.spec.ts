@@ -1,7 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { expectRelative, loadReference, loadSeries, maxRelativeError } from '../core/spec-support';
-import { multiplyMaPolynomials } from '../seasonal/lag-polynomial';
+import { psiWeights } from '../forecast/psi-weights';
+import { arWithSeasonalDifference, multiplyMaPolynomials } from '../seasonal/lag-polynomial';
 import { exactArimaForecast } from './exact-arima-forecast';
+import { seededNormal } from './synthetic-load.testing';
 
 // Source: fixtures/reference/ref/USAccDeaths.json (copied unchanged from the shared R reference set).
 // `seasonal.full_fit`: arima(x, order = c(1, 0, 1), seasonal = list(order = c(0, 1, 1)), method = "ML"),
@@ -37,5 +39,34 @@ describe('exactArimaForecast against R predict (USAccDeaths SARIMA(1,0,1)(0,1,1)
 
   it('refuses a non-stationary AR part', () => {
     expect(() => exactArimaForecast({ mean: 0, ar: [1.01], ma: [], sigma2: 1 }, [1, 2, 3], null, 2)).toThrow(/unit circle/);
+  });
+});
+
+describe('exactArimaForecast and the ψ-weight reassembly the pipeline uses', () => {
+  it('agree once the end-of-sample state is known (long series), validating ψ-weights of φ(B)(1 − B^s)', () => {
+    // Simulate 2400 months of the USAccDeaths SARIMA with R's coefficients (seeded): the state-uncertainty
+    // term decays like |Θ|^(n/12) = 0.6^200 ≈ 1e-44, so the exact se must equal σ·√Σψ*² to rounding.
+    const normal = seededNormal(3);
+    const n = 2400;
+    const e = Float64Array.from({ length: n }, () => normal() * Math.sqrt(model.sigma2));
+    const w = new Float64Array(n);
+    for (let t = 0; t < n; t++) {
+      let v = e[t] + (t >= 1 ? ar1 * w[t - 1] : 0);
+      model.ma.forEach((theta, j) => {
+        if (t - j - 1 >= 0) v += theta * e[t - j - 1];
+      });
+      w[t] = v;
+    }
+    const series = new Float64Array(n + 12);
+    series.set(x.slice(0, 12));
+    for (let t = 12; t < series.length; t++) series[t] = series[t - 12] + w[t - 12];
+    const exact = exactArimaForecast(model, series, 12, 36);
+    const psi = psiWeights(arWithSeasonalDifference([ar1], 12), model.ma, 36);
+    let sum = 0;
+    const psiSe = Float64Array.from(psi, (v) => {
+      sum += v * v;
+      return Math.sqrt(model.sigma2 * sum);
+    });
+    expectRelative(exact.se, psiSe, 1e-9, 'se');
   });
 });

@@ -51,7 +51,7 @@ export function exactArimaForecast(model: ArmaParameters, x: ArrayLike<number>, 
   const { a, P } = filterState(w, model.mean, phi, loading);
   // ℓ_k = first row of T^k: the loading of w_{n+1+k} on the state α_{n+1}.
   const rows: Float64Array[] = [];
-  let row = new Float64Array(r);
+  let row: Float64Array = new Float64Array(r);
   row[0] = 1;
   for (let k = 0; k < horizon; k++) {
     rows.push(row);
@@ -76,7 +76,7 @@ export function exactArimaForecast(model: ArmaParameters, x: ArrayLike<number>, 
 function filterState(w: Float64Array, mu: number, phi: Float64Array, loading: Float64Array): { a: Float64Array; P: Float64Array[] } {
   const r = phi.length;
   let P = stationaryCovariance(phi, loading);
-  let a = new Float64Array(r);
+  let a: Float64Array = new Float64Array(r);
   for (let t = 0; t < w.length; t++) {
     const f = P[0][0];
     const v = w[t] - mu - a[0];
@@ -94,8 +94,8 @@ function filterState(w: Float64Array, mu: number, phi: Float64Array, loading: Fl
 /** Solves P = TPTᵀ + RRᵀ by doubling: P ← P + A P Aᵀ, A ← A², until A vanishes. */
 function stationaryCovariance(phi: Float64Array, loading: Float64Array): Float64Array[] {
   const r = phi.length;
-  let P = Array.from({ length: r }, (_, i) => Float64Array.from(loading, (v) => v * loading[i]));
-  let A = Array.from({ length: r }, (_, i) => {
+  let P: Float64Array[] = Array.from({ length: r }, (_, i) => Float64Array.from(loading, (v) => v * loading[i]));
+  let A: Float64Array[] = Array.from({ length: r }, (_, i) => {
     const rowA = new Float64Array(r);
     rowA[0] = phi[i];
     if (i + 1 < r) rowA[i + 1] = 1;
