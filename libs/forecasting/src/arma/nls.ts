@@ -5,13 +5,15 @@
  * (R's `arima` sign convention).
  *
  * Method: minimise CSS(φ, θ, μ) = Σ_{t=p+1..n} e_t² (Box, Jenkins, Reinsel & Ljung 2016, Time Series
- * Analysis, 5th ed., §7.1.2 conditional likelihood, §7.2 nonlinear estimation) by Levenberg-Marquardt
- * (Levenberg 1944; Marquardt 1963, J. SIAM 11(2), diagonal scaling by diag(JᵀJ)) from Hannan-Rissanen
- * starting values (Hannan & Rissanen 1982), with the analytic Jacobian from the recursive-filtering
- * derivatives of ./css.ts. Convergence: the relative offset of Bates & Watts (1981, Technometrics
- * 23(2); Bates & Watts 1988, Nonlinear Regression Analysis, §2.2.3) — the Gauss-Newton increment's
- * length relative to the residual scale — below `tolerance`, or a predicted decrease below 1e-14·CSS,
- * which double precision cannot resolve.
+ * Analysis, 5th ed., §7.1.2 conditional likelihood, §7.2 nonlinear estimation) from Hannan-Rissanen
+ * starting values (Hannan & Rissanen 1982) by Levenberg-Marquardt steps (Levenberg 1944; Marquardt
+ * 1963, J. SIAM 11(2): damping λ·diag(JᵀJ)) on the Newton system: half the exact Hessian
+ * JᵀJ + Σ e_t ∇²e_t where it is positive definite (near the optimum: quadratic convergence, where
+ * Gauss-Newton alone can crawl on near-redundant models), JᵀJ (Gauss-Newton) elsewhere. J and ∇²e come
+ * analytically from the recursive-filtering derivatives of ./css.ts. Convergence: the relative offset of
+ * Bates & Watts (1981, Technometrics 23(2); Bates & Watts 1988, Nonlinear Regression Analysis §2.2.3) —
+ * the predicted decrease relative to the residual scale — below `tolerance`, or a predicted decrease
+ * below 1e-14·CSS, which double precision cannot resolve.
  *
  * Stationarity and invertibility: enforced by root reflection, not by reparametrisation. A trial step
  * whose AR (MA) polynomial has a zero inside the unit circle has that reciprocal root λ replaced by
@@ -24,8 +26,10 @@
  * Conventions: conditional on the first p observations (e_1..e_p = 0, returned as 0), pre-sample
  * innovations 0, as R's `arima(method = "CSS")` with n.cond = p.
  * σ² = CSS/(n − p) (the conditional MLE, as R). Standard errors: Gauss-Newton, cov = σ²·(JᵀJ)⁻¹ at the
- * optimum (R instead inverts a numerical Hessian of ½·log(CSS/(n − p)) times n, so R's errors are about
- * √((n − p)/n) times ours). Conditional Gaussian log-likelihood ℓ = −((n − p)/2)(log(2πσ²) + 1) over
+ * optimum. R instead inverts a numerical Hessian of ½·log(CSS/(n − p)) times n, which is
+ * (n − p)/n times `observedCovariance` (σ² times the inverse of the exact half Hessian, also reported).
+ * The Gauss-Newton errors drop the curvature term Σ e_t ∇²e_t: within a few per cent of R's on
+ * well-identified models, but e.g. 2.5 times smaller for LakeHuron ARMA(2,1), a near-redundant model. Conditional Gaussian log-likelihood ℓ = −((n − p)/2)(log(2πσ²) + 1) over
  * the n − p residuals; R's CSS "loglik" is −(n/2)(log(2πσ²) + 1) with n counting ALL observations
  * (the conditioned ones too), so the two differ by (p/2)(log(2πσ²) + 1).
  * With K = p + q + 2 parameters (φ, θ, μ and σ²; K = p + q + 1 without a mean) and m = n − p
