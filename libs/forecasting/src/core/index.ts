@@ -7,3 +7,5 @@ export * from './arma-filter';
 export * from './ar-stationarity';
 export * from './information-criteria';
 export * from './householder-least-squares';
+export * from './random';
+export * from './simulate-arma';
