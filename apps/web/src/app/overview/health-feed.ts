@@ -44,6 +44,7 @@ export function pollHealth({ read, checkNow, intervalMs = HEALTH_POLL_INTERVAL_M
   );
 }
 
+/** The error's own message when it has one; errors from HealthClient carry planner-ready text. */
 function messageOf(error: unknown): string {
   return error instanceof Error && error.message ? error.message : 'The health check failed unexpectedly.';
 }

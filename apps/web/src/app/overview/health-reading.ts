@@ -43,9 +43,25 @@ export function verdictOf(reading: HealthReading): HealthVerdict {
             tone: 'warning',
             icon: 'warning',
             headline: 'Service degraded',
-            detail: 'Part of Loadwright is not working; forecasts and refits may be delayed until it recovers.',
+            detail: degradedDetail(failingComponents(reading.report)),
           };
   }
+}
+
+/** "The job queue is not working. …" for one failing component, "… are not working. …" for both. */
+function degradedDetail(failing: readonly string[]): string {
+  if (failing.length === 0) return 'The API reports a problem it did not attribute to the database or the job queue.';
+  const subject = failing.join(' and ');
+  const verb = failing.length === 1 ? 'is' : 'are';
+  return `${subject.charAt(0).toUpperCase()}${subject.slice(1)} ${verb} not working. Uploads, refits and forecasts may wait until it recovers.`;
+}
+
+/** Names of the components that reported a problem, in the order the page shows them. */
+export function failingComponents(report: HealthReport): string[] {
+  const failing: string[] = [];
+  if (!report.database.ok) failing.push('the database');
+  if (!report.queue.ok) failing.push('the job queue');
+  return failing;
 }
 
 /** Describes the database state in words, so colour and icon are never the only signal. */

@@ -1,0 +1,69 @@
+import type { HealthReport } from '@loadwright/contracts';
+import { describe, expect, it } from 'vitest';
+import { databaseLine, failingComponents, formatLatency, queueLine, verdictOf } from './health-reading';
+
+/** A report as the API writes it when everything answers. */
+function healthyReport(): HealthReport {
+  return {
+    status: 'ok',
+    version: '0.1.0',
+    checkedAt: '2026-12-02T07:00:00.000Z',
+    database: { ok: true, latencyMs: 1.84, detail: 'connected' },
+    queue: { ok: true, latencyMs: 12.6, detail: '2 queues', queues: [{ name: 'refit-series', queued: 3, active: 1, failed: 0 }] },
+  };
+}
+
+describe('verdictOf', () => {
+  it('is pending while the first check runs', () => {
+    expect(verdictOf({ state: 'checking' })).toMatchObject({ tone: 'pending', headline: 'Checking service health…' });
+  });
+
+  it('reports all services working on a healthy report', () => {
+    expect(verdictOf({ state: 'answered', report: healthyReport(), checkedAt: new Date() })).toMatchObject({ tone: 'good', icon: 'check_circle', headline: 'All services working' });
+  });
+
+  it('names the one failing component of a degraded report', () => {
+    const report: HealthReport = { ...healthyReport(), status: 'degraded', queue: { ok: false, latencyMs: null, detail: 'job queue not installed yet', queues: [] } };
+    const verdict = verdictOf({ state: 'answered', report, checkedAt: new Date() });
+    expect(verdict).toMatchObject({ tone: 'warning', headline: 'Service degraded' });
+    expect(verdict.detail).toMatch(/^The job queue is not working\./);
+  });
+
+  it('names both failing components with a plural verb', () => {
+    const report: HealthReport = {
+      ...healthyReport(),
+      status: 'degraded',
+      database: { ok: false, latencyMs: null, detail: 'connection refused' },
+      queue: { ok: false, latencyMs: null, detail: 'database unreachable', queues: [] },
+    };
+    expect(verdictOf({ state: 'answered', report, checkedAt: new Date() }).detail).toMatch(/^The database and the job queue are not working\./);
+  });
+
+  it('passes the reason through when the API is unreachable', () => {
+    const verdict = verdictOf({ state: 'unreachable', problem: 'The Loadwright API cannot be reached.', checkedAt: new Date(), lastReport: null });
+    expect(verdict).toEqual({ tone: 'problem', icon: 'cloud_off', headline: 'API unreachable', detail: 'The Loadwright API cannot be reached.' });
+  });
+});
+
+describe('component lines', () => {
+  it('say the state in words, not only with an icon', () => {
+    const report = healthyReport();
+    expect(databaseLine(report)).toMatchObject({ ok: true, icon: 'check_circle', text: 'Database: connected', latency: '1.8 ms' });
+    expect(queueLine(report)).toMatchObject({ ok: true, text: 'Job queue: ready', detail: '2 queues', latency: '13 ms' });
+  });
+
+  it('show the API detail when a component fails', () => {
+    const report: HealthReport = { ...healthyReport(), status: 'degraded', database: { ok: false, latencyMs: null, detail: 'connection refused' } };
+    expect(databaseLine(report)).toEqual({ ok: false, icon: 'error', text: 'Database: not responding', detail: 'connection refused', latency: null });
+    expect(failingComponents(report)).toEqual(['the database']);
+  });
+});
+
+describe('formatLatency', () => {
+  it('keeps one decimal below 10 ms and rounds above', () => {
+    expect(formatLatency(0.04)).toBe('0.0 ms');
+    expect(formatLatency(9.94)).toBe('9.9 ms');
+    expect(formatLatency(10.4)).toBe('10 ms');
+    expect(formatLatency(null)).toBeNull();
+  });
+});

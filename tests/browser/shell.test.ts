@@ -1,0 +1,115 @@
+/**
+ * The web shell in a real browser against a real API: navigation, live health on the Overview,
+ * accessibility, bundled fonts and icons, and no request leaving the machine.
+ */
+import { mkdir } from 'node:fs/promises';
+import { resolve } from 'node:path';
+import { healthReportSchema } from '@loadwright/contracts';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { type TestServer, startTestServer } from '../support/server';
+import { blockingViolations, findAccessibilityViolations } from './support/accessibility';
+import { type TestBrowser, launchBrowser } from './support/browser';
+import { readFonts } from './support/fonts';
+import { watchRequests } from './support/network-guard';
+
+const artifacts = resolve(import.meta.dirname, '../.artifacts');
+const sections = ['Overview', 'Series', 'Uploads', 'Refits', 'Misses', 'People and settings', 'Outbox'];
+
+let server: TestServer;
+let browser: TestBrowser;
+let page: Page;
+let requests: ReturnType<typeof watchRequests>;
+
+beforeAll(async () => {
+  await mkdir(artifacts, { recursive: true });
+  server = await startTestServer();
+  browser = await launchBrowser();
+  page = await browser.context.newPage();
+  requests = watchRequests(page);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+});
+
+describe('web shell', () => {
+  it('opens on the Overview with the section navigation and the cautions', async () => {
+    await page.goto(server.url, { waitUntil: 'networkidle' });
+    expect(new URL(page.url()).pathname).toBe('/overview');
+    expect(await page.title()).toBe('Overview · Loadwright');
+    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toContain('Overview');
+    const navigation = page.getByRole('navigation', { name: 'Sections' });
+    for (const label of sections) expect(await navigation.getByRole('link', { name: label, exact: true }).isVisible()).toBe(true);
+    expect(await navigation.getByRole('link', { name: 'Overview' }).getAttribute('aria-current')).toBe('page');
+    expect(await page.getByRole('contentinfo').textContent()).toContain('Forecasts are decision support.');
+  });
+
+  it('shows live health read from the API', async () => {
+    const report = healthReportSchema.parse(await (await fetch(`${server.url}/api/health`)).json());
+    expect(report.database.ok).toBe(true);
+    const main = page.getByRole('main');
+    await main.getByText('Database: connected').waitFor({ timeout: 15_000 });
+    expect(await main.getByText(report.queue.ok ? 'Job queue: ready' : 'Job queue: unavailable').isVisible()).toBe(true);
+    expect(await main.getByText(`API version ${report.version}`).isVisible()).toBe(true);
+    expect(await main.getByText(/Last checked \d\d:\d\d:\d\d/).isVisible()).toBe(true);
+    expect(requests.all.some((url) => url.endsWith('/api/health'))).toBe(true);
+  });
+
+  it('passes axe-core with no serious or critical violations', async () => {
+    expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
+  });
+
+  it('renders text and icons from the bundled fonts', async () => {
+    const fonts = await readFonts(page);
+    expect(fonts).toMatchObject({ textFontReady: true, iconFontReady: true, bodyFamily: 'Source Sans 3' });
+    expect(fonts.loadedFamilies).toEqual(expect.arrayContaining(['Source Sans 3', 'Material Symbols Outlined']));
+    // A ligature that failed to render shows as a word many times wider than the 24 px glyph.
+    const iconWidth = await page.getByRole('navigation').locator('mat-icon').first().evaluate((icon) => icon.getBoundingClientRect().width);
+    expect(iconWidth).toBeLessThanOrEqual(28);
+    await page.screenshot({ path: resolve(artifacts, 'overview-wide.png') });
+  });
+
+  it('says plainly when the API cannot be reached, and recovers', async () => {
+    await page.route('**/api/health', (route) => route.abort('connectionrefused'));
+    await page.getByRole('button', { name: 'Check now' }).click();
+    const status = page.getByRole('status');
+    await status.getByText('API unreachable').waitFor({ timeout: 10_000 });
+    expect(await status.textContent()).toContain('cannot be reached');
+    expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
+    await page.unroute('**/api/health');
+    await page.getByRole('button', { name: 'Check now' }).click();
+    await status.getByText('All services working').waitFor({ timeout: 10_000 });
+  });
+
+  it('stops polling health once the Overview is left', async () => {
+    const healthCalls = () => requests.all.filter((url) => url.endsWith('/api/health')).length;
+    await page.getByRole('navigation').getByRole('link', { name: 'Refits' }).click();
+    await page.getByText('Arriving in a later release.').waitFor();
+    const afterLeaving = healthCalls();
+    await page.waitForTimeout(11_000);
+    expect(healthCalls()).toBe(afterLeaving);
+    expect(await page.title()).toBe('Refits · Loadwright');
+  });
+
+  it('opens the navigation from a menu button on a phone', async () => {
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.goto(`${server.url}/overview`, { waitUntil: 'networkidle' });
+    await page.getByRole('main').getByText('Database: connected').waitFor({ timeout: 15_000 });
+    await page.screenshot({ path: resolve(artifacts, 'overview-phone.png') });
+    const menu = page.getByRole('button', { name: 'Open navigation' });
+    expect(await menu.getAttribute('aria-expanded')).toBe('false');
+    await menu.click();
+    await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Series' }).click();
+    await page.getByRole('heading', { level: 1, name: 'Series' }).waitFor();
+    expect(await page.getByRole('button', { name: 'Open navigation' }).getAttribute('aria-expanded')).toBe('false');
+    expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
+  });
+
+  it('made no request that left 127.0.0.1', () => {
+    expect(requests.all.length).toBeGreaterThan(5);
+    expect(requests.all.some((url) => url.includes('material-symbols-outlined'))).toBe(true);
+    expect(requests.offMachine).toEqual([]);
+  });
+});
