@@ -1,0 +1,46 @@
+import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
+import pg from 'pg';
+import * as relations from './relations';
+import * as tables from './schema';
+
+/** Tables and relations together, as Drizzle's relational queries need them. */
+export const schema = { ...tables, ...relations };
+
+/** The typed Drizzle database over Loadwright's schema. */
+export type Database = NodePgDatabase<typeof schema>;
+
+/** Pool settings a caller may override. */
+export interface CreateDbOptions {
+  /** Most connections the pool opens (default 10). */
+  max?: number;
+  /** Shown in pg_stat_activity, e.g. "loadwright-api" or "loadwright-worker". */
+  applicationName?: string;
+  /** Milliseconds a statement may run before the server cancels it (default: no limit). */
+  statementTimeoutMs?: number;
+  /** Log every SQL statement through Drizzle's logger. */
+  logQueries?: boolean;
+}
+
+/** A connected database: Drizzle on a node-postgres pool, and a way to close both. */
+export interface DbHandle {
+  db: Database;
+  pool: pg.Pool;
+  close(): Promise<void>;
+}
+
+/**
+ * Opens a connection pool to `url` and wraps it in Drizzle with the schema. Connections are
+ * opened lazily; call `close()` when done so the process can exit.
+ */
+export function createDb(url: string, options: CreateDbOptions = {}): DbHandle {
+  const pool = new pg.Pool({
+    connectionString: url,
+    max: options.max ?? 10,
+    application_name: options.applicationName ?? 'loadwright',
+    statement_timeout: options.statementTimeoutMs,
+  });
+  // An idle client losing its connection must not crash the process; the next query reconnects.
+  pool.on('error', () => {});
+  const db = drizzle(pool, { schema, logger: options.logQueries ?? false });
+  return { db, pool, close: () => pool.end() };
+}
