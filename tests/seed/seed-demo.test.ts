@@ -1,6 +1,7 @@
 import argon2 from 'argon2';
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createDb } from '../../libs/db/src/client';
 import { digestOfDemo } from '../../fixtures/demo/digest';
 import { generateDemo, type DemoData } from '../../fixtures/demo/generate';
 import { demoScenario } from '../../fixtures/demo/scenario';
@@ -90,11 +91,16 @@ describe('seedDemo on a migrated, empty database', () => {
   });
 
   it('does nothing the second time', async () => {
-    const before = await Promise.all(['organisation', 'users', 'series', 'holidays', 'model_specs', 'observations'].map(count));
+    const tables = ['organisation', 'users', 'series', 'holidays', 'model_specs', 'observations'];
+    const countAll = async () => {
+      const counts: number[] = [];
+      for (const table of tables) counts.push(await count(table));
+      return counts;
+    };
+    const before = await countAll();
     const again = await seedDemo(url);
     expect(again).toMatchObject({ seeded: false, observations: 0 });
-    const after = await Promise.all(['organisation', 'users', 'series', 'holidays', 'model_specs', 'observations'].map(count));
-    expect(after).toEqual(before);
+    expect(await countAll()).toEqual(before);
   });
 });
 
@@ -110,10 +116,16 @@ describe('seedDemo under contention and failure', () => {
     expect(rows[0]).toEqual({ orgs: 1, readings: expectedReadings });
   });
 
-  it('leaves nothing behind when a step fails part-way', async () => {
+  it('leaves nothing behind when a step fails part-way (given an open database rather than a URL)', async () => {
     const url = await createTestDatabase();
+    // Two accounts whose e-mails differ only in case break the unique index after the organisation row is in.
     const clash = { ...demoScenario, accounts: [demoScenario.accounts[0]!, { ...demoScenario.accounts[1]!, email: demoScenario.accounts[0]!.email.toUpperCase() }] };
-    await expect(seedDemo(url, { scenario: clash })).rejects.toThrow();
+    const handle = createDb(url, { max: 1 });
+    try {
+      await expect(seedDemo(handle.db, { scenario: clash })).rejects.toMatchObject({ cause: { constraint: 'users_email_lower_key' } });
+    } finally {
+      await handle.close();
+    }
     const client = new pg.Client({ connectionString: url });
     await client.connect();
     const { rows } = await client.query('select (select count(*) from organisation)::int as orgs, (select count(*) from users)::int as people, (select count(*) from series)::int as series');
