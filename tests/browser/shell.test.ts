@@ -101,6 +101,9 @@ describe('web shell', () => {
     const menu = page.getByRole('button', { name: 'Open navigation' });
     expect(await menu.getAttribute('aria-expanded')).toBe('false');
     await menu.click();
+    await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Series' }).waitFor();
+    await page.waitForTimeout(400); // let the drawer finish sliding in before the picture
+    await page.screenshot({ path: resolve(artifacts, 'navigation-phone.png') });
     await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Series' }).click();
     await page.getByRole('heading', { level: 1, name: 'Series' }).waitFor();
     expect(await page.getByRole('button', { name: 'Open navigation' }).getAttribute('aria-expanded')).toBe('false');
