@@ -12,6 +12,8 @@ import { AlreadyRunningError, acquireInstanceLock } from './instance-lock';
 import { defaultLocation, ensurePostgres, stopPostgres } from './postgres';
 import { buildWeb, isWebBuildStale } from './web-build';
 import { seedDemoIfEmpty, demoAccountsText } from './demo-seed';
+import { startMailCatcher, type MailCatcher } from '../apps/api/src/mail/mail-catcher';
+import { ensureSessionSecret } from './session-secret';
 
 const repoRoot = resolve(import.meta.dirname, '..');
 
@@ -21,6 +23,7 @@ async function main(): Promise<number> {
   const releaseLock = acquireInstanceLock(resolve(repoRoot, '.data/instance.json'), { pid: process.pid, url, startedAt: new Date().toISOString() });
   const children: NamedChild[] = [];
   let startedPostgres = false;
+  let catcher: MailCatcher | undefined;
   let stopping = false;
 
   const shutdown = async (code: number) => {
@@ -28,6 +31,7 @@ async function main(): Promise<number> {
     stopping = true;
     console.log('\nStopping Loadwright…');
     await stopAll(children);
+    await catcher?.stop();
     if (startedPostgres) await stopPostgres(defaultLocation());
     releaseLock();
     console.log('Stopped.');
@@ -48,7 +52,16 @@ async function main(): Promise<number> {
       step('Building the web app (first start or changed sources, about 30 s)');
       await buildWeb();
     }
-    const env = { ...process.env, DATABASE_URL: database.url };
+    const env: NodeJS.ProcessEnv = {
+      ...process.env,
+      DATABASE_URL: database.url,
+      SESSION_SECRET: config.SESSION_SECRET ?? ensureSessionSecret(resolve(repoRoot, '.data/session-secret')),
+    };
+    if (!config.SMTP_URL) {
+      catcher = await startMailCatcher(resolve(repoRoot, '.data/outbox'));
+      Object.assign(env, { SMTP_URL: catcher.smtpUrl, OUTBOX_FOLDER: resolve(repoRoot, '.data/outbox') });
+      console.log(`  Mail goes to the local catcher (${catcher.smtpUrl}); admins read it on the Outbox page.`);
+    }
     children.push(startTypeScript('API', 'apps/api/src/server.ts', env));
     for (let i = 1; i <= config.WORKER_PROCESSES; i++) children.push(startTypeScript(`worker ${i}`, 'jobs/worker.ts', { ...env, WORKER_NAME: `worker-${i}` }));
     console.log(`\nLoadwright is running at ${url}\n\n${demoAccountsText()}\nPress Ctrl-C to stop.\n`);

@@ -7,6 +7,7 @@
 import type { TestProject } from 'vitest/node';
 import { migrate } from '@loadwright/db';
 import { createDatabase, defaultLocation, dropDatabase, ensurePostgres, stopPostgres } from '../../scripts/postgres';
+import { buildWeb, isWebBuildStale } from '../../scripts/web-build';
 
 declare module 'vitest' {
   export interface ProvidedContext {
@@ -18,6 +19,8 @@ declare module 'vitest' {
 }
 
 export default async function setup(project: TestProject) {
+  // Browser tests load the production build that the API serves, exactly as `npm start` does.
+  if (isWebBuildStale()) await buildWeb();
   const { adminUrl, startedHere } = await ensurePostgres();
   const template = `lw_test_${Date.now().toString(36)}_${process.pid}`;
   await createDatabase(adminUrl, template);

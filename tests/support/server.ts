@@ -1,12 +1,19 @@
 /**
  * A real Loadwright for a test file: its own migrated database, the API on a free loopback port
- * serving the built web app, and an in-process worker on the same job queue.
+ * serving the built web app, the local mail catcher, and an in-process worker on the same job queue.
  */
+import { randomBytes } from 'node:crypto';
+import { mkdtempSync } from 'node:fs';
 import type { AddressInfo } from 'node:net';
-import { resolve } from 'node:path';
-import pg from 'pg';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { createDb, type Database } from '@loadwright/db';
+import type pg from 'pg';
 import { pino } from 'pino';
 import { createApp } from '../../apps/api/src/app';
+import type { RouteDefinition } from '../../apps/api/src/http/route-table';
+import { startMailCatcher } from '../../apps/api/src/mail/mail-catcher';
+import { createMailer } from '../../apps/api/src/mail/mailer';
 import { createBoss } from '../../jobs/boss';
 import { registerQueues } from '../../jobs/queues';
 import { createTestDatabase } from './database';
@@ -17,34 +24,58 @@ const repoRoot = resolve(import.meta.dirname, '../..');
 export interface TestServer {
   url: string;
   databaseUrl: string;
+  db: Database;
   pool: pg.Pool;
+  /** Folder where the mail catcher keeps what it received over SMTP. */
+  outboxFolder: string;
+  /** Every declared API route. */
+  routes: RouteDefinition[];
   close(): Promise<void>;
 }
 
 /** Starts an instance; call close() in afterAll. */
-export async function startTestServer(options: { worker?: boolean } = {}): Promise<TestServer> {
+export async function startTestServer(options: { worker?: boolean; logLines?: string[] } = {}): Promise<TestServer> {
   const databaseUrl = await createTestDatabase();
-  const logger = pino({ level: process.env['TEST_LOG_LEVEL'] ?? 'silent' });
-  const pool = new pg.Pool({ connectionString: databaseUrl, max: 5 });
+  // Tests that check what reaches the log pass an array that collects every line.
+  const logger = options.logLines
+    ? pino({ level: 'trace' }, { write: (line: string) => void options.logLines!.push(line) })
+    : pino({ level: process.env['TEST_LOG_LEVEL'] ?? 'silent' });
+  const { db, pool, close: closeDb } = createDb(databaseUrl, { max: 5, applicationName: 'loadwright-test' });
+  const outboxFolder = mkdtempSync(join(tmpdir(), 'lw-outbox-'));
+  const catcher = await startMailCatcher(outboxFolder);
   const boss = options.worker === false ? undefined : createBoss(databaseUrl, { supervise: true });
   if (boss) {
     boss.on('error', (error) => logger.error({ err: error }, 'job queue error'));
     await boss.start();
     await registerQueues(boss, { logger, concurrency: 2, databaseUrl });
   }
-  const app = createApp({ pool, logger, webDist: resolve(repoRoot, 'dist/web/browser') });
+  const app = createApp({
+    db,
+    pool,
+    logger,
+    sessionSecret: randomBytes(48),
+    secureCookies: false,
+    mailer: createMailer(catcher.smtpUrl, 'Loadwright <loadwright@test.example>'),
+    publicUrl: 'http://127.0.0.1',
+    outboxFolder,
+    webDist: resolve(repoRoot, 'dist/web/browser'),
+  });
   const server = app.listen(0, '127.0.0.1');
   await new Promise<void>((done) => server.once('listening', done));
   const { port } = server.address() as AddressInfo;
   return {
     url: `http://127.0.0.1:${port}`,
     databaseUrl,
+    db,
     pool,
+    outboxFolder,
+    routes: app.locals['routes'] as RouteDefinition[],
     async close() {
-      await new Promise<void>((done) => server.close(() => done()));
       server.closeAllConnections();
+      await new Promise<void>((done) => server.close(() => done()));
       await boss?.stop({ wait: true, timeout: 5_000 });
-      await pool.end();
+      await catcher.stop();
+      await closeDb();
     },
   };
 }

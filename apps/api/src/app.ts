@@ -1,28 +1,22 @@
 /**
- * The Express application: security headers, request logging, the API routers, problem-details
- * errors, and the built web app with its client-side routes. No listening here, so tests can drive it
- * with supertest.
+ * The Express application: security headers, request logging, the declared API routes behind the
+ * gatekeeper, problem-details errors, and the built web app with its client-side routes. No listening
+ * here, so tests drive it with supertest.
  */
 import { existsSync } from 'node:fs';
 import { resolve } from 'node:path';
+import cookieParser from 'cookie-parser';
 import express from 'express';
 import helmet from 'helmet';
-import type { Pool } from 'pg';
 import { pinoHttp } from 'pino-http';
-import type { Logger } from 'pino';
-import { healthRoutes } from './health/health-routes';
+import type { AppContext } from './app-context';
+import { apiRoutes } from './api-routes';
+import { createGatekeeper } from './auth/gatekeeper';
 import { apiNotFound, problemHandler } from './errors/problem-middleware';
+import { mountRoutes } from './http/mount-routes';
 
-/** What the application needs from the process that hosts it. */
-export interface AppDependencies {
-  pool: Pool;
-  logger: Logger;
-  /** Folder of the built web app (index.html and assets); absent in API-only tests. */
-  webDist?: string;
-}
-
-/** Builds the application around its dependencies. */
-export function createApp({ pool, logger, webDist }: AppDependencies): express.Express {
+/** Builds the application around its context. */
+export function createApp(context: AppContext): express.Express {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
@@ -41,12 +35,13 @@ export function createApp({ pool, logger, webDist }: AppDependencies): express.E
           upgradeInsecureRequests: null,
         },
       },
+      strictTransportSecurity: context.secureCookies,
     }),
   );
   app.use(
     pinoHttp({
-      logger,
-      // One short line per request: no headers, so no cookie or token ever reaches the log.
+      logger: context.logger,
+      // One short line per request: no headers and no query string, so no cookie, token or link secret reaches the log.
       serializers: {
         req: (req: { method: string; url: string }) => ({ method: req.method, url: req.url.split('?')[0] }),
         res: (res: { statusCode: number }) => ({ status: res.statusCode }),
@@ -55,21 +50,23 @@ export function createApp({ pool, logger, webDist }: AppDependencies): express.E
       customErrorMessage: (_req, res) => `request failed with status ${res.statusCode}`,
     }),
   );
+  app.use(cookieParser());
   app.use(express.json({ limit: '2mb' }));
 
-  const api = express.Router();
-  api.use(healthRoutes(pool));
-  api.use(apiNotFound);
-  app.use('/api', api);
+  const gatekeeper = createGatekeeper({ db: context.db, secret: context.sessionSecret, secureCookies: context.secureCookies });
+  const routes = apiRoutes(context);
+  app.locals['routes'] = routes; // read by the access-matrix test
+  app.use('/api', mountRoutes(routes, gatekeeper), apiNotFound);
 
+  const { webDist } = context;
   if (webDist && existsSync(resolve(webDist, 'index.html'))) {
-    app.use(express.static(webDist, { index: false, maxAge: '1h', setHeaders: noCacheForIndex }));
+    app.use(express.static(webDist, { index: false, maxAge: '1h', setHeaders: noCacheForHtml }));
     app.get('/{*splat}', (_req, res) => res.sendFile(resolve(webDist, 'index.html'), { headers: { 'Cache-Control': 'no-cache' } }));
   }
   app.use(problemHandler);
   return app;
 }
 
-function noCacheForIndex(res: express.Response, path: string): void {
+function noCacheForHtml(res: express.Response, path: string): void {
   if (path.endsWith('.html')) res.setHeader('Cache-Control', 'no-cache');
 }

@@ -1,9 +1,11 @@
 /** The API process: reads its configuration, connects to PostgreSQL and serves until told to stop. */
+import { randomBytes } from 'node:crypto';
 import { resolve } from 'node:path';
-import pg from 'pg';
+import { createDb } from '@loadwright/db';
 import { pino } from 'pino';
 import { createApp } from './app';
 import { ConfigError, loadConfig, type Config } from './config';
+import { createMailer } from './mail/mailer';
 
 const repoRoot = resolve(import.meta.dirname, '../../..');
 
@@ -11,15 +13,31 @@ const repoRoot = resolve(import.meta.dirname, '../../..');
 export async function startServer(config: Config) {
   const logger = pino({ level: config.LOG_LEVEL, name: 'api' });
   if (!config.DATABASE_URL) throw new ConfigError('Invalid configuration:\n  DATABASE_URL is required by the API (npm start sets it)');
-  const pool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 10 });
-  pool.on('error', (error) => logger.error({ err: error }, 'idle database connection failed'));
-  const app = createApp({ pool, logger, webDist: resolve(repoRoot, config.WEB_DIST) });
+  if (!config.SMTP_URL) throw new ConfigError('Invalid configuration:\n  SMTP_URL is required by the API (npm start runs a local mail catcher and sets it)');
+  let secret = config.SESSION_SECRET;
+  if (!secret) {
+    logger.warn('SESSION_SECRET is not set: using a random one, so sessions end when this process restarts');
+    secret = randomBytes(48).toString('base64');
+  }
+  const publicUrl = config.PUBLIC_URL ?? `http://${config.HOST}:${config.PORT}`;
+  const { db, pool, close } = createDb(config.DATABASE_URL, { applicationName: 'loadwright-api' });
+  const app = createApp({
+    db,
+    pool,
+    logger,
+    sessionSecret: new TextEncoder().encode(secret),
+    secureCookies: publicUrl.startsWith('https:'),
+    mailer: createMailer(config.SMTP_URL, config.MAIL_FROM),
+    publicUrl,
+    outboxFolder: config.OUTBOX_FOLDER,
+    webDist: resolve(repoRoot, config.WEB_DIST),
+  });
   const server = app.listen(config.PORT, config.HOST);
   await new Promise<void>((done, fail) => server.once('listening', done).once('error', fail));
-  logger.info({ url: `http://${config.HOST}:${config.PORT}` }, 'API listening');
+  logger.info({ url: publicUrl }, 'API listening');
   const stop = async () => {
     await new Promise<void>((done) => server.close(() => done()));
-    await pool.end();
+    await close();
   };
   return { server, stop };
 }

@@ -1,3 +1,9 @@
 // Contracts shared by the API, the worker and the web app: zod schemas and their inferred types.
 export * from './health';
 export * from './problem';
+export * from './permissions';
+export * from './auth';
+export * from './people';
+export * from './api-tokens';
+export * from './audit';
+export * from './outbox';

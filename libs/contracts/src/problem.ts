@@ -22,6 +22,7 @@ export const problemTypes = {
   unauthenticated: { type: '/problems/unauthenticated', title: 'Sign-in required', status: 401 },
   forbidden: { type: '/problems/forbidden', title: 'Not allowed for your role', status: 403 },
   conflict: { type: '/problems/conflict', title: 'Conflicts with the current state', status: 409 },
+  tooManyAttempts: { type: '/problems/too-many-attempts', title: 'Too many attempts', status: 429 },
   payloadTooLarge: { type: '/problems/payload-too-large', title: 'The request is too large', status: 413 },
   unavailable: { type: '/problems/unavailable', title: 'A service the request needs is unavailable', status: 503 },
   internal: { type: '/problems/internal', title: 'Something went wrong on our side', status: 500 },

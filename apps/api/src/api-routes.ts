@@ -1,0 +1,31 @@
+/** Every API route of the product, in one list: the router, the OpenAPI document and the access tests read it. */
+import { z } from 'zod';
+import type { AppContext } from './app-context';
+import { auditRoutes } from './audit/audit-routes';
+import { authRoutes } from './auth/auth-routes';
+import { healthRoutes } from './health/health-routes';
+import { buildOpenApiDocument } from './http/openapi';
+import { defineRoute, type RouteDefinition } from './http/route-table';
+import { outboxRoutes } from './outbox/outbox-routes';
+import { peopleRoutes } from './people/people-routes';
+import { tokenRoutes } from './tokens/token-routes';
+
+const version = process.env['npm_package_version'] ?? '0.1.0';
+
+/** All routes, including the one that describes them. */
+export function apiRoutes(context: AppContext): RouteDefinition[] {
+  const routes = [...healthRoutes(context), ...authRoutes(context), ...peopleRoutes(context), ...tokenRoutes(context), ...auditRoutes(context), ...outboxRoutes(context)];
+  let document: unknown;
+  routes.push(
+    defineRoute({
+      method: 'get',
+      path: '/openapi.json',
+      access: 'public',
+      tag: 'Service',
+      summary: 'This API, described in OpenAPI 3.1',
+      response: z.record(z.string(), z.unknown()),
+      handler: () => (document ??= buildOpenApiDocument(routes, version)) as Record<string, unknown>,
+    }),
+  );
+  return routes;
+}

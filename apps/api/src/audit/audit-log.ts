@@ -1,0 +1,26 @@
+/** Appends to the audit log: who did what, to what, when and from where. */
+import { auditLog, type Database } from '@loadwright/db';
+import type { Actor } from '../auth/actor';
+
+/** One audit entry; `detail` must never hold a password, hash or token. */
+export interface AuditEntry {
+  actor: Actor;
+  action: string;
+  targetType?: string;
+  targetId?: string | number;
+  detail?: Record<string, unknown>;
+  ip?: string;
+}
+
+/** Writes an entry (inside the caller's transaction when given one). */
+export async function recordAudit(db: Pick<Database, 'insert'>, entry: AuditEntry): Promise<void> {
+  await db.insert(auditLog).values({
+    actorUserId: entry.actor.kind === 'user' ? entry.actor.userId : null,
+    actorTokenId: entry.actor.kind === 'token' ? entry.actor.tokenId : null,
+    action: entry.action,
+    targetType: entry.targetType ?? null,
+    targetId: entry.targetId === undefined ? null : String(entry.targetId),
+    detail: entry.detail ?? {},
+    ip: entry.ip ?? null,
+  });
+}

@@ -1,0 +1,29 @@
+import { z } from 'zod';
+
+/** One audit log entry as admins read it. */
+export const auditEntrySchema = z.object({
+  id: z.number().int(),
+  at: z.iso.datetime(),
+  actor: z.object({ kind: z.enum(['user', 'token', 'system']), id: z.number().int().nullable(), name: z.string().nullable() }),
+  action: z.string(),
+  targetType: z.string().nullable(),
+  targetId: z.string().nullable(),
+  detail: z.record(z.string(), z.unknown()),
+  ip: z.string().nullable(),
+});
+
+/** GET /api/audit filters; `before` pages backwards by id. */
+export const auditQuerySchema = z.object({
+  action: z.string().max(80).optional(),
+  actorUserId: z.coerce.number().int().optional(),
+  from: z.iso.datetime().optional(),
+  to: z.iso.datetime().optional(),
+  before: z.coerce.number().int().optional(),
+  limit: z.coerce.number().int().min(1).max(500).default(100),
+});
+
+export const auditPageSchema = z.object({ entries: z.array(auditEntrySchema), nextBefore: z.number().int().nullable() });
+
+export type AuditEntry = z.infer<typeof auditEntrySchema>;
+export type AuditQuery = z.infer<typeof auditQuerySchema>;
+export type AuditPage = z.infer<typeof auditPageSchema>;
