@@ -55,7 +55,15 @@ const designs: Record<string, Design> = {
   plain: {
     name: 'plain',
     description: 'one table, PK (series_id, ts), current revision only (history in a side table)',
-    ddl: [...catalogueDdl, `create table observations (${currentColumns}, primary key (series_id, ts))`],
+    ddl: [
+      ...catalogueDdl,
+      `create table observations (${currentColumns}, primary key (series_id, ts))`,
+      `create table observation_revisions (
+         ts timestamptz not null, value double precision, superseded_at timestamptz not null default now(),
+         series_id integer not null references series(id) on delete cascade, upload_id integer references uploads(id),
+         superseded_by_upload_id integer references uploads(id), quality smallint not null, revision smallint not null,
+         estimated double precision, primary key (series_id, ts, revision))`,
+    ],
     ...singleCurrentReads,
   },
   hash16: {
@@ -185,6 +193,58 @@ async function unnestInsert(client: pg.Client): Promise<{ rows: number; seconds:
   return { rows, seconds: (performance.now() - began) / 1000 };
 }
 
+/**
+ * The intake write path of the chosen design: COPY an upload into a temporary table, copy the rows
+ * it changes into observation_revisions, then upsert, skipping rows whose value is unchanged. The
+ * batch mixes new hours (half), exact repeats (40 %) and corrections (10 %) over the loaded data.
+ */
+async function stagedMerge(url: string): Promise<{ rows: number; seconds: number; revised: number }> {
+  const merge = [
+    `create temp table incoming (ts timestamptz, value float8, series_id int, quality smallint, estimated float8)`,
+    '\\copy incoming (ts, value, series_id, quality) from stdin with (format text)',
+    `insert into observation_revisions (ts, value, superseded_at, series_id, upload_id, superseded_by_upload_id, quality, revision, estimated)
+       select o.ts, o.value, now(), o.series_id, o.upload_id, 2, o.quality, o.revision, o.estimated
+       from incoming i join observations o on o.series_id = i.series_id and o.ts = i.ts
+       where o.value is distinct from i.value`,
+    `insert into observations (ts, value, series_id, upload_id, quality, revision, estimated)
+       select ts, value, series_id, 2, quality, 1, estimated from incoming
+       on conflict (series_id, ts) do update
+         set value = excluded.value, upload_id = excluded.upload_id, quality = excluded.quality,
+             estimated = excluded.estimated, revision = observations.revision + 1
+         where observations.value is distinct from excluded.value`,
+  ];
+  const child = spawn(args.psql, [url, '-v', 'ON_ERROR_STOP=1', '-q', '-1', ...merge.flatMap((c) => ['-c', c])], {
+    stdio: ['pipe', 'inherit', 'inherit'],
+  });
+  const began = performance.now();
+  const perSeries = Math.ceil(insertRows / seriesCount);
+  let rows = 0;
+  let revised = 0;
+  for (let id = 1; id <= seriesCount && rows < insertRows; id++) {
+    const lines: string[] = [];
+    // New hours after everything loaded so far, for half of the batch.
+    const newFrom = hours + Math.ceil(insertRows / seriesCount);
+    for (let k = 0; k < perSeries / 2; k++) {
+      const h = newFrom + k;
+      lines.push(`${new Date(start + h * hourMs).toISOString()}\t${reading(id, h)}\t${id}\t0\n`);
+    }
+    // Repeats of the last loaded hours; every fifth one corrected.
+    for (let k = 0; k < perSeries / 2; k++) {
+      const h = hours - 1 - k;
+      const corrected = k % 5 === 0;
+      if (corrected) revised++;
+      const value = corrected ? reading(id, h) + 1 : reading(id, h);
+      lines.push(`${new Date(start + h * hourMs).toISOString()}\t${value}\t${id}\t0\n`);
+    }
+    rows += lines.length;
+    if (!child.stdin.write(lines.join(''))) await once(child.stdin, 'drain');
+  }
+  child.stdin.end();
+  const [code] = (await once(child, 'exit')) as [number];
+  if (code !== 0) throw new Error(`psql merge exited with ${code}`);
+  return { rows, seconds: (performance.now() - began) / 1000, revised };
+}
+
 /** Median and 95th percentile of a list of milliseconds. */
 function summarise(ms: number[]): { median: number; p95: number } {
   const sorted = [...ms].sort((a, b) => a - b);
@@ -192,10 +252,17 @@ function summarise(ms: number[]): { median: number; p95: number } {
   return { median: Math.round(at(0.5) * 100) / 100, p95: Math.round(at(0.95) * 100) / 100 };
 }
 
-/** Times `runs` executions of a query with varying parameters; the first run of each is cold-ish. */
+/**
+ * Times `runs` executions of a query with varying parameters. `firstRun` is the first touch of
+ * those rows (PostgreSQL's buffers are cold for them; the OS cache may not be), `repeatRun` the
+ * same query again at once, both measured at the client including row decoding. `server` is the
+ * executor's own time from EXPLAIN ANALYZE on a third run, with the pages it touched.
+ */
 async function timeQuery(client: pg.Client, text: string, params: (i: number) => unknown[], runs: number) {
   const first: number[] = [];
   const repeat: number[] = [];
+  const server: number[] = [];
+  const pages: number[] = [];
   let rows = 0;
   for (let i = 0; i < runs; i++) {
     const p = params(i);
@@ -206,8 +273,18 @@ async function timeQuery(client: pg.Client, text: string, params: (i: number) =>
     began = performance.now();
     await client.query(text, p);
     repeat.push(performance.now() - began);
+    const explained = await client.query(`explain (analyze, buffers, format json) ${text}`, p);
+    const plan = (explained.rows[0] as { 'QUERY PLAN': [{ 'Execution Time': number; Plan: Record<string, number> }] })['QUERY PLAN'][0];
+    server.push(plan['Execution Time']);
+    pages.push((plan.Plan['Shared Hit Blocks'] ?? 0) + (plan.Plan['Shared Read Blocks'] ?? 0));
   }
-  return { rows, firstRun: summarise(first), repeatRun: summarise(repeat) };
+  return {
+    rows,
+    firstRun: summarise(first),
+    repeatRun: summarise(repeat),
+    server: summarise(server),
+    pagesTouched: summarise(pages).median,
+  };
 }
 
 /** Table and index bytes of observations, summed over partitions when partitioned. */
@@ -246,7 +323,7 @@ async function benchDesign(design: Design) {
     for (const statement of design.ddl) await client.query(statement);
     if (design.name === 'monthly') for (const statement of monthlyPartitions()) await client.query(statement);
     await client.query(
-      `insert into series select i, 'S' || i from generate_series(1, ${seriesCount}) i; insert into uploads values (1)`,
+      `insert into series select i, 'S' || i from generate_series(1, ${seriesCount}) i; insert into uploads values (1), (2)`,
     );
     const copy = await copyLoad(url.toString());
     await client.query('vacuum analyze observations');
@@ -265,11 +342,22 @@ async function benchDesign(design: Design) {
       20,
     );
     const insert = await unnestInsert(client);
+    const merged = design.name === 'plain' ? await stagedMerge(url.toString()) : undefined;
+    const revisions = merged
+      ? Number((await client.query('select count(*) as n from observation_revisions')).rows[0].n)
+      : undefined;
     return {
       design: design.name,
       description: design.description,
       copy: { rows: copy.rows, seconds: round(copy.seconds), rowsPerSecond: Math.round(copy.rows / copy.seconds) },
       unnestInsert: { rows: insert.rows, seconds: round(insert.seconds), rowsPerSecond: Math.round(insert.rows / insert.seconds) },
+      stagedMerge: merged && {
+        rows: merged.rows,
+        seconds: round(merged.seconds),
+        rowsPerSecond: Math.round(merged.rows / merged.seconds),
+        correctionsSent: merged.revised,
+        revisionsKept: revisions,
+      },
       bytes: {
         table: stored.table,
         indexes: stored.indexes,

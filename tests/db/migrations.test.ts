@@ -3,7 +3,7 @@
  * database, a second run changes nothing, concurrent runs are safe, and the constraints the
  * product relies on hold.
  */
-import { is } from 'drizzle-orm';
+import { is, sql } from 'drizzle-orm';
 import { getTableConfig, PgTable } from 'drizzle-orm/pg-core';
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
@@ -201,5 +201,108 @@ describe('constraints of the core schema', () => {
     expect(await sqlState(() => handle.db.insert(schema.uploads).values(upload))).toBe('23505');
     await client.query(`update uploads set status = 'failed' where id = $1`, [first!.id]);
     await handle.db.insert(schema.uploads).values(upload);
+  });
+});
+
+describe('forecast versions once they leave draft', () => {
+  let handle: DbHandle;
+  let seriesId: number;
+  let fitId: number;
+
+  beforeAll(async () => {
+    handle = createDb(await createTestDatabase());
+    const [row] = await handle.db
+      .insert(schema.series)
+      .values({ key: 'SYS', name: 'System', kind: 'load', level: 'system', unit: 'MW', timeZone: 'UTC' })
+      .returning();
+    seriesId = row!.id;
+    const [fit] = await handle.db
+      .insert(schema.fits)
+      .values({
+        seriesId,
+        specSnapshot: {},
+        method: 'seasonal_naive',
+        parameters: {},
+        dataStart: new Date('2025-01-01T00:00:00Z'),
+        dataEnd: new Date('2025-01-31T23:00:00Z'),
+        observationCount: 744,
+        dataHash: 'c'.repeat(64),
+        durationMs: 1,
+      })
+      .returning();
+    fitId = fit!.id;
+  });
+
+  afterAll(async () => {
+    await handle?.close();
+  });
+
+  /** A draft with three hourly points, as a refit writes it. */
+  async function draftWithPoints(origin: Date): Promise<number> {
+    const [version] = await handle.db
+      .insert(schema.forecastVersions)
+      .values({ seriesId, fitId, origin, horizonHours: 3 })
+      .returning();
+    await handle.db.insert(schema.forecastPoints).values(
+      [0, 1, 2].map((h) => ({
+        versionId: version!.id,
+        ts: new Date(origin.getTime() + h * 3_600_000),
+        mean: 100 + h,
+        stdError: 5,
+        lower80: 93.6 + h,
+        upper80: 106.4 + h,
+        lower95: 90.2 + h,
+        upper95: 109.8 + h,
+      })),
+    );
+    return version!.id;
+  }
+
+  /** Where-clause selecting one version by id. */
+  const byId = (id: number) => sql`${schema.forecastVersions.id} = ${id}`;
+
+  it('let a draft be adjusted and approved, then refuse changes to its numbers', async () => {
+    const id = await draftWithPoints(new Date('2026-02-01T00:00:00Z'));
+    await handle.db.insert(schema.forecastAdjustments).values({
+      versionId: id,
+      periodStart: new Date('2026-02-01T00:00:00Z'),
+      periodEnd: new Date('2026-02-01T02:00:00Z'),
+      kind: 'shift',
+      amount: -3,
+      reason: 'Plant outage announced',
+    });
+    await handle.db.update(schema.forecastVersions).set({ state: 'approved', approvedAt: new Date() }).where(byId(id));
+
+    expect(await sqlState(() => handle.pool.query('update forecast_points set mean = mean + 1 where version_id = $1', [id]))).toBe('55000');
+    expect(await sqlState(() => handle.pool.query('delete from forecast_points where version_id = $1', [id]))).toBe('55000');
+    expect(
+      await sqlState(() =>
+        handle.db.insert(schema.forecastAdjustments).values({
+          versionId: id,
+          periodStart: new Date('2026-02-01T00:00:00Z'),
+          periodEnd: new Date('2026-02-01T01:00:00Z'),
+          kind: 'scale',
+          amount: 1.1,
+          reason: 'Late change',
+        }),
+      ),
+    ).toBe('55000');
+    expect(await sqlState(() => handle.pool.query(`update forecast_versions set horizon_hours = 5 where id = $1`, [id]))).toBe('55000');
+    expect(await sqlState(() => handle.pool.query(`update forecast_versions set state = 'draft' where id = $1`, [id]))).toBe('55000');
+  });
+
+  it('let an approved version be superseded once, and nothing after', async () => {
+    const { rows } = await handle.pool.query(`select id from forecast_versions where state = 'approved'`);
+    const id = rows[0].id as number;
+    await handle.pool.query(`update forecast_versions set state = 'superseded', superseded_at = now() where id = $1`, [id]);
+    expect(await sqlState(() => handle.pool.query(`update forecast_versions set state = 'approved' where id = $1`, [id]))).toBe('55000');
+    expect(await sqlState(() => handle.pool.query(`update forecast_versions set superseded_at = now() - interval '1 day' where id = $1`, [id]))).toBe('55000');
+  });
+
+  it('still let a deleted series take its versions, points and adjustments with it', async () => {
+    await draftWithPoints(new Date('2026-02-02T00:00:00Z'));
+    await handle.pool.query('delete from series where id = $1', [seriesId]);
+    const { rows } = await handle.pool.query('select (select count(*) from forecast_versions)::int as v, (select count(*) from forecast_points)::int as p');
+    expect(rows[0]).toEqual({ v: 0, p: 0 });
   });
 });

@@ -3,8 +3,8 @@ import { resolve } from 'node:path';
 import { is } from 'drizzle-orm';
 import { getTableConfig, PgTable } from 'drizzle-orm/pg-core';
 import { describe, expect, it } from 'vitest';
-import { migrationsFolder } from '../migrate';
-import * as schema from './index';
+import { migrationsFolder } from './migrate';
+import * as schema from './schema';
 
 const tables = (Object.values(schema) as unknown[])
   .filter((value): value is PgTable => is(value, PgTable))
