@@ -1,4 +1,6 @@
 import { ForecastingError, assertFinite } from '../core/errors';
+import type { FitResult } from '../core/types';
+import type { RegularisedFit } from '../regularised/regularised-fit';
 import { localCalendar } from '../seasonal/local-calendar';
 import { logTransform } from '../seasonal/log-transform';
 import { seasonalDifference } from '../seasonal/seasonal-difference';
@@ -17,7 +19,8 @@ export const HOUR_MS = 3_600_000;
  * Fits a load model: optional log transform, then the seasonal step (an additive profile estimated jointly
  * with the regressors, a multiplicative profile divided out first, or seasonal differencing of the series and
  * the regressors), then regression on degree-hours and calendar indicators with ARMA errors (iterated
- * feasible GLS, see regression-arma-errors.ts), the ARMA part by the spec's method. 'seasonal-naive' skips
+ * feasible GLS, see regression-arma-errors.ts), the ARMA part by the spec's method (ridge/lasso choose λ on
+ * the first GLS pass and keep it). 'seasonal-naive' skips
  * all of that and keeps the value one period back (period = the differencing lag, 168 with no seasonal step).
  *
  * @throws ForecastingError 'invalid-argument' for mismatched lengths, timestamps that are not hourly, or
@@ -57,7 +60,7 @@ export function fitLoadModel(spec: LoadModelSpec, data: LoadSeriesData): FittedL
   const fit = fitRegressionArmaErrors(
     target,
     columns.filter((_, j) => kept[j]),
-    (u) => fitArmaPart(spec, u),
+    armaFitter(spec),
     slotEffects,
   );
   const coefficients: number[] = [];
@@ -86,6 +89,21 @@ export function fitLoadModel(spec: LoadModelSpec, data: LoadSeriesData): FittedL
     regressors: regressors.columns,
     remainder: fit.remainder,
     seasonalNaive: null,
+  };
+}
+
+/**
+ * The ARMA fitter for the GLS passes. Ridge and lasso choose λ on the first pass only and keep it
+ * afterwards: the remainder barely changes between passes, and re-running the penalty path each pass
+ * would multiply the cost of a lasso refit by the number of passes.
+ */
+function armaFitter(spec: LoadModelSpec): (u: Float64Array) => FitResult {
+  if ((spec.method !== 'ridge' && spec.method !== 'lasso') || spec.lambda !== undefined) return (u) => fitArmaPart(spec, u);
+  let chosen: number | null = null;
+  return (u) => {
+    const fit = fitArmaPart(chosen === null ? spec : { ...spec, lambda: chosen }, u) as RegularisedFit;
+    chosen ??= fit.lambda;
+    return fit;
   };
 }
 
