@@ -1,0 +1,14 @@
+/** The help text of the loadwright command. */
+export const usage = `Usage: loadwright <command> [options]
+
+Commands:
+  fit       --method yule-walker|cmle|nls|ridge|lasso --p P [--q Q]
+  forecast  <fit options> --horizon H [--levels 80,95]
+  select    --method yule-walker|cmle|nls --max-p P [--max-q Q] [--criterion aic|aicc|bic] [--budget-ms T]
+  backtest  <fit options> --horizon H --origins K [--season S] [--step S] [--min-train N] [--levels 80,95]
+
+Fit options for ridge and lasso: --lags 1-48,168 (default 1..P), --lambda L or --select bic|validation.
+Input: --input FILE, or standard input: CSV with a header whose "value" column (or only column) holds
+the series, optionally with a "timestamp" column, or a JSON array of numbers.
+Output: one JSON object on standard output. Bad input: exit status 2 and one line on standard error.
+`;
