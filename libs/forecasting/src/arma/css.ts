@@ -71,12 +71,15 @@ export interface CssWorkspace {
   /** Second-derivative rows ∂²e_t/∂β_a∂β_b over the packed pairs a ≤ b, same ring, k(k+1)/2 per row. */
   secondDerivatives: Float64Array;
   residuals: Float64Array;
-  /** Packed pair index → a, b, the MA lag of a and of b (−1 when not an MA parameter), and the constant term. */
+  /** Packed pair index → a and b. */
   pairA: Int32Array;
   pairB: Int32Array;
-  pairLagA: Int32Array;
-  pairLagB: Int32Array;
+  /** The constant term of each pair's recursion (1 for (φ_i, μ), else 0). */
   pairConstant: Float64Array;
+  /** Cross terms −∂e_{t−lag}/∂β_column of pairs involving θ_{lag+1}: pair index, lag, column. */
+  crossPair: Int32Array;
+  crossLag: Int32Array;
+  crossColumn: Int32Array;
   /** Σ e_t ∂²e_t/∂β_a∂β_b over the packed pairs. */
   packedCurvature: Float64Array;
   /** Ring offsets of the rows t−1..t−q during a pass (first and second derivatives). */
@@ -91,19 +94,18 @@ export function createCssWorkspace(n: number, layout: CssLayout): CssWorkspace {
   const kk = (k * (k + 1)) / 2;
   const pairA = new Int32Array(kk);
   const pairB = new Int32Array(kk);
-  const pairLagA = new Int32Array(kk);
-  const pairLagB = new Int32Array(kk);
   const pairConstant = new Float64Array(kk);
-  const maLag = (c: number) => (c >= p && c < p + q ? c - p : -1);
+  const cross: Array<[number, number, number]> = [];
+  const isMa = (c: number) => c >= p && c < p + q;
   let idx = 0;
   for (let a = 0; a < k; a++) {
     for (let b = a; b < k; b++) {
       pairA[idx] = a;
       pairB[idx] = b;
-      pairLagA[idx] = maLag(a);
-      pairLagB[idx] = maLag(b);
       // ∂/∂μ of ∂e_t/∂φ_i = −(x_{t−i} − μ) is +1.
       pairConstant[idx] = includeMean && b === p + q && a < p ? 1 : 0;
+      if (isMa(a)) cross.push([idx, a - p, b]);
+      if (isMa(b)) cross.push([idx, b - p, a]);
       idx++;
     }
   }
@@ -114,9 +116,10 @@ export function createCssWorkspace(n: number, layout: CssLayout): CssWorkspace {
     residuals: new Float64Array(n),
     pairA,
     pairB,
-    pairLagA,
-    pairLagB,
     pairConstant,
+    crossPair: Int32Array.from(cross, (entry) => entry[0]),
+    crossLag: Int32Array.from(cross, (entry) => entry[1]),
+    crossColumn: Int32Array.from(cross, (entry) => entry[2]),
     packedCurvature: new Float64Array(kk),
     backRow: new Int32Array(q),
     backRow2: new Int32Array(q),
@@ -148,9 +151,9 @@ export function cssNormalEquations(
   const e = workspace.residuals;
   const d = workspace.derivatives;
   const s2 = workspace.secondDerivatives;
-  const { pairA, pairB, pairLagA, pairLagB, pairConstant } = workspace;
+  const { pairA, pairB, pairConstant, crossPair, crossLag, crossColumn, backRow, backRow2 } = workspace;
+  const crossCount = crossPair.length;
   const curvature = workspace.packedCurvature;
-  const { backRow, backRow2 } = workspace;
   const second = hessian !== null;
   jtj.fill(0);
   jte.fill(0);
@@ -164,8 +167,12 @@ export function cssNormalEquations(
   let sum = 0;
   for (let t = p; t < n; t++) {
     const row = slot * k;
-    const row2 = slot * kk;
     const reach = q < t - p ? q : t - p;
+    for (let j = 0; j < reach; j++) {
+      const back = slot - 1 - j < 0 ? slot - 1 - j + ring : slot - 1 - j;
+      backRow[j] = back * k;
+      backRow2[j] = back * kk;
+    }
     // Residual and the direct terms of each derivative.
     let et = x[t] - mu;
     for (let i = 0; i < p; i++) {
@@ -175,21 +182,18 @@ export function cssNormalEquations(
     }
     for (let j = 0; j < q; j++) d[row + p + j] = j < reach ? -e[t - 1 - j] : 0;
     if (includeMean) d[row + p + q] = -oneMinusSumPhi;
-    // Ring offsets of rows t−1..t−reach, shared by every recursion below.
-    for (let j = 0; j < reach; j++) {
-      const back = slot - 1 - j < 0 ? slot - 1 - j + ring : slot - 1 - j;
-      backRow[j] = back * k;
-      backRow2[j] = back * kk;
-    }
     if (second) {
-      for (let idx = 0; idx < kk; idx++) {
-        let value = pairConstant[idx];
-        for (let j = 0; j < reach; j++) value -= beta[p + j] * s2[backRow2[j] + idx];
-        const lagA = pairLagA[idx];
-        if (lagA >= 0 && lagA < reach) value -= d[backRow[lagA] + pairB[idx]];
-        const lagB = pairLagB[idx];
-        if (lagB >= 0 && lagB < reach) value -= d[backRow[lagB] + pairA[idx]];
-        s2[row2 + idx] = value;
+      // Uses rows t−1..t−q of the first derivatives, so it runs before row t's feedback below.
+      const row2 = slot * kk;
+      for (let idx = 0; idx < kk; idx++) s2[row2 + idx] = pairConstant[idx];
+      for (let j = 0; j < reach; j++) {
+        const theta = beta[p + j];
+        const back2 = backRow2[j];
+        for (let idx = 0; idx < kk; idx++) s2[row2 + idx] -= theta * s2[back2 + idx];
+      }
+      for (let c = 0; c < crossCount; c++) {
+        const lag = crossLag[c];
+        if (lag < reach) s2[row2 + crossPair[c]] -= d[backRow[lag] + crossColumn[c]];
       }
     }
     // Moving-average feedback, shared by the residual and every first derivative.
@@ -207,7 +211,10 @@ export function cssNormalEquations(
       const base = a * k;
       for (let b = a; b < k; b++) jtj[base + b] += da * d[row + b];
     }
-    if (second) for (let idx = 0; idx < kk; idx++) curvature[idx] += et * s2[row2 + idx];
+    if (second) {
+      const row2 = slot * kk;
+      for (let idx = 0; idx < kk; idx++) curvature[idx] += et * s2[row2 + idx];
+    }
     slot = slot + 1 === ring ? 0 : slot + 1;
   }
   for (let a = 0; a < k; a++) for (let b = 0; b < a; b++) jtj[a * k + b] = jtj[b * k + a];
