@@ -8,6 +8,7 @@ import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { createDb, type Database } from '@loadwright/db';
+import type { Express } from 'express';
 import type pg from 'pg';
 import { pino } from 'pino';
 import { createApp } from '../../apps/api/src/app';
@@ -28,6 +29,8 @@ export interface TestServer {
   pool: pg.Pool;
   /** Folder where the mail catcher keeps what it received over SMTP. */
   outboxFolder: string;
+  /** The Express application, for tests that inspect what it mounts. */
+  app: Express;
   /** Every declared API route. */
   routes: RouteDefinition[];
   close(): Promise<void>;
@@ -69,6 +72,7 @@ export async function startTestServer(options: { worker?: boolean; logLines?: st
     db,
     pool,
     outboxFolder,
+    app,
     routes: app.locals['routes'] as RouteDefinition[],
     async close() {
       server.closeAllConnections();

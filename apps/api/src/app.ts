@@ -62,6 +62,7 @@ export function createApp(context: AppContext): express.Express {
   if (webDist && existsSync(resolve(webDist, 'index.html'))) {
     app.use(express.static(webDist, { index: false, maxAge: '1h', setHeaders: noCacheForHtml }));
     app.get('/{*splat}', (_req, res) => res.sendFile(resolve(webDist, 'index.html'), { headers: { 'Cache-Control': 'no-cache' } }));
+    app.locals['webFallback'] = true;
   }
   app.use(problemHandler);
   return app;

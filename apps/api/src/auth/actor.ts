@@ -21,6 +21,8 @@ export interface TokenActor {
 /** Nobody identified (public routes only). */
 export interface AnonymousActor {
   kind: 'anonymous';
+  /** Why credentials that were presented did not identify anyone, for the 401 message. */
+  reason?: string;
 }
 
 /** Whoever is calling. */

@@ -29,7 +29,7 @@ export function createGatekeeper({ db, secret, secureCookies }: GatekeeperOption
       .select({ id: apiTokens.id, name: apiTokens.name, scope: apiTokens.scope, lastUsedAt: apiTokens.lastUsedAt })
       .from(apiTokens)
       .where(and(eq(apiTokens.secretHash, hashApiToken(token)), isNull(apiTokens.revokedAt), sql`(${apiTokens.expiresAt} IS NULL OR ${apiTokens.expiresAt} > now())`));
-    if (!row) throw new HttpProblem('unauthenticated', 'The API token is unknown, revoked or expired.');
+    if (!row) return { kind: 'anonymous', reason: 'The API token is unknown, revoked or expired.' };
     // Record use at most once a minute: enough for "last used", without a write per request.
     if (!row.lastUsedAt || Date.now() - row.lastUsedAt.getTime() > 60_000) {
       await db.update(apiTokens).set({ lastUsedAt: new Date() }).where(eq(apiTokens.id, row.id));
@@ -39,13 +39,13 @@ export function createGatekeeper({ db, secret, secureCookies }: GatekeeperOption
 
   async function identifySession(token: string, res: Response): Promise<Actor> {
     const claims = await verifySessionToken(secret, token);
-    if (!claims) return { kind: 'anonymous' };
+    if (!claims) return { kind: 'anonymous', reason: 'Your session has ended. Sign in again.' };
     const [row] = await db
       .select({ userId: users.id, email: users.email, displayName: users.displayName, role: users.role, lastSeenAt: sessions.lastSeenAt })
       .from(sessions)
       .innerJoin(users, eq(users.id, sessions.userId))
       .where(and(eq(sessions.id, claims.sessionId), isNull(sessions.revokedAt), gt(sessions.expiresAt, sql`now()`), eq(users.active, true)));
-    if (!row || row.userId !== claims.userId) return { kind: 'anonymous' };
+    if (!row || row.userId !== claims.userId) return { kind: 'anonymous', reason: 'Your session has ended. Sign in again.' };
     const secondsLeft = claims.expiresAt - Date.now() / 1000;
     if (secondsLeft < sessionTokenTtlSeconds / 2) {
       await setSessionCookies(res, { secret, secure: secureCookies, sessionId: claims.sessionId, userId: row.userId });
