@@ -97,6 +97,17 @@ describe('lassoAr', () => {
     expect(fit.ar[23]).toBeGreaterThan(0.15);
   });
 
+  it('keeps the weekly lag 168 in the hourly lag set 1..48 and 168', () => {
+    // Coefficients chosen here: 0.45, 0.15, 0.15, 0.2 at lags 1, 2, 24, 168 (Σ|φ| = 0.95 < 1, stationary).
+    const x = simulateSparseAr({ 1: 0.45, 2: 0.15, 24: 0.15, 168: 0.2 }, 3000, 3);
+    const lags = [...Array.from({ length: 48 }, (_, i) => i + 1), 168];
+    const fit = lassoAr(x, { lags });
+    expect(fit.kept).toEqual(expect.arrayContaining([1, 2, 24, 168]));
+    expect(fit.benched.length).toBeGreaterThanOrEqual(40);
+    expect(fit.ar.length).toBe(168);
+    expect(fit.p).toBe(168);
+  });
+
   it('recovers the sparse lag set by rolling-origin validation too', () => {
     const x = simulateSparseAr({ 1: 0.5, 2: 0.2, 24: 0.25 }, 3000, 99);
     const lags = Array.from({ length: 48 }, (_, i) => i + 1);

@@ -7,14 +7,16 @@
  * Method: on standardised lagged regressors Z (Σz² = m per column) and centred response y, minimise
  *   (1/(2m))‖y − Zβ‖² + λ‖β‖₁ (Tibshirani 1996, J. R. Stat. Soc. B 58(1)) by cyclic coordinate descent with
  *   soft-thresholding, β_j ← S(g_j + G_jj β_j, λ)/G_jj with G = ZᵀZ/m and gradient g = Zᵀ(y − Zβ)/m kept current
- *   by covariance updates, active-set sweeps between full sweeps, and warm starts along a decreasing λ path
+ *   by covariance updates, active-set sweeps between full sweeps, an exact solve once the active set and signs
+ *   settle (active-set-solve.ts; correlated hourly lags otherwise need thousands of sweeps), and warm starts along a decreasing λ path
  *   from λ_max = max_j |Z_jᵀy|/m (all lags benched) to 1e-4·λ_max in 100 log-spaced steps (Friedman, Hastie &
  *   Tibshirani 2010, J. Stat. Softw. 33(1), §2.1–2.5). Under the prior p(β_j) ∝ exp(−(mλ/σ²)|β_j|) the negative log
  *   posterior is (m/σ²) times the objective, so the solution is the MAP estimate (Park & Casella 2008, JASA 103(482)).
  *   df = number of non-zero coefficients, an unbiased estimate of the lasso's degrees of freedom (Zou, Hastie &
  *   Tibshirani 2007, Ann. Statist. 35(5)); λ by BIC or rolling-origin validation, or fixed.
  * Conventions: λ is in the units of the series (a covariance of a standardised lag with the response);
- *   convergence when no coefficient moves by more than `tolerance`·sd(y) in a full sweep; conditional on the
+ *   convergence when no coefficient moves by more than `tolerance`·sd(y) in a full sweep, or when the exact
+ *   active-set solution passes the KKT check; conditional on the
  *   first maxLag values; σ² = RSS/(n − maxLag); ℓ, AIC, AICc, BIC with k = df + 2 (regularised-fit.ts);
  *   `stderr` null (no simple standard errors for the lasso); `converged` false when a λ ran out of sweeps.
  * @throws ForecastingError 'invalid-argument' (lags, λ < 0, both `lambda` and `select`); 'too-few-observations'
@@ -24,6 +26,7 @@
  *   Park & Casella (2008).
  */
 import type { LaggedDesign } from './lagged-design';
+import { solveActiveSet } from './active-set-solve';
 import { buildLaggedDesign } from './lagged-design';
 import { selectPenalty } from './penalty-selection';
 import { assembleFit, type RegularisedArOptions, type RegularisedFit, type StandardisedSolution } from './regularised-fit';
@@ -31,11 +34,14 @@ import { checkPenaltyOptions } from './ridge';
 
 const FN = 'lassoAr';
 
+/** Active-set sweeps between full sweeps. */
+const ACTIVE_SWEEPS = 20;
+
 /** Lasso options: the shared ones plus the coordinate-descent stopping rule. */
 export interface LassoArOptions extends RegularisedArOptions {
   /** Stop when no standardised coefficient moves by more than tolerance·sd(y) in a full sweep (default 1e-12). */
   tolerance?: number;
-  /** Sweeps allowed per λ before giving up on that λ (default 100000). */
+  /** Sweeps allowed per λ before giving up on that λ (default 10000). */
   maxIterations?: number;
 }
 
@@ -92,9 +98,10 @@ export function lassoPath(design: LaggedDesign, lambdas: readonly number[], opti
       gram[j * k + i] = g;
     }
   }
+  const covariance = Float64Array.from(gradient); // c = Zᵀy/m, the gradient at β = 0
   const sdY = Math.sqrt(dot(design.response, design.response) / m);
   const threshold = (options.tolerance ?? 1e-12) * sdY;
-  const maxSweeps = options.maxIterations ?? 100_000;
+  const maxSweeps = options.maxIterations ?? 10_000;
   const beta = new Float64Array(k);
 
   /** One cyclic pass over `indices`; returns the largest coefficient move. */
@@ -115,18 +122,34 @@ export function lassoPath(design: LaggedDesign, lambdas: readonly number[], opti
   };
 
   const all = Int32Array.from({ length: k }, (_, j) => j);
+  const slack = 1e-10 * sdY;
   return lambdas.map((lambda) => {
     let sweeps = 0;
     let converged = false;
+    let previousPattern = '';
+    let triedPattern = '';
     while (sweeps < maxSweeps) {
       sweeps++;
       if (sweep(lambda, all) <= threshold) {
         converged = true;
         break;
       }
-      // Iterate on the active set until it settles, then confirm with a full sweep (FHT 2010 §2.6).
+      // Once a full sweep leaves the active set and its signs unchanged, solve that set exactly (active-set-solve.ts).
+      const pattern = signPattern(beta);
+      if (pattern === previousPattern && pattern !== triedPattern) {
+        triedPattern = pattern;
+        const exact = solveActiveSet(gram, k, covariance, beta, lambda, slack);
+        if (exact) {
+          beta.set(exact.beta);
+          gradient.set(exact.gradient);
+          converged = true;
+          break;
+        }
+      }
+      previousPattern = pattern;
+      // Iterate on the active set for a while, then return to a full sweep (FHT 2010 §2.6).
       const active = Int32Array.from(all.filter((j) => beta[j] !== 0));
-      while (sweeps < maxSweeps) {
+      for (let inner = 0; inner < ACTIVE_SWEEPS && sweeps < maxSweeps; inner++) {
         sweeps++;
         if (sweep(lambda, active) <= threshold) break;
       }
@@ -135,6 +158,13 @@ export function lassoPath(design: LaggedDesign, lambdas: readonly number[], opti
     for (let j = 0; j < k; j++) if (beta[j] !== 0) df++;
     return { lambda, beta: Float64Array.from(beta), df, converged, iterations: sweeps };
   });
+}
+
+/** Signs of the coefficients as a string, to notice when the active set has settled. */
+function signPattern(beta: Float64Array): string {
+  let pattern = '';
+  for (let j = 0; j < beta.length; j++) pattern += beta[j] > 0 ? '+' : beta[j] < 0 ? '-' : '0';
+  return pattern;
 }
 
 /** The default path: 100 log-spaced λ from λ_max down to 1e-4·λ_max (glmnet's ratio when rows exceed lags). */
