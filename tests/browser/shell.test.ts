@@ -16,25 +16,33 @@ import { watchRequests } from './support/network-guard';
 const artifacts = resolve(import.meta.dirname, '../.artifacts');
 const sections = ['Overview', 'Series', 'Uploads', 'Refits', 'Misses', 'People and settings', 'Outbox'];
 
-let server: TestServer;
 let browser: TestBrowser;
-let page: Page;
-let requests: ReturnType<typeof watchRequests>;
 
 beforeAll(async () => {
   await mkdir(artifacts, { recursive: true });
-  server = await startTestServer();
   browser = await launchBrowser();
-  page = await browser.context.newPage();
-  requests = watchRequests(page);
 });
 
 afterAll(async () => {
   await browser?.close();
-  await server?.close();
 });
 
-describe('web shell', () => {
+describe('web shell with the database and the worker running', () => {
+  let server: TestServer;
+  let page: Page;
+  let requests: ReturnType<typeof watchRequests>;
+
+  beforeAll(async () => {
+    server = await startTestServer();
+    page = await browser.context.newPage();
+    requests = watchRequests(page);
+  });
+
+  afterAll(async () => {
+    await page?.close();
+    await server?.close();
+  });
+
   it('opens on the Overview with the section navigation and the cautions', async () => {
     await page.goto(server.url, { waitUntil: 'networkidle' });
     expect(new URL(page.url()).pathname).toBe('/overview');
@@ -113,6 +121,39 @@ describe('web shell', () => {
   it('made no request that left 127.0.0.1', () => {
     expect(requests.all.length).toBeGreaterThan(5);
     expect(requests.all.some((url) => url.includes('material-symbols-outlined'))).toBe(true);
+    expect(requests.offMachine).toEqual([]);
+  });
+});
+
+describe('web shell with no job queue installed', () => {
+  let server: TestServer;
+  let page: Page;
+
+  beforeAll(async () => {
+    // No worker has started, so pg-boss never installed its schema: the API answers 503 "degraded".
+    server = await startTestServer({ worker: false });
+    page = await browser.context.newPage();
+  });
+
+  afterAll(async () => {
+    await page?.close();
+    await server?.close();
+  });
+
+  it('shows a degraded service and names the job queue as the part not working', async () => {
+    const answer = await fetch(`${server.url}/api/health`);
+    expect(answer.status).toBe(503);
+    const requests = watchRequests(page);
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await page.goto(`${server.url}/overview`, { waitUntil: 'networkidle' });
+    const status = page.getByRole('status');
+    await status.getByText('Service degraded').waitFor({ timeout: 15_000 });
+    expect(await status.textContent()).toContain('The job queue is not working.');
+    const main = page.getByRole('main');
+    expect(await main.getByText('Job queue: unavailable').isVisible()).toBe(true);
+    expect(await main.getByText('Database: connected').isVisible()).toBe(true);
+    expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
+    await page.screenshot({ path: resolve(artifacts, 'overview-degraded.png') });
     expect(requests.offMachine).toEqual([]);
   });
 });

@@ -36,7 +36,9 @@ describe('verdictOf', () => {
       database: { ok: false, latencyMs: null, detail: 'connection refused' },
       queue: { ok: false, latencyMs: null, detail: 'database unreachable', queues: [] },
     };
-    expect(verdictOf({ state: 'answered', report, checkedAt: new Date() }).detail).toMatch(/^The database and the job queue are not working\./);
+    expect(verdictOf({ state: 'answered', report, checkedAt: new Date() }).detail).toBe(
+      'The database and the job queue are not working. Uploads, refits and forecasts may wait until they recover.',
+    );
   });
 
   it('passes the reason through when the API is unreachable', () => {

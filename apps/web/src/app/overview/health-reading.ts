@@ -52,8 +52,8 @@ export function verdictOf(reading: HealthReading): HealthVerdict {
 function degradedDetail(failing: readonly string[]): string {
   if (failing.length === 0) return 'The API reports a problem it did not attribute to the database or the job queue.';
   const subject = failing.join(' and ');
-  const verb = failing.length === 1 ? 'is' : 'are';
-  return `${subject.charAt(0).toUpperCase()}${subject.slice(1)} ${verb} not working. Uploads, refits and forecasts may wait until it recovers.`;
+  const [verb, pronoun, recover] = failing.length === 1 ? ['is', 'it', 'recovers'] : ['are', 'they', 'recover'];
+  return `${subject.charAt(0).toUpperCase()}${subject.slice(1)} ${verb} not working. Uploads, refits and forecasts may wait until ${pronoun} ${recover}.`;
 }
 
 /** Names of the components that reported a problem, in the order the page shows them. */
