@@ -10,13 +10,18 @@
  * effects swept out by within-slot demeaning, the Frisch-Waugh-Lovell theorem); then repeat:
  * (1) slot effects = centred slot means of y − Zβ; (2) fit the ARMA part to u = y − s − Zβ with the chosen
  * estimator; (3) prewhiten y − s and every z_j with the fitted ARMA filter (the CSS recursion: condition on
- * the first p values, pre-sample errors zero) and regress the prewhitened y on the prewhitened Z. For CSS
- * (nls) errors, step (3) minimises the same conditional sum of squares as step (2), so the scheme is
- * block-coordinate descent on the joint CSS. Stops when max |Δβ| ≤ 1e-8·(1 + max |β|), at most 50 passes.
+ * the first p values, pre-sample errors zero) and regress the prewhitened y on the prewhitened Z. With slot
+ * effects, steps (1) and (3) are solved together for fixed ARMA parameters: β ↦ GLS(y − s(y − Zβ)) is
+ * affine, β ↦ c + Aβ, so its fixed point β = (I − A)⁻¹c is found from k + 1 evaluations instead of a slow
+ * alternation. For CSS (nls) errors, step (3) minimises the same conditional sum of squares as step (2),
+ * so the scheme is block-coordinate descent on the joint CSS. Stops when max |Δβ| ≤ 1e-8·(1 + max |β|),
+ * at most 50 passes.
  *
- * Conventions: no intercept column (μ carries the level); the slot effects are re-estimated by plain slot
+ * Conventions: no intercept column in Z (μ carries the level; the GLS step estimates a constant beside β and
+ * drops it, see prewhitenColumns); the slot effects are re-estimated by plain slot
  * means, not GLS (consistent, as OLS is under ARMA errors; the profile is what planners read). β standard
- * errors are GLS ones σ²(Z̃'Z̃)⁻¹ with the ARMA parameters treated as known.
+ * errors are GLS ones, σ² times the β block of (Z̃'Z̃)⁻¹ with the prewhitened constant in Z̃, the ARMA
+ * parameters treated as known.
  *
  * @throws ForecastingError 'singular-matrix' for linearly dependent regressors; whatever the ARMA
  *   estimator throws.
@@ -25,6 +30,7 @@
  * Econometric Theory and Methods, §7.8 (iterated feasible GLS with AR errors).
  */
 import { armaResiduals } from '../core/arma-filter';
+import { ForecastingError } from '../core/errors';
 import type { FitResult } from '../core/types';
 import { estimateSeasonalProfile, type ProfileSlot, type SeasonalProfile } from '../seasonal/seasonal-profile';
 import { leastSquares } from './least-squares';
@@ -70,10 +76,10 @@ export function fitRegressionArmaErrors(
     const { profile, remainder } = splitRemainder(y, columns, beta, slotEffects);
     const errors = fitErrors(remainder);
     if (k === 0 || converged || passes > MAX_PASSES) {
-      const betaStderr = k > 0 ? glsStep(y, columns, profile, slotEffects, errors).stderr : new Float64Array(0);
+      const betaStderr = k > 0 ? glsSolve(y, columns, beta, slotEffects, errors).stderr : new Float64Array(0);
       return { beta, betaStderr, profile, errors, remainder, iterations: passes, converged };
     }
-    const next = glsStep(y, columns, profile, slotEffects, errors).beta;
+    const next = glsFixedPoint(y, columns, slotEffects, errors);
     let change = 0;
     let size = 0;
     for (let j = 0; j < k; j++) {
@@ -86,7 +92,7 @@ export function fitRegressionArmaErrors(
 }
 
 /** y − Zβ, split into slot effects (if any) and the remainder u. */
-function splitRemainder(y: Float64Array, columns: readonly Float64Array[], beta: Float64Array, slotEffects: SlotEffects | null): { profile: SeasonalProfile | null; remainder: Float64Array } {
+function splitRemainder(y: Float64Array, columns: readonly Float64Array[], beta: ArrayLike<number>, slotEffects: SlotEffects | null): { profile: SeasonalProfile | null; remainder: Float64Array } {
   const r = Float64Array.from(y);
   for (let j = 0; j < columns.length; j++) for (let t = 0; t < r.length; t++) r[t] -= beta[j] * columns[j][t];
   if (!slotEffects) return { profile: null, remainder: r };
@@ -108,12 +114,74 @@ function initialOls(y: Float64Array, columns: readonly Float64Array[], slotEffec
   return leastSquares(FN, columns.map(sweep), sweep(y)).beta;
 }
 
-/** One GLS step: prewhiten y − s and the columns with the ARMA filter and regress. */
-function glsStep(y: Float64Array, columns: readonly Float64Array[], profile: SeasonalProfile | null, slotEffects: SlotEffects | null, errors: FitResult): { beta: Float64Array; stderr: Float64Array } {
+/**
+ * One GLS step at the slot effects implied by `beta`: prewhiten y − s(y − Zβ) and the columns with the
+ * ARMA filter and regress.
+ */
+function glsSolve(y: Float64Array, columns: readonly Float64Array[], beta: ArrayLike<number>, slotEffects: SlotEffects | null, errors: FitResult, whiteColumns?: Float64Array[]): { beta: Float64Array; stderr: Float64Array } {
+  const { profile } = splitRemainder(y, columns, beta, slotEffects);
   const target = profile && slotEffects ? y.map((v, t) => v - profile.effect[slotEffects.slots[t]]) : y;
-  const whiteTarget = armaResiduals(target, errors.mean, errors.ar, errors.ma);
-  const whiteColumns = columns.map((z) => armaResiduals(z, 0, errors.ar, errors.ma));
-  const { beta, unscaledCovariance } = leastSquares(FN, whiteColumns, whiteTarget);
-  const stderr = Float64Array.from(unscaledCovariance, (row, j) => Math.sqrt(errors.sigma2 * row[j]));
-  return { beta, stderr };
+  const whiteTarget = armaResiduals(target, 0, errors.ar, errors.ma);
+  const white = whiteColumns ?? prewhitenColumns(columns, errors);
+  const solution = leastSquares(FN, white, whiteTarget);
+  const k = columns.length;
+  const stderr = Float64Array.from({ length: k }, (_, j) => Math.sqrt(errors.sigma2 * solution.unscaledCovariance[j][j]));
+  return { beta: solution.beta.subarray(0, k), stderr };
+}
+
+/**
+ * The regressors and a constant, prewhitened by the ARMA filter. The constant lets μ move with β inside
+ * the GLS step (its coefficient is discarded; the ARMA fit re-estimates μ): holding μ fixed there would make
+ * β and μ converge by slow alternation whenever a regressor has a non-zero mean, as degree-hours do.
+ */
+function prewhitenColumns(columns: readonly Float64Array[], errors: FitResult): Float64Array[] {
+  const n = columns.length > 0 ? columns[0].length : 0;
+  const white = columns.map((z) => armaResiduals(z, 0, errors.ar, errors.ma));
+  white.push(armaResiduals(new Float64Array(n).fill(1), 0, errors.ar, errors.ma));
+  return white;
+}
+
+/** The fixed point of the affine map β ↦ GLS(y − s(y − Zβ)) for fixed ARMA parameters (see the file comment). */
+function glsFixedPoint(y: Float64Array, columns: readonly Float64Array[], slotEffects: SlotEffects | null, errors: FitResult): Float64Array {
+  const k = columns.length;
+  const white = prewhitenColumns(columns, errors);
+  const c = glsSolve(y, columns, new Float64Array(k), slotEffects, errors, white).beta;
+  if (!slotEffects) return c;
+  // (I − A) with A e_j = map(e_j) − c.
+  const system = Array.from({ length: k }, () => new Float64Array(k));
+  for (let j = 0; j < k; j++) {
+    const unit = new Float64Array(k);
+    unit[j] = 1;
+    const image = glsSolve(y, columns, unit, slotEffects, errors, white).beta;
+    for (let i = 0; i < k; i++) system[i][j] = (i === j ? 1 : 0) - (image[i] - c[i]);
+  }
+  return solveSmall(system, c);
+}
+
+/** Solves a small dense system by Gaussian elimination with partial pivoting. */
+function solveSmall(matrix: Float64Array[], rhs: Float64Array): Float64Array {
+  const k = rhs.length;
+  const a = matrix.map((row) => Float64Array.from(row));
+  const b = Float64Array.from(rhs);
+  for (let col = 0; col < k; col++) {
+    let pivot = col;
+    for (let row = col + 1; row < k; row++) if (Math.abs(a[row][col]) > Math.abs(a[pivot][col])) pivot = row;
+    if (!(Math.abs(a[pivot][col]) > 1e-12)) {
+      throw new ForecastingError('singular-matrix', FN, 'the regressors cannot be separated from the slot effects (a regressor constant within every slot?)');
+    }
+    [a[col], a[pivot]] = [a[pivot], a[col]];
+    [b[col], b[pivot]] = [b[pivot], b[col]];
+    for (let row = col + 1; row < k; row++) {
+      const factor = a[row][col] / a[col][col];
+      for (let j = col; j < k; j++) a[row][j] -= factor * a[col][j];
+      b[row] -= factor * b[col];
+    }
+  }
+  const x = new Float64Array(k);
+  for (let row = k - 1; row >= 0; row--) {
+    let sum = b[row];
+    for (let j = row + 1; j < k; j++) sum -= a[row][j] * x[j];
+    x[row] = sum / a[row][row];
+  }
+  return x;
 }
