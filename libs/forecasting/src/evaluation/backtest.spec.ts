@@ -87,6 +87,18 @@ describe('rollingOriginBacktest', () => {
     expect(shifted.peak).toBeNull();
   });
 
+  it('compares against like-day when asked', () => {
+    // Hourly series with a weekly pattern: like-day with k = 1 equals seasonal naive at 168, so a seasonal-naive-168
+    // forecaster has skill exactly 0 against it, and skill 1 − MAE/MAE_likeDay against the 4-week like-day average.
+    const x = Array.from({ length: 24 * 7 * 6 }, (_, t) => 50 + 10 * Math.sin((2 * Math.PI * t) / 24) + 5 * ((Math.floor(t / 24) % 7) === 6 ? -1 : 0) + (t % 5));
+    const forecaster = seasonalNaiveForecaster(168);
+    const one = rollingOriginBacktest(x, { origins: 2, horizon: 24, season: 24, forecaster, benchmark: { kind: 'like-day', count: 1 } });
+    expect(one.overall.skill.mae).toBe(0);
+    const four = rollingOriginBacktest(x, { origins: 2, horizon: 24, season: 24, forecaster, benchmark: { kind: 'like-day', count: 4 } });
+    const likeDayMae = four.overall.benchmark.mae;
+    expect(four.overall.skill.mae).toBeCloseTo(1 - four.overall.mae / likeDayMae, 14);
+  });
+
   it('refuses too little data and misbehaving forecasters', () => {
     const x = Array.from({ length: 30 }, (_, t) => t + 1);
     expect(() => rollingOriginBacktest(x, { origins: 10, horizon: 5, season: 1, forecaster: lastValue })).toThrowError(

@@ -6,8 +6,8 @@
  *   Hyndman & Athanasopoulos 2021, FPP3 §5.10). With K origins, step s and horizon H on a series of length n, the
  *   training parts are the first n − H − (K − 1 − i)s values (i = 0..K−1), so the last origin leaves exactly H
  *   values to forecast. Each training part goes to the caller's forecaster; MAE, RMSE, MAPE, sMAPE and MASE
- *   (metrics.ts), coverage and Winkler scores of any intervals (interval-scores.ts), the seasonal-naive benchmark
- *   (benchmarks.ts) and skill scores (skill-score.ts) are computed per horizon h = 1..H and over all steps.
+ *   (metrics.ts), coverage and Winkler scores of any intervals (interval-scores.ts), a benchmark (seasonal naive at
+ *   the season by default, or like-day; benchmarks.ts) and skill scores (skill-score.ts) are computed per horizon h = 1..H and over all steps.
  * Conventions: MASE scales each origin's errors by the seasonal-naive MAE of THAT origin's training part
  *   (Hyndman & Koehler 2006), then averages; step defaults to H (non-overlapping windows, e.g. one day-ahead
  *   forecast per day); minTrain defaults to 2·season. Nulls follow metrics.ts (zero actuals give MAPE null).
@@ -19,7 +19,7 @@
  * References: Tashman (2000); Hyndman & Koehler (2006); Hyndman & Athanasopoulos (2021), FPP3 §5.10.
  */
 import { ForecastingError, assertFinite } from '../core/errors';
-import { seasonalNaive } from './benchmarks';
+import { likeDay, seasonalNaive, type LikeDayOptions } from './benchmarks';
 import { coverage, winkler } from './interval-scores';
 import { mae, maseScale, mape, rmse, smape } from './metrics';
 import { dailyPeaks, type DailyPeak, type DayLayout } from './peak-metrics';
@@ -57,7 +57,12 @@ export interface BacktestOptions {
   season: number;
   /** Day layout of the whole series x, to add daily-peak metrics. */
   day?: DayLayout;
+  /** The benchmark for skill scores (default seasonal naive at `season`). */
+  benchmark?: BacktestBenchmark;
 }
+
+/** Which benchmark the skill scores compare against. */
+export type BacktestBenchmark = { kind: 'seasonal-naive' } | ({ kind: 'like-day' } & LikeDayOptions);
 
 /** Coverage and Winkler score at one interval level. */
 export interface IntervalMetrics {
@@ -75,6 +80,7 @@ export interface BacktestMetrics {
   smape: number | null;
   mase: number | null;
   intervals: IntervalMetrics[];
+  /** The benchmark's scores on the same steps. */
   benchmark: { mae: number; rmse: number; mase: number | null };
   /** 1 − score/benchmark score (null when the benchmark scored 0). */
   skill: { mae: number | null; rmse: number | null; mase: number | null };
@@ -157,7 +163,7 @@ export function rollingOriginBacktest(x: ArrayLike<number>, options: BacktestOpt
     else if (levels.join() !== theseLevels.join()) {
       throw new ForecastingError('invalid-argument', fn, `the forecaster returned levels [${theseLevels}] at origin ${origin} but [${levels}] before`);
     }
-    const benchmark = seasonalNaive(train, horizon, season).mean;
+    const benchmark = benchmarkForecast(train, horizon, season, options.benchmark);
     const scale = maseScale(train, season);
     for (let h = 0; h < horizon; h++) {
       byHorizon[h].push({
@@ -182,6 +188,11 @@ export function rollingOriginBacktest(x: ArrayLike<number>, options: BacktestOpt
     peak: peaks.length === 0 ? null : summarisePeaks(peaks),
     forecasts,
   };
+}
+
+/** The benchmark forecast from one origin. */
+function benchmarkForecast(train: Float64Array, horizon: number, season: number, benchmark: BacktestBenchmark = { kind: 'seasonal-naive' }): Float64Array {
+  return benchmark.kind === 'like-day' ? likeDay(train, horizon, benchmark) : seasonalNaive(train, horizon, season).mean;
 }
 
 /** The first `horizon` values of a forecaster's array, checked for length and finiteness. */

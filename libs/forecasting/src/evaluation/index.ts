@@ -7,6 +7,7 @@ export { skillScore } from './skill-score';
 export {
   rollingOriginBacktest,
   type BacktestOptions,
+  type BacktestBenchmark,
   type BacktestResult,
   type BacktestMetrics,
   type HorizonMetrics,

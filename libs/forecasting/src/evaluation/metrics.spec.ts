@@ -28,7 +28,11 @@ describe('accuracy metrics', () => {
       expect(relative(rmse(test, forecast), row.RMSE)).toBeLessThan(1e-12);
       expect(relative(mape(test, forecast), row.MAPE)).toBeLessThan(1e-12);
       expect(relative(mase(test, forecast, training, period), row.MASE)).toBeLessThan(1e-12);
-      expect(relative(mase(test, forecast, training, period), holdout[model].manual_test.MASE)).toBeLessThan(1e-12);
+      const manual = holdout[model].manual_test;
+      expect(relative(mae(test, forecast), manual.MAE)).toBeLessThan(1e-12);
+      expect(relative(rmse(test, forecast), manual.RMSE)).toBeLessThan(1e-12);
+      expect(relative(mape(test, forecast), manual.MAPE)).toBeLessThan(1e-12);
+      expect(relative(mase(test, forecast, training, period), manual.MASE)).toBeLessThan(1e-12);
     });
   }
 
