@@ -7,13 +7,14 @@
  *   Q = mean_{t=m+1..T}|y_t − y_{t−m}| taken from the TRAINING part (the in-sample seasonal-naive MAE at period m;
  *   m = 1 gives the non-seasonal naive scaling).
  * Conventions: percentages are in percent (as R's forecast::accuracy); sMAPE uses absolute values in the
- *   denominator (Hyndman & Athanasopoulos, Forecasting: Principles and Practice, 3rd ed., §5.8), so it stays in
- *   [0, 200]. Zero denominators give a documented null, never NaN or Infinity: MAPE when some actual is 0,
+ *   denominator, as the M4 competition did (Makridakis, Spiliotis & Assimakopoulos 2020, Int. J. Forecasting
+ *   36(1)), so it stays in [0, 200] even for negative net load. Zero denominators give a documented null, never NaN or Infinity: MAPE when some actual is 0,
  *   sMAPE when some actual and forecast are both 0, MASE when the training part has no seasonal variation.
  *   R's forecast::accuracy takes m from frequency() of its test argument; here m is always explicit.
  * @throws ForecastingError 'too-few-observations' (empty input, or training part not longer than m),
  *   'invalid-argument' (unequal lengths, m not a positive integer), 'non-finite-input'.
- * References: Hyndman & Koehler (2006); Hyndman & Athanasopoulos (2021), FPP3 §5.8.
+ * References: Hyndman & Koehler (2006); Hyndman & Athanasopoulos (2021), Forecasting: Principles and Practice,
+ *   3rd ed., §5.8; Makridakis, Spiliotis & Assimakopoulos (2020).
  */
 import { ForecastingError, assertFinite, assertLength } from '../core/errors';
 import { checkAligned } from './paired-input';
