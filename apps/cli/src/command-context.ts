@@ -3,7 +3,7 @@
  */
 import { parseArgs, type ParseArgsConfig } from 'node:util';
 import { InputError } from './input-error';
-import { parseSeries, type InputSeries } from './parse-series';
+import { parseSeries, type InputSeries, type ParseOptions } from './parse-series';
 import { readInput } from './read-input';
 
 /** Arguments after the subcommand name, and standard input when no --input is given. */
@@ -25,7 +25,7 @@ export function parseOptions<T extends NonNullable<ParseArgsConfig['options']>>(
 }
 
 /** Reads and parses the series named by --input, or standard input. */
-export async function loadInputSeries(file: string | undefined, context: CommandContext): Promise<InputSeries> {
+export async function loadInputSeries(file: string | undefined, context: CommandContext, options: ParseOptions = {}): Promise<InputSeries> {
   const { text, name } = await readInput({ file, readStdin: context.readStdin });
-  return parseSeries(text, name);
+  return parseSeries(text, name, options);
 }

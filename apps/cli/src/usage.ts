@@ -8,6 +8,12 @@ Commands:
   backtest  <fit options> --horizon H --origins K [--season S] [--step S] [--min-train N] [--levels 80,95]
 
 Fit options for ridge and lasso: --lags 1-48,168 (default 1..P), --lambda L or --select bic|validation.
+Seasonal and regression options (fit and forecast; need a CSV with an hourly "timestamp" column):
+  --seasonal none|profile|difference  --period 24|168  --profile-form additive|multiplicative  --log
+  --temperature-column NAME [--heating-base C] [--cooling-base C]  --day-types  --holidays US[:TX]
+  --time-zone America/Chicago   (and --method seasonal-naive, without --p)
+  Their output is {"fit", "loadModel", …}; forecast rows after the last observation with an empty
+  value carry the future temperatures.
 Input: --input FILE, or standard input: CSV with a header whose "value" column (or only column) holds
 the series, optionally with a "timestamp" column, or a JSON array of numbers.
 Output: one JSON object on standard output. Bad input: exit status 2 and one line on standard error.
