@@ -70,11 +70,27 @@ describe('pollHealth', () => {
   it('abandons a slow answer when the next check starts', () => {
     const slow = new Subject<HealthReport>();
     const source = scriptedRead([() => slow, () => of({ ...report, version: '0.2.0' })]);
+    const checkNow = new Subject<void>();
     const readings: HealthReading[] = [];
-    const subscription = pollHealth({ read: source.read, checkNow: NEVER, intervalMs: 10_000 }).subscribe((reading) => readings.push(reading));
-    vi.advanceTimersByTime(10_000);
+    const subscription = pollHealth({ read: source.read, checkNow, intervalMs: 10_000 }).subscribe((reading) => readings.push(reading));
+    vi.advanceTimersByTime(3_000);
+    checkNow.next();
+    vi.advanceTimersByTime(0);
     slow.next(report);
     expect(readings.map((reading) => (reading.state === 'answered' ? reading.report.version : reading.state))).toEqual(['checking', '0.2.0']);
+    subscription.unsubscribe();
+  });
+
+  it('reads a check that outlasts its time limit as unreachable', () => {
+    const source = scriptedRead([() => NEVER]);
+    const readings: HealthReading[] = [];
+    const subscription = pollHealth({ read: source.read, checkNow: NEVER, intervalMs: 10_000, answerWithinMs: 8_000 }).subscribe((reading) =>
+      readings.push(reading),
+    );
+    vi.advanceTimersByTime(7_999);
+    expect(readings.map((reading) => reading.state)).toEqual(['checking']);
+    vi.advanceTimersByTime(1);
+    expect(readings.at(-1)).toMatchObject({ state: 'unreachable', problem: 'The Loadwright API did not answer within 8 seconds.' });
     subscription.unsubscribe();
   });
 

@@ -1,9 +1,12 @@
 import type { HealthReport } from '@loadwright/contracts';
-import { Observable, catchError, map, of, scan, startWith, switchMap, timer } from 'rxjs';
+import { Observable, catchError, map, of, scan, startWith, switchMap, throwError, timeout, timer } from 'rxjs';
 import type { HealthReading } from './health-reading';
 
 /** How often the Overview asks for health; the page says this number to its readers. */
 export const HEALTH_POLL_INTERVAL_MS = 10_000;
+
+/** How long one check may take before the API counts as unreachable; shorter than the interval. */
+export const HEALTH_ANSWER_WITHIN_MS = 8_000;
 
 /** What {@link pollHealth} needs: one read of the report, and a signal to check again now. */
 export interface HealthFeedSource {
@@ -13,21 +16,32 @@ export interface HealthFeedSource {
   readonly checkNow: Observable<void>;
   /** Milliseconds between checks. */
   readonly intervalMs?: number;
+  /** Milliseconds one check may take; a hung API then reads as unreachable instead of stale. */
+  readonly answerWithinMs?: number;
   /** Clock for `checkedAt`; replaceable in tests. */
   readonly now?: () => Date;
 }
 
 /**
- * Polls health: checks at once, then every interval, and again whenever `checkNow` emits. A slow answer
- * is abandoned when the next check starts (switchMap), so readings never arrive out of order.
+ * Polls health: checks at once, then every interval, and again whenever `checkNow` emits. A check that
+ * takes too long counts as unreachable, and one still running is abandoned when the next starts
+ * (switchMap), so readings never arrive out of order.
  * Unsubscribing (leaving the page) stops the polling.
  */
-export function pollHealth({ read, checkNow, intervalMs = HEALTH_POLL_INTERVAL_MS, now = () => new Date() }: HealthFeedSource): Observable<HealthReading> {
+export function pollHealth({
+  read,
+  checkNow,
+  intervalMs = HEALTH_POLL_INTERVAL_MS,
+  answerWithinMs = HEALTH_ANSWER_WITHIN_MS,
+  now = () => new Date(),
+}: HealthFeedSource): Observable<HealthReading> {
+  const tooSlow = () => throwError(() => new Error(`The Loadwright API did not answer within ${answerWithinMs / 1000} seconds.`));
   return checkNow.pipe(
     startWith(undefined),
     switchMap(() => timer(0, intervalMs)),
     switchMap(() =>
       read().pipe(
+        timeout({ first: answerWithinMs, with: tooSlow }),
         map((report): HealthReading => ({ state: 'answered', report, checkedAt: now() })),
         catchError((error: unknown) =>
           of<HealthReading>({ state: 'unreachable', problem: messageOf(error), checkedAt: now(), lastReport: null }),
