@@ -69,4 +69,19 @@ describe('loadwright forecast with seasonal and temperature options', { timeout:
     expect(json.status).toBe(2);
     expect(json.stderr).toMatch(/need CSV input with an hourly "timestamp" column/);
   });
+
+  it('backtests the pipeline: 3 day-ahead windows of 48 hours beat seasonal naive and report daily peaks', () => {
+    // Observed rows only (the forecast hours have no actuals to score).
+    const observedFile = join(mkdtempSync(join(tmpdir(), 'loadwright-load-')), 'observed.csv');
+    writeFileSync(observedFile, csv.split('\n').slice(0, observed + 1).join('\n'));
+    const run = runLoadwright(['backtest', ...args.slice(1, -4), '--horizon', '48', '--origins', '3', '--season', '24', '--input', observedFile]);
+    expect(run.status, run.stderr).toBe(0);
+    const out = JSON.parse(run.stdout);
+    expect(out.origins).toEqual([observed - 144, observed - 96, observed - 48]);
+    expect(out.weather).toBe('observed');
+    // The simulated load has AR(1) noise with φ = 0.8 and a temperature response that seasonal naive cannot follow.
+    expect(out.overall.skill.mae).toBeGreaterThan(0);
+    // Series start at 06:00 UTC, so each 48-hour window holds one whole UTC day.
+    expect(out.peak.days).toBe(3);
+  });
 });

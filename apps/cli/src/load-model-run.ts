@@ -2,7 +2,7 @@
  * Fits the engine's load-model pipeline from parsed command options and input, and the JSON shape
  * of what it estimated.
  */
-import { fitLoadModel, type FittedLoadModel } from '@loadwright/forecasting';
+import { fitLoadModel, type FittedLoadModel, type LoadModelSpec } from '@loadwright/forecasting';
 import { loadInputSeries, type CommandContext } from './command-context';
 import { fitJson, type FitJson } from './fit-json';
 import { readFitSpec } from './fit-options';
@@ -10,28 +10,45 @@ import { InputError } from './input-error';
 import { readLoadModelSpec } from './load-model-options';
 import type { InputSeries } from './parse-series';
 
-/** The fitted pipeline and the input it came from. */
-export interface LoadModelRun {
-  model: FittedLoadModel;
-  series: InputSeries;
+/** The pipeline's spec and the input it runs on (timestamps guaranteed). */
+export interface LoadModelInput {
+  spec: LoadModelSpec;
+  series: InputSeries & { timestamps: Float64Array };
 }
 
-/** Reads the input and fits the load model the options describe. */
-export async function runLoadModel(values: Record<string, string | boolean | undefined>, context: CommandContext): Promise<LoadModelRun> {
+/** The fitted pipeline and the input it came from. */
+export interface LoadModelRun extends LoadModelInput {
+  model: FittedLoadModel;
+}
+
+/** Reads the options and the input for the load-model pipeline. */
+export async function readLoadModelInput(values: Record<string, string | boolean | undefined>, context: CommandContext): Promise<LoadModelInput> {
   const naive = values['method'] === 'seasonal-naive';
   if (naive && (values['p'] !== undefined || values['q'] !== undefined)) throw new InputError('seasonal-naive takes no --p or --q');
   const spec = readLoadModelSpec(values, naive ? null : readFitSpec(values));
   const temperatureColumn = values['temperature-column'] as string | undefined;
   const series = await loadInputSeries(values['input'] as string | undefined, context, { temperatureColumn });
-  if (!series.timestamps) {
+  const timestamps = series.timestamps;
+  if (!timestamps) {
     throw new InputError('seasonal, log, temperature and calendar options need CSV input with an hourly "timestamp" column');
   }
-  const model = fitLoadModel(spec, {
-    timestamps: series.timestamps,
-    values: series.values,
-    temperature: series.temperature ?? undefined,
+  return { spec, series: { ...series, timestamps } };
+}
+
+/** Fits the pipeline on the first `length` observations (all by default). */
+export function fitLoadModelPrefix(input: LoadModelInput, length = input.series.values.length): FittedLoadModel {
+  const { spec, series } = input;
+  return fitLoadModel(spec, {
+    timestamps: series.timestamps.subarray(0, length),
+    values: series.values.subarray(0, length),
+    temperature: series.temperature?.subarray(0, length),
   });
-  return { model, series };
+}
+
+/** Reads the input and fits the load model the options describe. */
+export async function runLoadModel(values: Record<string, string | boolean | undefined>, context: CommandContext): Promise<LoadModelRun> {
+  const input = await readLoadModelInput(values, context);
+  return { ...input, model: fitLoadModelPrefix(input) };
 }
 
 /** What the load model printed: the ARMA part (null for seasonal naive) and the pipeline's own estimates. */

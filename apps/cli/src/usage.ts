@@ -8,7 +8,7 @@ Commands:
   backtest  <fit options> --horizon H --origins K [--season S] [--step S] [--min-train N] [--levels 80,95]
 
 Fit options for ridge and lasso: --lags 1-48,168 (default 1..P), --lambda L or --select bic|validation.
-Seasonal and regression options (fit and forecast; need a CSV with an hourly "timestamp" column):
+Seasonal and regression options (fit, forecast, backtest; need a CSV with an hourly "timestamp" column):
   --seasonal none|profile|difference  --period 24|168  --profile-form additive|multiplicative  --log
   --temperature-column NAME [--heating-base C] [--cooling-base C]  --day-types  --holidays US[:TX]
   --time-zone America/Chicago   (and --method seasonal-naive, without --p)
