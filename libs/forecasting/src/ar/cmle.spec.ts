@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { expectRelative, loadReference, loadSeries, referenceSeries } from '../core/spec-support';
 import { cmleAr } from './cmle';
@@ -54,4 +55,22 @@ describe('cmleAr', () => {
     expect(() => cmleAr(trend, 2)).toThrow(expect.objectContaining({ code: 'singular-matrix' }));
     expect(() => cmleAr([1, 2, 3, 4, 5], 2)).toThrow(expect.objectContaining({ code: 'too-few-observations' }));
   });
+});
+
+describe('cmleAr against statsmodels AutoReg (second reference)', () => {
+  // Source: fixtures/reference/ref/<series>.statsmodels.json, autoreg[p] = "AutoReg(x, lags=p, trend='c',
+  // old_names=False).fit()", statsmodels 0.13.5. AutoReg is the conditional MLE with σ² = RSS/(n − p) and counts
+  // k = p + 2 parameters in its AIC, as we do; its bse use σ² = RSS/(n − p), so they are not compared here.
+  for (const name of ['lh', 'LakeHuron'] as const) {
+    it(`reproduces AutoReg's coefficients, σ², log-likelihood and AIC on ${name} (p = 1, 2, 3)`, () => {
+      const reference = JSON.parse(readFileSync(new URL(`../../../../fixtures/reference/ref/${name}.statsmodels.json`, import.meta.url), 'utf8'));
+      const x = loadSeries(name);
+      for (const p of [1, 2, 3]) {
+        const autoreg = reference.autoreg[p];
+        const fit = cmleAr(x, p);
+        expectRelative([fit.intercept, ...fit.ar], autoreg.params, 1e-8, `${name} AR(${p}) params`);
+        expectRelative([fit.sigma2, fit.loglik!, fit.aic!], [autoreg.sigma2, autoreg.llf, autoreg.aic], 1e-8, `${name} AR(${p}) σ², ℓ, AIC`);
+      }
+    });
+  }
 });

@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { autocorrelation } from '../acf/autocovariance';
 import { expectRelative, loadReference, loadSeries, referenceSeries } from '../core/spec-support';
@@ -56,4 +57,21 @@ describe('yuleWalker', () => {
     expect(() => yuleWalker([1, 2, 3], 3)).toThrow(expect.objectContaining({ code: 'too-few-observations' }));
     expect(() => yuleWalker([1, 2, Number.NaN, 4], 1)).toThrow(expect.objectContaining({ code: 'non-finite-input' }));
   });
+});
+
+describe('yuleWalker against statsmodels yule_walker(method="mle") (second reference)', () => {
+  // Source: fixtures/reference/ref/<series>.statsmodels.json, yule_walker[p].call_mle = "yule_walker(x, order=p,
+  // method='mle', demean=True)", statsmodels 0.13.5: divisor n and the plain Levinson-Durbin σ², as here. Its
+  // default method='adjusted' (divisor n − k) differs at the second digit and is not ours.
+  for (const name of ['lh', 'LakeHuron'] as const) {
+    it(`matches statsmodels' φ and σ² on ${name} (p = 1, 2, 3)`, () => {
+      const reference = JSON.parse(readFileSync(new URL(`../../../../fixtures/reference/ref/${name}.statsmodels.json`, import.meta.url), 'utf8'));
+      const x = loadSeries(name);
+      for (const p of [1, 2, 3]) {
+        const fit = yuleWalker(x, p);
+        expectRelative(fit.ar, reference.yule_walker[p].rho_mle, 1e-8, `${name} AR(${p}) φ`);
+        expectRelative([fit.sigma2], [reference.yule_walker[p].sigma2_mle], 1e-8, `${name} AR(${p}) σ²`);
+      }
+    });
+  }
 });
