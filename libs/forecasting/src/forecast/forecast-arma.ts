@@ -17,7 +17,8 @@
  *
  * @throws ForecastingError('invalid-argument') unless horizon is a positive integer, σ² > 0 and the
  *   residuals match the history in length; ('too-few-observations') when the history is shorter
- *   than max(p, 1); ('non-finite-input') for non-finite values.
+ *   than max(p, 1); ('non-finite-input') for non-finite inputs, or forecasts that overflow because the
+ *   model is explosive.
  *
  * References: Box et al. (2016) §5; Brockwell & Davis (2016) §3.3 and §5.4; R `stats::predict.Arima`.
  */
@@ -76,6 +77,7 @@ export function forecastArma(
     cumulative += psi[h] * psi[h];
     se[h] = Math.sqrt(sigma2 * cumulative);
   }
+  assertFinite(fn, mean, 'forecasts (the model is far from stationary)');
   assertFinite(fn, se, 'forecast standard errors (the model is far from stationary)');
   return { mean, se };
 }
