@@ -5,6 +5,7 @@
  */
 import { pino } from 'pino';
 import { ConfigError, loadConfig } from '../apps/api/src/config';
+import { stopWithParent } from '../apps/api/src/process/exit-with-parent';
 import { createBoss } from './boss';
 import { registerQueues } from './queues';
 
@@ -28,9 +29,9 @@ await boss.start();
 await registerQueues(boss, { logger, concurrency: config.WORKER_CONCURRENCY, databaseUrl: config.DATABASE_URL });
 logger.info({ concurrency: config.WORKER_CONCURRENCY }, 'worker ready');
 
-for (const signal of ['SIGINT', 'SIGTERM'] as const) {
-  process.once(signal, () => {
-    logger.info('worker stopping: finishing jobs in hand');
-    void boss.stop({ wait: true, graceful: true, timeout: 20_000 }).then(() => process.exit(0));
-  });
-}
+const stop = async () => {
+  logger.info('worker stopping: finishing jobs in hand');
+  await boss.stop({ wait: true, graceful: true, timeout: 20_000 });
+};
+for (const signal of ['SIGINT', 'SIGTERM'] as const) process.once(signal, () => void stop().then(() => process.exit(0)));
+stopWithParent(stop);

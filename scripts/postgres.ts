@@ -22,10 +22,15 @@ export interface PostgresLocation {
   binDir: string;
 }
 
-/** Defaults: .data/postgres under the checkout, port 54329, Debian's PostgreSQL 15 binaries. */
+/** The folder for everything a local instance keeps: PostgreSQL's data, the lock, the session key, caught mail. */
+export function localDataDir(env: NodeJS.ProcessEnv = process.env): string {
+  return resolve(repoRoot, env['LOADWRIGHT_DATA_DIR'] ?? '.data');
+}
+
+/** Defaults: <data dir>/postgres, port 54329, Debian's PostgreSQL 15 binaries. */
 export function defaultLocation(env: NodeJS.ProcessEnv = process.env): PostgresLocation {
   return {
-    dataDir: resolve(repoRoot, env['LOADWRIGHT_PG_DATA'] ?? '.data/postgres'),
+    dataDir: resolve(localDataDir(env), 'postgres'),
     port: Number(env['LOADWRIGHT_PG_PORT'] ?? 54329),
     binDir: env['LOADWRIGHT_PG_BIN'] ?? '/usr/lib/postgresql/15/bin',
   };
@@ -68,7 +73,13 @@ async function ensureCluster(location: PostgresLocation): Promise<void> {
     chownSync(location.dataDir, uid, gid);
   }
   chmodSync(location.dataDir, 0o700);
-  await pgTool(location, 'initdb', ['-D', location.dataDir, '-U', 'postgres', '--auth=trust', '-E', 'UTF8', '--locale=C.UTF-8']);
+  try {
+    await pgTool(location, 'initdb', ['-D', location.dataDir, '-U', 'postgres', '--auth=trust', '-E', 'UTF8', '--locale=C.UTF-8']);
+  } catch (error) {
+    const denied = /Permission denied/.test(String((error as { stderr?: string }).stderr ?? (error as Error).message));
+    if (denied && isRoot) throw new Error(`The postgres OS user cannot reach ${location.dataDir}. Make its parent folders searchable (chmod o+x on each) or set LOADWRIGHT_DATA_DIR to a folder under one that is.`);
+    throw error;
+  }
 }
 
 /** True when a server answers on the port. */
@@ -170,6 +181,7 @@ export async function ensurePostgres(env: NodeJS.ProcessEnv = process.env): Prom
   }
   const location = defaultLocation(env);
   const { started } = await startPostgres(location);
+  console.log(started ? `  PostgreSQL started on 127.0.0.1:${location.port}` : `  PostgreSQL already running on 127.0.0.1:${location.port}: reusing it`);
   const adminUrl = localUrl(location, 'postgres');
   await createDatabase(adminUrl, 'loadwright');
   return { url: localUrl(location, 'loadwright'), adminUrl, startedHere: started };

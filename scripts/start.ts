@@ -9,18 +9,17 @@ import { migrate } from '@loadwright/db';
 import { ConfigError, loadConfig } from '../apps/api/src/config';
 import { firstExit, startTypeScript, stopAll, type NamedChild } from './child-processes';
 import { AlreadyRunningError, acquireInstanceLock } from './instance-lock';
-import { defaultLocation, ensurePostgres, stopPostgres } from './postgres';
+import { defaultLocation, ensurePostgres, localDataDir, stopPostgres } from './postgres';
 import { buildWeb, isWebBuildStale } from './web-build';
 import { seedDemoIfEmpty, demoAccountsText } from './demo-seed';
 import { startMailCatcher, type MailCatcher } from '../apps/api/src/mail/mail-catcher';
 import { ensureSessionSecret } from './session-secret';
 
-const repoRoot = resolve(import.meta.dirname, '..');
-
 async function main(): Promise<number> {
   const config = loadConfig();
   const url = `http://${config.HOST === '0.0.0.0' ? '127.0.0.1' : config.HOST}:${config.PORT}`;
-  const releaseLock = acquireInstanceLock(resolve(repoRoot, '.data/instance.json'), { pid: process.pid, url, startedAt: new Date().toISOString() });
+  const dataDir = localDataDir();
+  const releaseLock = acquireInstanceLock(resolve(dataDir, 'instance.json'), { pid: process.pid, url, startedAt: new Date().toISOString() });
   const children: NamedChild[] = [];
   let startedPostgres = false;
   let catcher: MailCatcher | undefined;
@@ -55,11 +54,11 @@ async function main(): Promise<number> {
     const env: NodeJS.ProcessEnv = {
       ...process.env,
       DATABASE_URL: database.url,
-      SESSION_SECRET: config.SESSION_SECRET ?? ensureSessionSecret(resolve(repoRoot, '.data/session-secret')),
+      SESSION_SECRET: config.SESSION_SECRET ?? ensureSessionSecret(resolve(dataDir, 'session-secret')),
     };
     if (!config.SMTP_URL) {
-      catcher = await startMailCatcher(resolve(repoRoot, '.data/outbox'));
-      Object.assign(env, { SMTP_URL: catcher.smtpUrl, OUTBOX_FOLDER: resolve(repoRoot, '.data/outbox') });
+      catcher = await startMailCatcher(resolve(dataDir, 'outbox'));
+      Object.assign(env, { SMTP_URL: catcher.smtpUrl, OUTBOX_FOLDER: resolve(dataDir, 'outbox') });
       console.log(`  Mail goes to the local catcher (${catcher.smtpUrl}); admins read it on the Outbox page.`);
     }
     children.push(startTypeScript('API', 'apps/api/src/server.ts', env));

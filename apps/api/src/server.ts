@@ -6,6 +6,7 @@ import { pino } from 'pino';
 import { createApp } from './app';
 import { ConfigError, loadConfig, type Config } from './config';
 import { createMailer } from './mail/mailer';
+import { stopWithParent } from './process/exit-with-parent';
 
 const repoRoot = resolve(import.meta.dirname, '../../..');
 
@@ -46,6 +47,7 @@ if (process.argv[1] === import.meta.filename) {
   try {
     const { stop } = await startServer(loadConfig());
     for (const signal of ['SIGINT', 'SIGTERM'] as const) process.once(signal, () => void stop().then(() => process.exit(0)));
+    stopWithParent(stop);
   } catch (error) {
     console.error(error instanceof ConfigError ? error.message : `API failed to start: ${(error as Error).message}`);
     process.exit(1);
