@@ -8,7 +8,9 @@ import { readInput } from './read-input';
 
 /** Arguments after the subcommand name, and standard input when no --input is given. */
 export interface CommandContext {
+  /** Arguments after the subcommand name. */
   args: string[];
+  /** All of standard input, or null when nothing is piped. */
   readStdin: () => Promise<string | null>;
 }
 

@@ -6,23 +6,41 @@ import type { FitResult, RegularisedFit } from '@loadwright/forecasting';
 
 /** A fit as the command prints it. */
 export interface FitJson {
+  /** The estimator's name. */
   method: string;
+  /** AR order. */
   p: number;
+  /** MA order. */
   q: number;
+  /** Observations used. */
   n: number;
+  /** Process mean μ. */
   mean: number;
+  /** φ_1..φ_p (R arima sign convention). */
   ar: number[];
+  /** θ_1..θ_q (R arima sign convention). */
   ma: number[];
+  /** Innovation variance σ². */
   sigma2: number;
+  /** Standard errors, null where the method has none. */
   stderr: { ar: number[] | null; ma: number[] | null; mean: number | null };
+  /** Log-likelihood as the estimator defines it, or null. */
   loglik: number | null;
+  /** Akaike information criterion, or null. */
   aic: number | null;
+  /** Schwarz (Bayesian) information criterion, or null. */
   bic: number | null;
+  /** Iterative estimators: whether they converged; otherwise null. */
   converged: boolean | null;
+  /** Iterative estimators: iterations taken; otherwise null. */
   iterations: number | null;
+  /** Ridge and lasso: the lag set. */
   lags?: number[];
+  /** Ridge and lasso: lags with a non-zero coefficient. */
   kept?: number[];
+  /** Ridge and lasso: lags set to zero. */
   benched?: number[];
+  /** Ridge and lasso: the penalty used. */
   lambda?: number;
 }
 

@@ -23,12 +23,17 @@ export const fitOptionConfig = {
 
 /** What to fit, checked. */
 export interface FitSpec {
+  /** The estimator. */
   method: FitMethod;
+  /** AR order (ridge and lasso: the largest lag). */
   p: number;
+  /** MA order (nls only). */
   q: number;
-  /** Ridge and lasso only. */
+  /** Ridge and lasso only: the lag set. */
   lags?: number[];
+  /** Ridge and lasso only: a fixed penalty. */
   lambda?: number;
+  /** Ridge and lasso only: how to choose the penalty. */
   select?: 'bic' | 'validation';
 }
 

@@ -12,12 +12,15 @@ import type { InputSeries } from './parse-series';
 
 /** The pipeline's spec and the input it runs on (timestamps guaranteed). */
 export interface LoadModelInput {
+  /** What the pipeline fits. */
   spec: LoadModelSpec;
+  /** The input series, with its timestamps. */
   series: InputSeries & { timestamps: Float64Array };
 }
 
 /** The fitted pipeline and the input it came from. */
 export interface LoadModelRun extends LoadModelInput {
+  /** The pipeline fitted on the whole input. */
   model: FittedLoadModel;
 }
 

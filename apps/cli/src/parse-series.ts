@@ -9,6 +9,7 @@ import { InputError } from './input-error';
 
 /** The series read from the input, with its timestamps when the CSV had them. */
 export interface InputSeries {
+  /** The observed series. */
   values: Float64Array;
   /** Epoch milliseconds, one per value, when a `timestamp` column was present. */
   timestamps: Float64Array | null;

@@ -6,7 +6,9 @@ import { InputError } from './input-error';
 
 /** Where the input text comes from; `stdin` is injectable so the dispatcher stays testable. */
 export interface InputSource {
+  /** The --input path, if given. */
   file: string | undefined;
+  /** All of standard input, or null when nothing is piped. */
   readStdin: () => Promise<string | null>;
 }
 

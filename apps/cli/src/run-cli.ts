@@ -15,8 +15,11 @@ const commands: Record<string, Command> = { fit: fitCommand, forecast: forecastC
 
 /** What the process should write and its exit status. */
 export interface CliOutcome {
+  /** 0 on success, 2 for bad input, 1 for an unexpected failure. */
   exitCode: number;
+  /** The JSON result (or help text) to write to standard output. */
   stdout: string;
+  /** The one-line message (or usage) to write to standard error. */
   stderr: string;
 }
 

@@ -11,8 +11,11 @@ const fixtures = new URL('../../../fixtures/reference/', import.meta.url);
 
 /** Exit status, standard output and standard error of one run. */
 export interface CommandRun {
+  /** Exit status (null when killed by a signal). */
   status: number | null;
+  /** Everything written to standard output. */
   stdout: string;
+  /** Everything written to standard error. */
   stderr: string;
 }
 

@@ -21,9 +21,13 @@ import { ForecastingError } from './errors';
 
 /** The likelihood and criteria of one fit. */
 export interface InformationCriteria {
+  /** Conditional Gaussian log-likelihood ℓ. */
   loglik: number;
+  /** −2ℓ + 2k. */
   aic: number;
+  /** AIC + 2k(k + 1)/(m − k − 1), null when m − k − 1 ≤ 0. */
   aicc: number | null;
+  /** −2ℓ + k·log(m). */
   bic: number;
 }
 

@@ -22,8 +22,11 @@ import { ForecastingError } from '../core/errors';
 
 /** The Ljung-Box statistic, its χ² degrees of freedom and p-value. */
 export interface LjungBoxResult {
+  /** Q = n(n + 2) Σ ρ̂_k²/(n − k). */
   statistic: number;
+  /** lags − fitdf. */
   df: number;
+  /** P(χ²_df > Q). */
   pValue: number;
 }
 

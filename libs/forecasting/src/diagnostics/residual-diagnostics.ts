@@ -22,8 +22,11 @@ import { ljungBox, type LjungBoxResult } from './ljung-box';
 
 /** Residual ACF (index 0 = lag 1), its band half-width and the Ljung-Box test at maxLag. */
 export interface ResidualDiagnostics {
+  /** Residual autocorrelations at lags 1..maxLag (index 0 = lag 1). */
   acf: Float64Array;
+  /** Half-width 1.96/√n of the white-noise band. */
   band: number;
+  /** Ljung-Box at maxLag with fitdf = p + q. */
   ljungBox: LjungBoxResult;
 }
 

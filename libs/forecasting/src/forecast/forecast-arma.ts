@@ -29,7 +29,9 @@ import { psiWeights } from './psi-weights';
 
 /** Conditional means and forecast standard errors for h = 1..H (index h − 1). */
 export interface PointForecast {
+  /** Conditional mean μ + ŵ_{n+h}. */
   mean: Float64Array;
+  /** Forecast standard error σ·sqrt(Σ_{j<h} ψ_j²). */
   se: Float64Array;
 }
 

@@ -21,8 +21,11 @@ import type { PointForecast } from './forecast-arma';
 
 /** A central interval with `level` percent coverage, element h − 1 for horizon h. */
 export interface PredictionInterval {
+  /** Nominal coverage in percent. */
   level: number;
+  /** f_h − z·se_h. */
   lower: Float64Array;
+  /** f_h + z·se_h. */
   upper: Float64Array;
 }
 
