@@ -66,6 +66,15 @@ const designs: Record<string, Design> = {
     ],
     ...singleCurrentReads,
   },
+  nofk: {
+    name: 'nofk',
+    description: 'as plain, without the foreign keys to series and uploads (no per-row FK check)',
+    ddl: [
+      ...catalogueDdl,
+      `create table observations (${currentColumns.replace(/ references [a-z]+\(id\)( on delete cascade)?/g, '')}, primary key (series_id, ts))`,
+    ],
+    ...singleCurrentReads,
+  },
   hash16: {
     name: 'hash16',
     description: 'same columns and PK, hash-partitioned by series_id into 16 partitions',

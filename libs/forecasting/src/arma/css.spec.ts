@@ -6,7 +6,8 @@
 import { describe, expect, it } from 'vitest';
 import { armaResiduals } from '../core/arma-filter';
 import { loadReference, loadSeries } from '../core/spec-support';
-import { createCssWorkspace, cssNormalEquations, cssSumOfSquares, type CssLayout } from './css';
+import { compiledPass } from './css-compiled';
+import { createCssWorkspace, cssNormalEquations, cssSumOfSquares, genericNormalEquations, type CssLayout } from './css';
 
 const lh = Float64Array.from(loadSeries('lh'));
 
@@ -87,4 +88,38 @@ describe('cssNormalEquations', () => {
       }
     });
   }
+});
+
+describe('compiled and generic passes', () => {
+  const layouts: CssLayout[] = [
+    { p: 2, q: 1, includeMean: true },
+    { p: 0, q: 2, includeMean: true },
+    { p: 3, q: 3, includeMean: false },
+    { p: 1, q: 0, includeMean: true },
+    { p: 5, q: 4, includeMean: true },
+  ];
+  for (const layout of layouts) {
+    it(`agree for ARMA(${layout.p},${layout.q})${layout.includeMean ? ' with mean' : ''} (1e-12 relative)`, () => {
+      const k = layout.p + layout.q + (layout.includeMean ? 1 : 0);
+      const beta = Float64Array.from({ length: k }, (_, i) => (i === layout.p + layout.q ? 2.4 : 0.3 / (i + 2) * (i % 2 === 0 ? 1 : -1)));
+      const workspace = createCssWorkspace(lh.length, layout);
+      const withHessian = compiledPass(layout, true) !== null;
+      const run = (pass: typeof genericNormalEquations) => {
+        const jtj = new Float64Array(k * k);
+        const jte = new Float64Array(k);
+        const hessian = withHessian ? new Float64Array(k * k) : null;
+        const value = pass(lh, beta, workspace, jtj, jte, hessian);
+        return [value, ...jtj, ...jte, ...(hessian ?? [])];
+      };
+      expect(compiledPass(layout, false)).not.toBeNull();
+      const fast = run(cssNormalEquations);
+      const generic = run(genericNormalEquations);
+      fast.forEach((value, i) => expect(Math.abs(value - generic[i])).toBeLessThanOrEqual(1e-12 * Math.max(1, Math.abs(generic[i]))));
+    });
+  }
+
+  it('falls back to the generic loop for models too large to unroll', () => {
+    expect(compiledPass({ p: 12, q: 1, includeMean: true }, false)).toBeNull();
+    expect(compiledPass({ p: 4, q: 2, includeMean: true }, true)).toBeNull();
+  });
 });

@@ -22,6 +22,7 @@
  *
  * References: Box, Jenkins, Reinsel & Ljung (2016) §7.1.2, §7.2; R `stats` arima.c (ARIMA_CSS).
  */
+import { compiledPass } from './css-compiled';
 
 /** Which parameters a CSS parameter vector holds: [φ_1..φ_p, θ_1..θ_q, μ?]. */
 export interface CssLayout {
@@ -134,6 +135,8 @@ export function createCssWorkspace(n: number, layout: CssLayout): CssWorkspace {
  *                    − [a = θ_j] ∂e_{t−j}/∂β_b − [b = θ_j] ∂e_{t−j}/∂β_a
  * (differentiate the recursion of ∂e_t once more; φ-φ and μ-μ terms are identically 0).
  * Returns Infinity on overflow. `workspace` must have been created for the same n and layout.
+ * Small models run a compiled, unrolled version of this loop (./css-compiled.ts), which leaves
+ * `workspace.residuals` untouched; residuals come from cssSumOfSquares.
  */
 export function cssNormalEquations(
   x: Float64Array,
@@ -142,6 +145,20 @@ export function cssNormalEquations(
   jtj: Float64Array,
   jte: Float64Array,
   hessian: Float64Array | null = null,
+): number {
+  const compiled = compiledPass(workspace.layout, hessian !== null);
+  if (compiled !== null) return compiled(x, beta, jtj, jte, hessian);
+  return genericNormalEquations(x, beta, workspace, jtj, jte, hessian);
+}
+
+/** The loop behind cssNormalEquations for any layout (also writes e_1..e_n into workspace.residuals). */
+export function genericNormalEquations(
+  x: Float64Array,
+  beta: Float64Array,
+  workspace: CssWorkspace,
+  jtj: Float64Array,
+  jte: Float64Array,
+  hessian: Float64Array | null,
 ): number {
   const { p, q, includeMean } = workspace.layout;
   const k = p + q + (includeMean ? 1 : 0);

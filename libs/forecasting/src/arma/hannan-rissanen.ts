@@ -60,22 +60,11 @@ export function hannanRissanen(x: ArrayLike<number>, p: number, q: number): Arma
   if (rows <= k + 1) {
     throw new ForecastingError('too-few-observations', FN, `step 2 needs more than ${k + 1} rows, has ${rows} (n = ${n}, long AR order ${m})`);
   }
-  const xtx = new Float64Array(k * k);
-  const xty = new Float64Array(k);
-  const row = new Float64Array(k);
-  for (let t = first; t < n; t++) {
-    for (let i = 0; i < p; i++) row[i] = y[t - 1 - i];
-    for (let j = 0; j < q; j++) row[p + j] = innovations[t - 1 - j];
-    accumulate(xtx, xty, row, y[t], k);
-  }
-  const beta = solveNormalEquations(xtx, xty, k);
-  let rss = 0;
-  for (let t = first; t < n; t++) {
-    let r = y[t];
-    for (let i = 0; i < p; i++) r -= beta[i] * y[t - 1 - i];
-    for (let j = 0; j < q; j++) r -= beta[p + j] * innovations[t - 1 - j];
-    rss += r * r;
-  }
+  // Regressors as shifted views: column i is y_{t−1−i}, column p + j is ê_{t−1−j}, t = first..n−1.
+  const columns: Array<Float64Array | null> = [];
+  for (let i = 0; i < p; i++) columns.push(y.subarray(first - 1 - i, n - 1 - i));
+  for (let j = 0; j < q; j++) columns.push(innovations.subarray(first - 1 - j, n - 1 - j));
+  const { beta, rss } = columnLeastSquares(columns, y.subarray(first));
   const ar = stabilise(Array.from(beta.subarray(0, p)));
   // θ(z) = 1 + Σ θ_j z^j is stable when 1 − Σ(−θ_j) z^j is.
   const ma = stabilise(Array.from(beta.subarray(p), (theta) => -theta)).map((c) => -c);
@@ -90,21 +79,10 @@ function autoregression(y: Float64Array, mean: number, p: number): ArmaParameter
   if (rows <= k) {
     throw new ForecastingError('too-few-observations', FN, `AR(${p}) needs more than ${k + p} observations, got ${n}`);
   }
-  const xtx = new Float64Array(k * k);
-  const xty = new Float64Array(k);
-  const row = new Float64Array(k);
-  row[p] = 1;
-  for (let t = p; t < n; t++) {
-    for (let i = 0; i < p; i++) row[i] = y[t - 1 - i];
-    accumulate(xtx, xty, row, y[t], k);
-  }
-  const beta = solveNormalEquations(xtx, xty, k);
-  let rss = 0;
-  for (let t = p; t < n; t++) {
-    let r = y[t] - beta[p];
-    for (let i = 0; i < p; i++) r -= beta[i] * y[t - 1 - i];
-    rss += r * r;
-  }
+  const columns: Array<Float64Array | null> = [];
+  for (let i = 0; i < p; i++) columns.push(y.subarray(p - 1 - i, n - 1 - i));
+  columns.push(null);
+  const { beta, rss } = columnLeastSquares(columns, y.subarray(p));
   const ar = stabilise(Array.from(beta.subarray(0, p)));
   const oneMinusSum = 1 - ar.reduce((s, phi) => s + phi, 0);
   return { mean: mean + beta[p] / oneMinusSum, ar, ma: [], sigma2: rss / rows };
@@ -116,11 +94,10 @@ function longAutoregressionResiduals(y: Float64Array, m: number): Float64Array {
   // c[i*(m+1)+j] = Σ_{t=m..n−1} y_{t−i} y_{t−j}, filled along diagonals from the first row.
   const size = m + 1;
   const c = new Float64Array(size * size);
+  const firstRow = laggedProducts(y, m);
   for (let j = 0; j <= m; j++) {
-    let s = 0;
-    for (let t = m; t < n; t++) s += y[t] * y[t - j];
-    c[j] = s;
-    c[j * size] = s;
+    c[j] = firstRow[j];
+    c[j * size] = firstRow[j];
   }
   for (let i = 0; i < m; i++) {
     for (let j = i; j < m; j++) {
@@ -137,20 +114,105 @@ function longAutoregressionResiduals(y: Float64Array, m: number): Float64Array {
   }
   const coef = solveNormalEquations(a, b, m);
   const residuals = new Float64Array(n);
+  // Four independent partial sums: the dependent chain of one accumulator, not the arithmetic,
+  // limits a long dot product.
+  const blocked = m - (m % 4);
   for (let t = m; t < n; t++) {
-    let r = y[t];
-    for (let i = 0; i < m; i++) r -= coef[i] * y[t - 1 - i];
-    residuals[t] = r;
+    let r0 = y[t];
+    let r1 = 0;
+    let r2 = 0;
+    let r3 = 0;
+    let i = 0;
+    for (; i < blocked; i += 4) {
+      r0 -= coef[i] * y[t - 1 - i];
+      r1 -= coef[i + 1] * y[t - 2 - i];
+      r2 -= coef[i + 2] * y[t - 3 - i];
+      r3 -= coef[i + 3] * y[t - 4 - i];
+    }
+    for (; i < m; i++) r0 -= coef[i] * y[t - 1 - i];
+    residuals[t] = r0 + r1 + r2 + r3;
   }
   return residuals;
 }
 
-/** Adds one regression row to XᵀX (upper and lower) and Xᵀy. */
-function accumulate(xtx: Float64Array, xty: Float64Array, row: Float64Array, target: number, k: number): void {
-  for (let a = 0; a < k; a++) {
-    xty[a] += row[a] * target;
-    for (let b = 0; b < k; b++) xtx[a * k + b] += row[a] * row[b];
+/** Σ_{t=m..n−1} y_t y_{t−j} for j = 0..m, four lags per sweep so the sums run independently. */
+function laggedProducts(y: Float64Array, m: number): Float64Array {
+  const n = y.length;
+  const sums = new Float64Array(m + 1);
+  let j = 0;
+  for (; j + 3 <= m; j += 4) {
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
+    for (let t = m; t < n; t++) {
+      const yt = y[t];
+      s0 += yt * y[t - j];
+      s1 += yt * y[t - j - 1];
+      s2 += yt * y[t - j - 2];
+      s3 += yt * y[t - j - 3];
+    }
+    sums[j] = s0;
+    sums[j + 1] = s1;
+    sums[j + 2] = s2;
+    sums[j + 3] = s3;
   }
+  for (; j <= m; j++) {
+    let s0 = 0;
+    for (let t = m; t < n; t++) s0 += y[t] * y[t - j];
+    sums[j] = s0;
+  }
+  return sums;
+}
+
+/**
+ * Least squares of `target` on `columns` (null stands for a column of ones) by the normal equations;
+ * XᵀX and Xᵀy are column dot products, and RSS = yᵀy − βᵀXᵀy at the solution.
+ */
+function columnLeastSquares(columns: Array<Float64Array | null>, target: Float64Array): { beta: Float64Array; rss: number } {
+  const k = columns.length;
+  const xtx = new Float64Array(k * k);
+  const xty = new Float64Array(k);
+  const product = (a: Float64Array | null, b: Float64Array | null): number =>
+    a === null ? (b === null ? target.length : sum(b)) : b === null ? sum(a) : dot(a, b);
+  for (let a = 0; a < k; a++) {
+    xty[a] = product(columns[a], target);
+    for (let b = a; b < k; b++) {
+      const value = product(columns[a], columns[b]);
+      xtx[a * k + b] = value;
+      xtx[b * k + a] = value;
+    }
+  }
+  const beta = solveNormalEquations(xtx, xty, k);
+  let explained = 0;
+  for (let a = 0; a < k; a++) explained += beta[a] * xty[a];
+  return { beta, rss: Math.max(dot(target, target) - explained, 0) };
+}
+
+/** Σ a_t b_t with four independent partial sums. */
+function dot(a: Float64Array, b: Float64Array): number {
+  const n = a.length;
+  const blocked = n - (n % 4);
+  let s0 = 0;
+  let s1 = 0;
+  let s2 = 0;
+  let s3 = 0;
+  let t = 0;
+  for (; t < blocked; t += 4) {
+    s0 += a[t] * b[t];
+    s1 += a[t + 1] * b[t + 1];
+    s2 += a[t + 2] * b[t + 2];
+    s3 += a[t + 3] * b[t + 3];
+  }
+  for (; t < n; t++) s0 += a[t] * b[t];
+  return s0 + s1 + s2 + s3;
+}
+
+/** Σ a_t. */
+function sum(a: Float64Array): number {
+  let total = 0;
+  for (let t = 0; t < a.length; t++) total += a[t];
+  return total;
 }
 
 /** Solves XᵀX β = Xᵀy by Cholesky; throws 'singular-matrix' when XᵀX is not positive definite. */
