@@ -7,9 +7,10 @@
  * Method: minimise CSS(φ, θ, μ) = Σ_{t=p+1..n} e_t² (Box, Jenkins, Reinsel & Ljung 2016, Time Series
  * Analysis, 5th ed., §7.1.2 conditional likelihood, §7.2 nonlinear estimation) from Hannan-Rissanen
  * starting values (Hannan & Rissanen 1982) by Levenberg-Marquardt steps (Levenberg 1944; Marquardt
- * 1963, J. SIAM 11(2): damping λ·diag(JᵀJ)) on the Newton system: half the exact Hessian
- * JᵀJ + Σ e_t ∇²e_t where it is positive definite (near the optimum: quadratic convergence, where
- * Gauss-Newton alone can crawl on near-redundant models), JᵀJ (Gauss-Newton) elsewhere. J and ∇²e come
+ * 1963, J. SIAM 11(2): damping λ·diag(JᵀJ)). Steps start as Gauss-Newton (JᵀJ); when Gauss-Newton
+ * slows down (the predicted decrease shrinks by less than 10× per step, as on near-redundant models
+ * where it can crawl for a hundred steps) they switch to Newton on half the exact Hessian
+ * JᵀJ + Σ e_t ∇²e_t wherever that is positive definite (quadratic convergence). J and ∇²e come
  * analytically from the recursive-filtering derivatives of ./css.ts. Convergence: the relative offset of
  * Bates & Watts (1981, Technometrics 23(2); Bates & Watts 1988, Nonlinear Regression Analysis §2.2.3) —
  * the predicted decrease relative to the residual scale — below `tolerance`, or a predicted decrease
