@@ -5,7 +5,9 @@
 //   maxit = 5000, ndeps = rep(1e-6, k)))`; ols[p].lm_ols is `lm(E[, 1] ~ E[, -1])` on `embed(x, p + 1)`.
 // - the npm package `arima` 0.2.8, method 2 (CSS), run in a child process (./npm-arima-reference.ts).
 // - simulation recovery with known parameters (seeded, ./testing-random.ts).
+// - the least-squares AR fit of ../ar/cmle.ts (QR) for a long AR.
 import { describe, expect, it } from 'vitest';
+import { cmleAr } from '../ar/cmle';
 import { armaResiduals } from '../core/arma-filter';
 import { ForecastingError } from '../core/errors';
 import { loadReference, loadSeries, type ReferenceSeries } from '../core/spec-support';
@@ -120,6 +122,19 @@ describe('nlsArma for a pure AR(p) equals least squares', () => {
       });
     }
   }
+});
+
+describe('nlsArma for a long AR equals the QR least-squares fit', () => {
+  it('AR(12) on 2,000 simulated points matches cmleAr (Householder QR) to 1e-7 relative', () => {
+    // A model too large for the unrolled passes, so this runs the generic recursion end to end.
+    const x = simulateArma({ mean: 5, ar: [0.5, 0.1, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0.2], ma: [], sigma2: 1 }, 2000, seededRandom(12));
+    const fit = nlsArma(x, 12, 0);
+    const ls = cmleAr(x, 12);
+    expect(fit.converged).toBe(true);
+    fit.ar.forEach((phi, i) => expect(Math.abs(phi - ls.ar[i])).toBeLessThan(1e-7 * Math.max(1, Math.abs(ls.ar[i]))));
+    expect(Math.abs(fit.mean - ls.mean) / Math.abs(ls.mean)).toBeLessThan(1e-7);
+    expect(Math.abs(fit.sigma2 - ls.sigma2) / ls.sigma2).toBeLessThan(1e-10);
+  });
 });
 
 describe('nlsArma against the npm package arima (method 2 = CSS)', () => {
