@@ -32,7 +32,11 @@ export const seasonalTreatment = pgEnum('seasonal_treatment', [
   'none',
   'hour_of_week_profile',
   'seasonal_difference',
+  'hour_of_day_profile',
 ]);
+
+/** Whether a seasonal profile adds to the level or scales it. */
+export const profileForm = pgEnum('profile_form', ['additive', 'multiplicative']);
 
 /** Model settings of one series, as the planner left them. */
 export const modelSpecs = pgTable(
@@ -51,6 +55,16 @@ export const modelSpecs = pgTable(
     /** Extra lags offered to ridge/lasso beyond 1..max_ar_order, e.g. 168 for last week. */
     extraLags: integer('extra_lags').array().notNull().default(sql`'{}'::integer[]`),
     seasonalTreatment: seasonalTreatment('seasonal_treatment').notNull().default('hour_of_week_profile'),
+    /** Form of the hour-of-week or hour-of-day profile. */
+    profileForm: profileForm('profile_form').notNull().default('additive'),
+    /** Lag of seasonal differencing (24 or 168 hours), used when the treatment is `seasonal_difference`. */
+    differenceLag: smallint('difference_lag').notNull().default(168),
+    /** Model log(load) instead of load. */
+    logTransform: boolean('log_transform').notNull().default(false),
+    /** Heating balance point in the temperature series' unit; null takes 15.5 °C (60 °F). */
+    heatingBase: doublePrecision('heating_base'),
+    /** Cooling balance point in the temperature series' unit; null takes 22 °C (72 °F). */
+    coolingBase: doublePrecision('cooling_base'),
     useTemperature: boolean('use_temperature').notNull().default(true),
     useDayType: boolean('use_day_type').notNull().default(true),
     trainingWindowDays: integer('training_window_days').notNull().default(365),
@@ -62,6 +76,8 @@ export const modelSpecs = pgTable(
   },
   (t) => [
     check('model_specs_orders_check', sql`coalesce(${t.arOrder}, 0) >= 0 and coalesce(${t.maOrder}, 0) >= 0 and ${t.maxArOrder} >= 0 and ${t.maxMaOrder} >= 0`),
+    check('model_specs_difference_lag_check', sql`${t.differenceLag} in (24, 168)`),
+    check('model_specs_balance_points_check', sql`${t.heatingBase} is null or ${t.coolingBase} is null or ${t.heatingBase} <= ${t.coolingBase}`),
     check('model_specs_horizon_check', sql`${t.horizonHours} between 1 and 8784`),
     check('model_specs_training_window_check', sql`${t.trainingWindowDays} between 7 and 3660`),
     check('model_specs_levels_check', sql`cardinality(${t.levels}) >= 1 and 0 < all(${t.levels}) and 100 > all(${t.levels})`),
