@@ -7,3 +7,5 @@ export * from './people';
 export * from './api-tokens';
 export * from './audit';
 export * from './outbox';
+export * from './series';
+export * from './readings';
