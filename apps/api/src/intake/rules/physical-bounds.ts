@@ -1,0 +1,35 @@
+/**
+ * Negative and impossible values. Load cannot be negative here (net metering with export would be
+ * its own series kind). The impossible bound for temperature is the range of air temperatures ever
+ * recorded with margin, −60…60 °C (−76…140 °F); for load it is ten times the series' robust maximum
+ * (the 99th percentile of the readings), which a scaling fault such as W recorded as kW exceeds at
+ * once while no real peak comes near it.
+ */
+
+/** What a series measures, for its bounds. */
+export interface BoundsSubject {
+  kind: 'load' | 'temperature';
+  /** Unit of stored values: W, kW, MW, degC or degF. */
+  unit: string;
+}
+
+/** Fewest readings from which a robust maximum is trusted. */
+export const robustMaxMinReadings = 24;
+
+/** Multiple of the robust maximum beyond which a load reading is impossible. */
+export const impossibleLoadFactor = 10;
+
+/** The closed range of possible values, or null when the batch is too short to bound load. */
+export function possibleRange(subject: BoundsSubject, values: Float64Array, length: number): { low: number; high: number } | null {
+  if (subject.kind === 'temperature') return subject.unit === 'degF' ? { low: -76, high: 140 } : { low: -60, high: 60 };
+  if (length < robustMaxMinReadings) return null;
+  const magnitudes = Float64Array.from(values.subarray(0, length), Math.abs).sort();
+  const robustMax = magnitudes[Math.floor(0.99 * (length - 1))]!;
+  if (robustMax === 0) return null;
+  return { low: -Infinity, high: impossibleLoadFactor * robustMax };
+}
+
+/** True when a value of this series kind is negative where it cannot be. */
+export function isNegativeLoad(subject: BoundsSubject, value: number): boolean {
+  return subject.kind === 'load' && value < 0;
+}
