@@ -3,6 +3,7 @@ import { z } from 'zod';
 import type { AppContext } from './app-context';
 import { auditRoutes } from './audit/audit-routes';
 import { authRoutes } from './auth/auth-routes';
+import { forecastRoutes } from './forecasts/forecast-routes';
 import { healthRoutes } from './health/health-routes';
 import { buildOpenApiDocument } from './http/openapi';
 import { defineRoute, type RouteDefinition } from './http/route-table';
@@ -15,6 +16,7 @@ const version = process.env['npm_package_version'] ?? '0.1.0';
 /** All routes, including the one that describes them. */
 export function apiRoutes(context: AppContext): RouteDefinition[] {
   const routes = [...healthRoutes(context), ...authRoutes(context), ...peopleRoutes(context), ...tokenRoutes(context), ...auditRoutes(context), ...outboxRoutes(context)];
+  routes.push(...forecastRoutes(context));
   let document: unknown;
   routes.push(
     defineRoute({

@@ -9,3 +9,4 @@ export * from './audit';
 export * from './outbox';
 export * from './series';
 export * from './readings';
+export * from './forecasts';

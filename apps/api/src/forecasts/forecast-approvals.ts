@@ -1,0 +1,132 @@
+/**
+ * Approving drafts, one or many at once, and previewing what a group approval changes.
+ *
+ * Approval runs in one transaction that first locks the rows of the series involved (FOR NO KEY
+ * UPDATE, in id order so two bulk approvals cannot deadlock; NO KEY leaves readings and refits that
+ * only reference the series unblocked), then re-reads the versions under lock. Two approvals of one
+ * series therefore run one after the other, and the second sees the first's result: exactly one
+ * version of a series is ever approved. The previous approved version is superseded in the same
+ * transaction; the database's immutability triggers keep approved versions as they were approved.
+ */
+import type { ApprovalPreview, ApprovalPreviewItem, ApprovalPreviewRequest, ApprovalResult } from '@loadwright/contracts';
+import { forecastVersions, type Database } from '@loadwright/db';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { recordAudit } from '../audit/audit-log';
+import { HttpProblem } from '../errors/http-problem';
+import { horizonPeak } from './daily-peaks';
+import type { Caller } from './forecast-adjustments';
+import { adjustmentsOf, currentVersions, findSeries, pointsOf, seriesInScope, type SeriesScope } from './forecast-repository';
+import { effectiveValues } from './forecast-review';
+import { energyDifference, percentDifference } from './version-comparison';
+
+/** Why a listed version could not be approved. */
+function staleReason(versionId: number, state: string | undefined): string {
+  if (state === undefined) return `No forecast version with id ${versionId}.`;
+  if (state === 'approved') return `Forecast version ${versionId} is approved already.`;
+  return `Forecast version ${versionId} is ${state}: a newer draft replaced it. Preview again and approve the current drafts.`;
+}
+
+/**
+ * Approves the listed drafts together, all or none. `single` makes a missing version a 404 and a
+ * non-draft a plain conflict; otherwise every stale version is listed in the conflict's errors.
+ */
+export async function approveVersions(db: Database, versionIds: number[], { actor, ip }: Caller, options: { single?: boolean } = {}): Promise<ApprovalResult> {
+  return db.transaction(async (tx) => {
+    const candidates = await tx.select({ id: forecastVersions.id, seriesId: forecastVersions.seriesId }).from(forecastVersions).where(inArray(forecastVersions.id, versionIds));
+    if (options.single && candidates.length === 0) throw new HttpProblem('notFound', `No forecast version with id ${versionIds[0]}.`);
+
+    const seriesIds = [...new Set(candidates.map((candidate) => candidate.seriesId))].sort((a, b) => a - b);
+    if (seriesIds.length > 0) {
+      await tx.execute(sql`select id from series where id in (${sql.join(seriesIds.map((id) => sql`${id}`), sql`, `)}) order by id for no key update`);
+    }
+    const locked = await tx
+      .select({ id: forecastVersions.id, seriesId: forecastVersions.seriesId, state: forecastVersions.state })
+      .from(forecastVersions)
+      .where(inArray(forecastVersions.id, versionIds))
+      .orderBy(asc(forecastVersions.id))
+      .for('update');
+    const byId = new Map(locked.map((row) => [row.id, row]));
+
+    const stale = versionIds.flatMap((id, index) => {
+      const row = byId.get(id);
+      return row?.state === 'draft' ? [] : [{ pointer: `/versionIds/${index}`, detail: staleReason(id, row?.state) }];
+    });
+    const perSeries = new Map<number, number[]>();
+    for (const row of locked) perSeries.set(row.seriesId, [...(perSeries.get(row.seriesId) ?? []), row.id]);
+    for (const [seriesId, ids] of perSeries) {
+      if (ids.length > 1) stale.push({ pointer: `/versionIds/${versionIds.indexOf(ids[1]!)}`, detail: `Versions ${ids.join(' and ')} both belong to series ${seriesId}; approve one version per series.` });
+    }
+    if (stale.length > 0) {
+      if (options.single) throw new HttpProblem('conflict', stale[0]!.detail);
+      throw new HttpProblem('conflict', `${stale.length} of ${versionIds.length} versions cannot be approved; nothing was approved. Preview again and approve the current drafts.`, stale);
+    }
+
+    const approvedAt = new Date();
+    const superseded = await tx
+      .update(forecastVersions)
+      .set({ state: 'superseded', supersededAt: approvedAt })
+      .where(and(inArray(forecastVersions.seriesId, seriesIds), eq(forecastVersions.state, 'approved')))
+      .returning({ id: forecastVersions.id, seriesId: forecastVersions.seriesId });
+    await tx
+      .update(forecastVersions)
+      .set({ state: 'approved', approvedAt, approvedById: actor.kind === 'user' ? actor.userId : null })
+      .where(inArray(forecastVersions.id, versionIds));
+
+    const supersededBySeries = new Map(superseded.map((row) => [row.seriesId, row.id]));
+    const approved = versionIds.map((id) => {
+      const seriesId = byId.get(id)!.seriesId;
+      return { versionId: id, seriesId, supersededVersionId: supersededBySeries.get(seriesId) ?? null };
+    });
+    for (const entry of approved) {
+      await recordAudit(tx, {
+        actor,
+        action: 'forecast.approved',
+        targetType: 'forecast_version',
+        targetId: entry.versionId,
+        detail: { seriesId: entry.seriesId, supersededVersionId: entry.supersededVersionId, together: versionIds.length },
+        ip,
+      });
+    }
+    return { approvedAt: approvedAt.toISOString(), approved };
+  });
+}
+
+/** What approving the current drafts of the series in scope would change, series by series. */
+export async function previewApprovals(db: Database, request: ApprovalPreviewRequest): Promise<ApprovalPreview> {
+  let scope: SeriesScope;
+  if (request.parentId !== undefined) {
+    if (!(await findSeries(db, request.parentId))) throw new HttpProblem('notFound', `No series with id ${request.parentId}.`);
+    scope = { kind: 'subtree', rootId: request.parentId };
+  } else scope = { kind: 'series', ids: [...new Set(request.seriesIds!)] };
+
+  const inScope = await seriesInScope(db, scope);
+  if (scope.kind === 'series') {
+    const found = new Set(inScope.map((row) => row.id));
+    const missing = scope.ids.filter((id) => !found.has(id));
+    if (missing.length > 0) throw new HttpProblem('notFound', `No load series with id ${missing.join(', ')}.`);
+  }
+
+  const versions = await currentVersions(db, inScope.map((row) => row.id));
+  const ids = versions.map((row) => row.id);
+  const [points, adjustments] = await Promise.all([pointsOf(db, ids), adjustmentsOf(db, ids)]);
+
+  const items: ApprovalPreviewItem[] = inScope.map((seriesRow) => {
+    const draft = versions.find((row) => row.seriesId === seriesRow.id && row.state === 'draft');
+    const approved = versions.find((row) => row.seriesId === seriesRow.id && row.state === 'approved');
+    const draftValues = draft ? effectiveValues(points.get(draft.id)!, adjustments.get(draft.id)!) : [];
+    const approvedValues = approved ? effectiveValues(points.get(approved.id)!, adjustments.get(approved.id)!) : [];
+    const draftPeak = horizonPeak(draftValues, seriesRow.timeZone);
+    const approvedPeak = horizonPeak(approvedValues, seriesRow.timeZone);
+    const bothPeaks = draftPeak !== null && approvedPeak !== null;
+    return {
+      series: seriesRow,
+      draft: draft ? { versionId: draft.id, issuedAt: draft.issuedAt.toISOString(), origin: draft.origin.toISOString(), adjustmentCount: draft.adjustmentCount, peak: draftPeak } : null,
+      approved: approved ? { versionId: approved.id, approvedAt: approved.approvedAt?.toISOString() ?? null, origin: approved.origin.toISOString(), peak: approvedPeak } : null,
+      peakDifference: bothPeaks ? draftPeak.value - approvedPeak.value : null,
+      peakDifferencePercent: bothPeaks ? percentDifference(draftPeak.value, approvedPeak.value) : null,
+      energy: draft && approved ? energyDifference(draftValues, approvedValues, seriesRow.intervalMinutes) : null,
+    };
+  });
+  const versionIds = items.flatMap((item) => (item.draft ? [item.draft.versionId] : []));
+  return { items, versionIds, withoutDraft: items.length - versionIds.length };
+}
