@@ -1,0 +1,242 @@
+/**
+ * File uploads of interval readings: what a steward sends, what Loadwright detects and proposes,
+ * the mapping and settings the steward confirms, the import's progress, and the validation report.
+ *
+ * Flow for the web app:
+ *   1. POST /api/uploads (multipart/form-data, one field `file`) → `UploadReceipt`: the upload, the
+ *      detected layout, a preview of the first rows and a proposed mapping. When the same bytes were
+ *      uploaded before, `duplicateOf` names that upload and nothing new is stored.
+ *   2. POST /api/uploads/:id/mapping with `ConfirmUploadRequest` → the upload, now `queued`; a 400
+ *      problem names the column when the mapping does not fit the file.
+ *   3. Poll GET /api/uploads/:id → `UploadDetail` (status, `progress` 0–100, counts, report) until
+ *      `status` is `done` or `failed`; `failed` carries one message naming the row and column.
+ *   4. GET /api/uploads/:id/report.csv downloads every finding (spreadsheet-safe).
+ */
+import { z } from 'zod';
+import { timeZoneSchema, timestampsMarks } from './series';
+
+/**
+ * Where an upload stands: `received` (stored and previewed, awaiting its mapping), `queued` (mapping
+ * confirmed, import job waiting), `importing`, `done` (every usable row landed), `failed` (nothing
+ * landed; `error` says why, naming the row and column).
+ */
+export const uploadStatuses = ['received', 'queued', 'importing', 'done', 'failed'] as const;
+export type UploadStatus = (typeof uploadStatuses)[number];
+
+/**
+ * Units a file's values may be in. Demand: W, kW, MW. Energy per interval: kWh, MWh, converted to the
+ * mean demand over the interval (kWh per 15 minutes × 4 = kW). Temperature: degC, degF.
+ */
+export const uploadUnits = ['W', 'kW', 'MW', 'kWh', 'MWh', 'degC', 'degF'] as const;
+export type UploadUnit = (typeof uploadUnits)[number];
+
+/**
+ * What to do with a local time that occurs twice (the repeated hour when clocks fall back):
+ * `reject` drops those readings with a finding; `first-is-daylight` takes the first occurrence in
+ * the file as daylight time and the second as standard time, with a finding on each.
+ */
+export const repeatedHourPolicies = ['reject', 'first-is-daylight'] as const;
+export type RepeatedHourPolicy = (typeof repeatedHourPolicies)[number];
+
+/** The validation rules whose findings an import records. */
+export const validationRules = [
+  'gap',
+  'spike',
+  'flat_line',
+  'negative',
+  'impossible',
+  'duplicate_equal',
+  'duplicate_conflict',
+  'off_grid',
+  'future',
+  'dst_repeated_hour',
+  'dst_missing_hour',
+  'unparseable',
+  'unknown_series',
+  'estimated',
+] as const;
+export type ValidationRule = (typeof validationRules)[number];
+
+/** What each rule means, for the report's headings. */
+export const validationRuleDescriptions: Record<ValidationRule, string> = {
+  gap: 'Missing intervals between readings (short gaps are estimated, longer ones only reported)',
+  spike: 'Reading far from its neighbours (Hampel identifier: more than 4 robust standard deviations from the median of the 25 readings around it)',
+  flat_line: 'Identical values for longer than the limit (6 hours for load, 12 for temperature)',
+  negative: 'Load below zero',
+  impossible: 'Beyond what the series can physically read (load over 10× its robust maximum; temperature outside −60…60 °C)',
+  duplicate_equal: 'The same instant twice with the same value (dropped)',
+  duplicate_conflict: 'The same instant twice with different values (the first kept, the other dropped)',
+  off_grid: "Timestamp off the series' interval grid (dropped)",
+  future: 'Reading after the time of the import (dropped)',
+  dst_repeated_hour: 'Local time in the repeated daylight-saving hour (resolved or dropped by the upload setting)',
+  dst_missing_hour: 'Local time that does not exist (skipped by the spring-forward change; dropped)',
+  unparseable: 'A cell that could not be read',
+  unknown_series: 'Series key not in the catalogue (row dropped)',
+  estimated: 'An estimate was stored (method in the detail)',
+};
+
+/** Field separators Loadwright detects. */
+export const csvDelimiters = [',', ';', '\t'] as const;
+
+/** Text encodings Loadwright reads (UTF-16 needs its byte-order mark). */
+export const csvEncodings = ['utf-8', 'utf-16le', 'utf-16be'] as const;
+
+/** What Loadwright detected about a file. */
+export const uploadLayoutSchema = z.object({
+  encoding: z.enum(csvEncodings),
+  delimiter: z.enum(csvDelimiters),
+  /** False when the first row already holds data; columns are then named "column 1", "column 2", … */
+  hasHeader: z.boolean(),
+  /** Column names in file order. */
+  columns: z.array(z.string()),
+  /** Decimal separator seen in the values ("," only in semicolon files such as 12,5). */
+  decimalSeparator: z.enum(['.', ',']),
+  /** Whether the timestamps carry a UTC offset (ISO 8601 with Z or ±hh:mm) or are local times. */
+  timestampsHaveOffset: z.boolean().nullable(),
+});
+export type UploadLayout = z.infer<typeof uploadLayoutSchema>;
+
+/** The first rows of a file as text, for the mapping screen. */
+export const uploadPreviewSchema = z.object({
+  columns: z.array(z.string()),
+  /** Up to 20 data rows, cells as written in the file. */
+  rows: z.array(z.array(z.string())),
+});
+export type UploadPreview = z.infer<typeof uploadPreviewSchema>;
+
+const columnName = z.string().min(1, 'Choose a column');
+
+/** A long file: one row per reading, with a timestamp, a value and (for many series) a series key column. */
+export const longMappingSchema = z.object({
+  layout: z.literal('long'),
+  timestampColumn: columnName,
+  valueColumn: columnName,
+  /** Column holding series keys; null when the whole file is one series (then `seriesKey`). */
+  seriesKeyColumn: z.string().min(1).nullable(),
+  /** The series of a file without a key column; null when `seriesKeyColumn` is set. */
+  seriesKey: z.string().min(1).nullable(),
+});
+
+/** A wide file: a timestamp column and one value column per series. */
+export const wideMappingSchema = z.object({
+  layout: z.literal('wide'),
+  timestampColumn: columnName,
+  seriesColumns: z
+    .array(z.object({ column: columnName, seriesKey: z.string().min(1, 'Choose a series') }))
+    .min(1, 'Map at least one column to a series'),
+});
+
+/** How the file's columns map onto series and readings. */
+export const uploadMappingSchema = z.discriminatedUnion('layout', [longMappingSchema, wideMappingSchema]);
+export type UploadMapping = z.infer<typeof uploadMappingSchema>;
+
+/** How to read the values and timestamps. */
+export const uploadSettingsSchema = z.object({
+  unit: z.enum(uploadUnits),
+  /** IANA zone in which timestamps without an offset are read. */
+  timeZone: timeZoneSchema,
+  /** Whether a timestamp marks the start or the end of its interval (stored readings keep starts). */
+  timestampsMark: z.enum(timestampsMarks),
+  repeatedHourPolicy: z.enum(repeatedHourPolicies),
+  decimalSeparator: z.enum(['.', ',']).default('.'),
+  /** Fill gaps of up to 3 intervals with linear estimates (flagged); default true. */
+  estimateShortGaps: z.boolean().default(true),
+});
+export type UploadSettings = z.infer<typeof uploadSettingsSchema>;
+
+/** POST /api/uploads/:id/mapping */
+export const confirmUploadRequestSchema = z.object({ mapping: uploadMappingSchema, settings: uploadSettingsSchema });
+export type ConfirmUploadRequest = z.infer<typeof confirmUploadRequestSchema>;
+
+/** A proposed mapping: complete where the file made it clear; `notes` say what the steward must still choose. */
+export const uploadProposalSchema = z.object({
+  mapping: uploadMappingSchema.nullable(),
+  settings: uploadSettingsSchema,
+  notes: z.array(z.string()),
+});
+export type UploadProposal = z.infer<typeof uploadProposalSchema>;
+
+/** One upload as lists show it. */
+export const uploadSchema = z.object({
+  id: z.number().int(),
+  fileName: z.string(),
+  byteSize: z.number().int(),
+  source: z.enum(['csv', 'api', 'green_button']),
+  status: z.enum(uploadStatuses),
+  /** Percent done, 0–100, from rows processed. */
+  progress: z.number().min(0).max(100),
+  /** Who uploaded it (person's name or token name); null when unknown. */
+  uploadedBy: z.string().nullable(),
+  createdAt: z.iso.datetime(),
+  startedAt: z.iso.datetime().nullable(),
+  finishedAt: z.iso.datetime().nullable(),
+  /** Data rows in the file, once read. */
+  rowsTotal: z.number().int().nullable(),
+  rowsProcessed: z.number().int(),
+  /** Readings stored at new instants (estimate-only rows for short gaps included). */
+  rowsImported: z.number().int(),
+  /** Readings not stored (duplicates, off-grid, future, unknown series, daylight-saving rejections). */
+  rowsRejected: z.number().int(),
+  /** Readings equal to those already stored. */
+  rowsUnchanged: z.number().int(),
+  /** Readings that corrected a stored value (the old one kept as revision). */
+  rowsRevised: z.number().int(),
+  /** Why the upload failed, naming row and column; null unless `failed`. */
+  error: z.string().nullable(),
+  mapping: uploadMappingSchema.nullable(),
+  settings: uploadSettingsSchema.nullable(),
+});
+export type Upload = z.infer<typeof uploadSchema>;
+
+/** One finding as the report shows it. */
+export const uploadFindingSchema = z.object({
+  rule: z.enum(validationRules),
+  seriesKey: z.string().nullable(),
+  /** The reading's instant (interval start, UTC). */
+  ts: z.iso.datetime().nullable(),
+  value: z.number().nullable(),
+  /** Row in the file (the header is row 1). */
+  sourceRow: z.number().int().nullable(),
+  /** Rule-specific facts (limit, method of an estimate, gap length…). */
+  detail: z.record(z.string(), z.unknown()),
+});
+export type UploadFinding = z.infer<typeof uploadFindingSchema>;
+
+/** The validation report: counts per rule and up to 10 examples of each. */
+export const uploadReportSchema = z.object({
+  counts: z.array(z.object({ rule: z.enum(validationRules), count: z.number().int(), description: z.string() })),
+  examples: z.array(uploadFindingSchema),
+});
+export type UploadReport = z.infer<typeof uploadReportSchema>;
+
+/** GET /api/uploads/:id */
+export const uploadDetailSchema = z.object({
+  upload: uploadSchema,
+  report: uploadReportSchema,
+  /** While `received`: what was detected, the first rows and the proposal, to build the mapping form. */
+  layout: uploadLayoutSchema.nullable(),
+  preview: uploadPreviewSchema.nullable(),
+  proposal: uploadProposalSchema.nullable(),
+});
+export type UploadDetail = z.infer<typeof uploadDetailSchema>;
+
+/** POST /api/uploads (201, or 200 with `duplicateOf` when the same bytes were uploaded before). */
+export const uploadReceiptSchema = uploadDetailSchema.extend({
+  /** The earlier upload of the same bytes; when set, `upload` is that one and nothing was added. */
+  duplicateOf: z.number().int().nullable(),
+  /** A sentence for the steward, e.g. "Already imported as upload 12." */
+  message: z.string().nullable(),
+});
+export type UploadReceipt = z.infer<typeof uploadReceiptSchema>;
+
+/** GET /api/uploads */
+export const uploadListQuerySchema = z.object({
+  status: z.enum(uploadStatuses).optional(),
+  limit: z.coerce.number().int().min(1).max(200).default(50),
+  offset: z.coerce.number().int().min(0).default(0),
+});
+export type UploadListQuery = z.infer<typeof uploadListQuerySchema>;
+
+/** A page of uploads, newest first. */
+export const uploadPageSchema = z.object({ items: z.array(uploadSchema), total: z.number().int() });
+export type UploadPage = z.infer<typeof uploadPageSchema>;
