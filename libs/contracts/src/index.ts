@@ -10,6 +10,4 @@ export * from './outbox';
 export * from './series';
 export * from './readings';
 export * from './forecasts';
-export * from './models';
-export * from './refits';
 export * from './uploads';
