@@ -35,7 +35,7 @@ function start(): { child: ChildProcess; output: () => string; exited: Promise<n
   return { child, output: () => text, exited };
 }
 
-async function waitFor(condition: () => boolean | Promise<boolean>, what: string, ms = 90_000): Promise<void> {
+async function waitFor(condition: () => boolean | Promise<boolean>, what: string, ms = 180_000): Promise<void> {
   const deadline = Date.now() + ms;
   while (Date.now() < deadline) {
     if (await condition()) return;
@@ -92,5 +92,5 @@ describe('npm start', () => {
     expect(await third.exited).toBe(0);
     expect(third.output()).toContain('Stopped.');
     expect(await healthOf(port)).toBeNull();
-  }, 240_000);
+  }, 480_000);
 });
