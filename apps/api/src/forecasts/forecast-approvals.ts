@@ -51,11 +51,7 @@ export async function approveVersions(db: Database, versionIds: number[], { acto
       const row = byId.get(id);
       return row?.state === 'draft' ? [] : [{ pointer: `/versionIds/${index}`, detail: staleReason(id, row?.state) }];
     });
-    const perSeries = new Map<number, number[]>();
-    for (const row of locked) perSeries.set(row.seriesId, [...(perSeries.get(row.seriesId) ?? []), row.id]);
-    for (const [seriesId, ids] of perSeries) {
-      if (ids.length > 1) stale.push({ pointer: `/versionIds/${versionIds.indexOf(ids[1]!)}`, detail: `Versions ${ids.join(' and ')} both belong to series ${seriesId}; approve one version per series.` });
-    }
+    // A series has at most one draft (a partial unique index), so the drafts left belong to distinct series.
     if (stale.length > 0) {
       if (options.single) throw new HttpProblem('conflict', stale[0]!.detail);
       throw new HttpProblem('conflict', `${stale.length} of ${versionIds.length} versions cannot be approved; nothing was approved. Preview again and approve the current drafts.`, stale);
