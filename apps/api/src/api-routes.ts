@@ -9,6 +9,8 @@ import { buildOpenApiDocument } from './http/openapi';
 import { defineRoute, type RouteDefinition } from './http/route-table';
 import { outboxRoutes } from './outbox/outbox-routes';
 import { peopleRoutes } from './people/people-routes';
+import { readingsRoutes } from './readings/readings-routes';
+import { seriesRoutes } from './series/series-routes';
 import { tokenRoutes } from './tokens/token-routes';
 
 const version = process.env['npm_package_version'] ?? '0.1.0';
@@ -17,6 +19,7 @@ const version = process.env['npm_package_version'] ?? '0.1.0';
 export function apiRoutes(context: AppContext): RouteDefinition[] {
   const routes = [...healthRoutes(context), ...authRoutes(context), ...peopleRoutes(context), ...tokenRoutes(context), ...auditRoutes(context), ...outboxRoutes(context)];
   routes.push(...forecastRoutes(context));
+  routes.push(...seriesRoutes(context), ...readingsRoutes(context));
   let document: unknown;
   routes.push(
     defineRoute({

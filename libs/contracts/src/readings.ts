@@ -81,7 +81,7 @@ export const readingHistoryQuerySchema = z
 
 /** One stored reading. */
 export const readingPointSchema = z.object({
-  /** The instant as stored (the start or end of the interval, as the series' timestamps mark). */
+  /** Start of the interval (the store keeps interval starts, whatever the series' timestamps mark). */
   ts: z.iso.datetime(),
   /** Raw reading as received, in the series' unit; null when the interval is missing and only an estimate exists. */
   value: z.number().nullable(),
@@ -158,8 +158,12 @@ export const pushReadingsRequestSchema = z.object({
 export const importFindingSchema = z.object({
   /** The validation rule, e.g. spike, gap, duplicate_conflict, off_grid, future. */
   rule: z.string(),
+  /** Interval start of the reading concerned, when there is one. */
   ts: z.iso.datetime().nullable(),
   value: z.number().nullable(),
+  /** 1-based position of the reading in the pushed `readings` array (null for Green Button files and gaps). */
+  position: z.number().int().nullable(),
+  /** Rule-specific facts: the limit crossed, the estimate's method, the length of a gap. */
   detail: z.record(z.string(), z.unknown()),
 });
 
@@ -176,14 +180,13 @@ export const importResultSchema = z.object({
   unchanged: z.number().int(),
   /** Readings that corrected a stored value (the old one is kept as a revision). */
   revised: z.number().int(),
+  /** Readings not stored: repeated instants, instants off the interval grid, readings in the future. */
+  rejected: z.number().int(),
   /** Findings by rule. */
   findingCounts: z.record(z.string(), z.number().int()),
-  /** The first findings (at most `maxReturnedFindings`), for a quick look. */
+  /** The first few findings of each rule, for a quick look (the counts cover all). */
   findings: z.array(importFindingSchema),
 });
-
-/** Most findings an import answer lists one by one (the counts cover all). */
-export const maxReturnedFindings = 200;
 
 /** Local time parameters of a Green Button feed, as recorded with the import. */
 export const greenButtonLocalTimeSchema = z.object({

@@ -1,0 +1,83 @@
+/** The routes under /api/series: the catalogue table, one series, and the steward's edits. */
+import {
+  createSeriesRequestSchema,
+  seriesDetailSchema,
+  seriesListQuerySchema,
+  seriesPageSchema,
+  updateSeriesRequestSchema,
+} from '@loadwright/contracts';
+import { z } from 'zod';
+import type { AppContext } from '../app-context';
+import { clientAddress } from '../auth/client-address';
+import { defineRoute, type RouteDefinition } from '../http/route-table';
+import { archiveSeries, createSeries, getSeriesDetail, listSeries, restoreSeries, updateSeries } from './series-service';
+
+const idParams = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) });
+
+/** Catalogue routes. */
+export function seriesRoutes({ db }: AppContext): RouteDefinition[] {
+  return [
+    defineRoute({
+      method: 'get',
+      path: '/series',
+      access: 'data.read',
+      tag: 'Series',
+      summary: 'The series catalogue: filter by kind, level, parent (with descendants), text and archived; sort and page',
+      query: seriesListQuerySchema,
+      response: seriesPageSchema,
+      handler: ({ query }) => listSeries(db, query),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/series/:id',
+      access: 'data.read',
+      tag: 'Series',
+      summary: 'One series with its parent chain, children, linked station and reading counts by quality flag',
+      params: idParams,
+      response: seriesDetailSchema,
+      handler: ({ params }) => getSeriesDetail(db, params.id),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/series',
+      access: 'series.edit',
+      tag: 'Series',
+      summary: 'Add a series to the catalogue',
+      body: createSeriesRequestSchema,
+      response: seriesDetailSchema,
+      status: 201,
+      handler: ({ body, actor, req }) => createSeries(db, body, { actor, ip: clientAddress(req) }),
+    }),
+    defineRoute({
+      method: 'patch',
+      path: '/series/:id',
+      access: 'series.edit',
+      tag: 'Series',
+      summary: 'Change a series; unit and interval are fixed once readings are stored',
+      params: idParams,
+      body: updateSeriesRequestSchema,
+      response: seriesDetailSchema,
+      handler: ({ params, body, actor, req }) => updateSeries(db, params.id, body, { actor, ip: clientAddress(req) }),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/series/:id/archive',
+      access: 'series.edit',
+      tag: 'Series',
+      summary: 'Archive a series: hidden from the catalogue by default and never refit',
+      params: idParams,
+      response: seriesDetailSchema,
+      handler: ({ params, actor, req }) => archiveSeries(db, params.id, { actor, ip: clientAddress(req) }),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/series/:id/restore',
+      access: 'series.edit',
+      tag: 'Series',
+      summary: 'Bring an archived series back',
+      params: idParams,
+      response: seriesDetailSchema,
+      handler: ({ params, actor, req }) => restoreSeries(db, params.id, { actor, ip: clientAddress(req) }),
+    }),
+  ];
+}
