@@ -13,6 +13,7 @@ import { users } from './schema/people';
 import { refitRunSeries, refitRuns } from './schema/refits';
 import { series } from './schema/series';
 import { sessions } from './schema/sign-in';
+import { temperatureForecasts } from './schema/temperature-forecasts';
 import { uploadFindings, uploads } from './schema/uploads';
 
 /** A person's sessions and the tokens they created. */
@@ -135,4 +136,10 @@ export const missEventsRelations = relations(missEvents, ({ one, many }) => ({
 export const missCommentsRelations = relations(missComments, ({ one }) => ({
   event: one(missEvents, { fields: [missComments.eventId], references: [missEvents.id] }),
   author: one(users, { fields: [missComments.authorId], references: [users.id] }),
+}));
+
+/** The station and upload of a temperature forecast value. */
+export const temperatureForecastsRelations = relations(temperatureForecasts, ({ one }) => ({
+  series: one(series, { fields: [temperatureForecasts.seriesId], references: [series.id] }),
+  upload: one(uploads, { fields: [temperatureForecasts.uploadId], references: [uploads.id] }),
 }));

@@ -37,7 +37,9 @@ import type {
   seriesLevel,
   seriesUnit,
   sessions,
+  temperatureForecasts,
   timestampsMark,
+  uploadContent,
   uploadFindings,
   uploadSource,
   uploadStatus,
@@ -99,6 +101,10 @@ export type NewObservationRevision = typeof observationRevisions.$inferInsert;
 export type Holiday = typeof holidays.$inferSelect;
 /** A row of `holidays` as inserted (defaults optional). */
 export type NewHoliday = typeof holidays.$inferInsert;
+/** A row of `temperatureForecasts` as read. */
+export type TemperatureForecast = typeof temperatureForecasts.$inferSelect;
+/** A row of `temperatureForecasts` as inserted (defaults optional). */
+export type NewTemperatureForecast = typeof temperatureForecasts.$inferInsert;
 /** A row of `modelSpecs` as read. */
 export type ModelSpec = typeof modelSpecs.$inferSelect;
 /** A row of `modelSpecs` as inserted (defaults optional). */
@@ -158,6 +164,8 @@ export type SeriesUnit = (typeof seriesUnit.enumValues)[number];
 export type TimestampsMark = (typeof timestampsMark.enumValues)[number];
 /** One value of the `uploadSource` enum. */
 export type UploadSource = (typeof uploadSource.enumValues)[number];
+/** One value of the `uploadContent` enum. */
+export type UploadContent = (typeof uploadContent.enumValues)[number];
 /** One value of the `uploadStatus` enum. */
 export type UploadStatus = (typeof uploadStatus.enumValues)[number];
 /** One value of the `validationRule` enum. */

@@ -8,6 +8,7 @@ export * from './series';
 export * from './uploads';
 export * from './observations';
 export * from './holidays';
+export * from './temperature-forecasts';
 export * from './models';
 export * from './refits';
 export * from './forecasts';

@@ -19,6 +19,9 @@ import { createdAt, instant, updatedAt } from './timestamps';
 /** How the data arrived. */
 export const uploadSource = pgEnum('upload_source', ['csv', 'api', 'green_button']);
 
+/** What the readings in an upload are: measured actuals, or a temperature forecast for a station. */
+export const uploadContent = pgEnum('upload_content', ['actuals', 'temperature_forecast']);
+
 /**
  * Where an upload stands: received (stored, previewed), queued (mapping confirmed), importing (job
  * running), done (all rows landed), failed (nothing landed; the error says why).
@@ -40,6 +43,7 @@ export const uploads = pgTable(
   {
     id: integer('id').primaryKey().generatedAlwaysAsIdentity(),
     source: uploadSource('source').notNull().default('csv'),
+    content: uploadContent('content').notNull().default('actuals'),
     fileName: text('file_name').notNull(),
     contentSha256: text('content_sha256').notNull(),
     byteSize: bigint('byte_size', { mode: 'number' }).notNull(),
@@ -105,6 +109,10 @@ export const uploadFindings = pgTable(
     /** 1-based line in the source file, when the finding comes from a file. */
     sourceRow: integer('source_row'),
     detail: jsonb('detail').$type<Record<string, unknown>>().notNull().default({}),
+    /** When a steward marked the finding as dealt with, and how. */
+    resolvedAt: instant('resolved_at'),
+    resolvedById: integer('resolved_by_id').references(() => users.id, { onDelete: 'set null' }),
+    resolution: text('resolution'),
   },
   (t) => [
     index('upload_findings_upload_rule_idx').on(t.uploadId, t.rule),
