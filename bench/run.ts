@@ -3,8 +3,11 @@
  * `bench` (see bench/support/harness.ts), one after another, prints its table, notes and checks, and
  * writes bench/results/<name>.json. A filter keeps the modules whose "<area>/<name>" contains it
  * (e.g. `npm run bench -- engine` or `npm run bench -- nls-vs-r`). Exits 1 when a check fails.
+ *
+ * Only files whose source declares `export const bench` are imported: a stand-alone script in a
+ * bench folder (run with its own arguments) has side effects on import and is listed as skipped.
  */
-import { readdirSync, statSync } from 'node:fs';
+import { readFileSync, readdirSync, statSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
 import { formatTable, writeResult, type Benchmark } from './support/harness';
 
@@ -34,6 +37,10 @@ async function main(): Promise<void> {
   }
   let failed = 0;
   for (const path of modules) {
+    if (!/export\s+const\s+bench\b/.test(readFileSync(new URL(path, root), 'utf8'))) {
+      console.log(`\n=== ${path}: skipped (a stand-alone script: it does not export \`bench\`)`);
+      continue;
+    }
     const loaded = (await import(pathToFileURL(new URL(path, root).pathname).href)) as { bench?: Benchmark };
     if (!loaded.bench) continue;
     const { bench } = loaded;
