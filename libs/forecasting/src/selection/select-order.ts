@@ -11,12 +11,12 @@
  * has elapsed no new candidate is started and the rest are listed as skipped.
  *
  * Conventions:
- * - Criteria come from each estimator's conditional likelihood, −((m)/2)(log(2πσ²) + 1) over its
+ * - Criteria come from each estimator's conditional likelihood, −(m/2)(log(2πσ²) + 1) over its
  *   m residuals. A conditional likelihood built on fewer residuals for larger p is not comparable
  *   across p, so by default ('cmle' and 'nls', `commonSample: true`) every candidate is fitted to the
  *   series with its first maxP − p values dropped: each then conditions on the same first maxP
- *   observations and sums over the same n − maxP residuals (common practice; e.g. Brockwell & Davis
- *   2016 §5.5 compare models on one likelihood). `best` is then refitted on the whole series, so it is
+ *   observations and sums over the same n − maxP residuals (common practice: likelihoods compared
+ *   across orders must cover the same observations). `best` is then refitted on the whole series, so it is
  *   exactly what the estimator gives for that order; its criteria are those of the refit.
  * - 'yule-walker' always uses the whole series: the method conditions on nothing, so the table's
  *   criteria use the Gaussian likelihood over all n observations with the plain Levinson-Durbin σ²_p,
@@ -27,7 +27,7 @@
  *   n − p residuals, −((n − p)/2)(log(2πσ²_p) + 1); ranking by those shifts AIC by about
  *   −(log(2πσ²_p) + 1) per extra lag and so picks far larger orders whenever σ² > 1/(2πe):
  *   AR(19) (the top of the grid) instead of R's AR(2) on LakeHuron, AR(18) instead of AR(13) on
- *   USAccDeaths (both agree on AR(3) for lh, where σ² ≈ 0.19).
+ *   USAccDeaths; on lh (σ² ≈ 0.19) both pick AR(3).
  * - Failed candidates carry `error` (the estimator's message) instead of throwing; an NLS fit that did
  *   not converge is kept in the table with its numbers and `error`, but never chosen.
  *
