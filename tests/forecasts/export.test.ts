@@ -2,7 +2,7 @@
  * Handing approved forecasts on: CSV in UTC and in America/Chicago across the fall-back night, with
  * explicit interval columns, adjusted means and neutralised formulas; JSON for a group; who may export.
  */
-import { forecastExportSchema } from '@loadwright/contracts';
+import { forecastExportPath, forecastExportSchema } from '@loadwright/contracts';
 import { series } from '@loadwright/db';
 import { parse } from 'csv-parse/sync';
 import { eq } from 'drizzle-orm';
@@ -94,7 +94,9 @@ describe('GET /api/exports/forecasts.csv', () => {
   });
 
   it('exports a group (parent and descendants) with only the chosen levels, negative means as numbers', async () => {
-    const response = await byToken(`/api/exports/forecasts.csv?parent=${t.seriesId('zone-central')}&levels=95`);
+    const path = forecastExportPath({ format: 'csv', parentId: t.seriesId('zone-central'), levels: [95] });
+    expect(path).toBe(`/api/exports/forecasts.csv?parent=${t.seriesId('zone-central')}&levels=95`);
+    const response = await byToken(path);
     expect(response.status).toBe(200);
     expect(response.text.split('\r\n')[0]).toMatch(/,adjusted,lower_95,upper_95$/);
     const rows = csvRows(response.text);
@@ -127,7 +129,7 @@ describe('GET /api/exports/forecasts.csv', () => {
 
 describe('GET /api/exports/forecasts (JSON)', () => {
   it('hands a group on in the chosen zone, listing series without an approved forecast', async () => {
-    const response = await byToken(`/api/exports/forecasts?parent=${t.seriesId('zone-central')}&tz=America/Chicago`);
+    const response = await byToken(forecastExportPath({ format: 'json', parentId: t.seriesId('zone-central'), timeZone: 'America/Chicago' }));
     expect(response.status).toBe(200);
     expect(response.headers['content-type']).toBe('application/json; charset=utf-8');
     const body = forecastExportSchema.parse(JSON.parse(response.text));

@@ -91,6 +91,11 @@ export const forecastPointSchema = forecastBandSchema.extend({
   adjusted: forecastBandSchema.nullable(),
 });
 
+/** The number that counts at a point: the adjusted mean where a planner adjusted it, else the model's. */
+export function effectiveMean(point: Pick<ForecastPoint, 'mean' | 'adjusted'>): number {
+  return point.adjusted?.mean ?? point.mean;
+}
+
 /** A planner's adjustment of a period of a draft, kept beside the model's numbers. */
 export const forecastAdjustmentSchema = z.object({
   id: z.number().int(),
@@ -350,6 +355,30 @@ export const forecastExportQuerySchema = z
       .transform((levels) => [...new Set(levels)].sort((a, b) => a - b) as ForecastIntervalLevel[]),
   })
   .refine((value) => value.series === undefined || value.parent === undefined, { message: 'Send series or parent, not both', path: ['parent'] });
+
+/** What an export link asks for; see forecastExportQuerySchema. */
+export interface ForecastExportLink {
+  format: 'csv' | 'json';
+  /** Series ids; leave out (with parentId) for the whole system. */
+  seriesIds?: readonly number[];
+  /** A hierarchy node: it and all its descendants. */
+  parentId?: number;
+  /** UTC (default) or an IANA time zone. */
+  timeZone?: string;
+  /** Bounds to include (default 80 and 95). */
+  levels?: readonly ForecastIntervalLevel[];
+}
+
+/** The API path of an export, e.g. `/api/exports/forecasts.csv?parent=3&tz=America%2FChicago`, for download links. */
+export function forecastExportPath(link: ForecastExportLink): string {
+  const query = new URLSearchParams();
+  if (link.seriesIds?.length) query.set('series', link.seriesIds.join(','));
+  if (link.parentId !== undefined) query.set('parent', String(link.parentId));
+  if (link.timeZone && link.timeZone !== 'UTC') query.set('tz', link.timeZone);
+  if (link.levels) query.set('levels', link.levels.join(','));
+  const search = query.toString();
+  return `/api/exports/forecasts${link.format === 'csv' ? '.csv' : ''}${search ? `?${search}` : ''}`;
+}
 
 /** How every export states its time convention. */
 export const exportIntervalConvention =
