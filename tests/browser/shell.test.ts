@@ -1,20 +1,23 @@
 /**
- * The web shell in a real browser against a real API: navigation, live health on the Overview,
- * accessibility, bundled fonts and icons, and no request leaving the machine.
+ * The web shell in a real browser against a real API: sign-in first, navigation, live health on the
+ * Overview, accessibility, bundled fonts and icons, and no request leaving the machine.
  */
 import { mkdir } from 'node:fs/promises';
 import { resolve } from 'node:path';
 import { healthReportSchema } from '@loadwright/contracts';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createPeople, testPassword } from '../support/people';
 import { type TestServer, startTestServer } from '../support/server';
 import { blockingViolations, findAccessibilityViolations } from './support/accessibility';
 import { type TestBrowser, launchBrowser } from './support/browser';
 import { readFonts } from './support/fonts';
 import { watchRequests } from './support/network-guard';
+import { signInThroughPage } from './support/sign-in';
 
 const artifacts = resolve(import.meta.dirname, '../.artifacts');
-const sections = ['Overview', 'Series', 'Uploads', 'Refits', 'Misses', 'People and settings', 'Outbox'];
+/** What a planner's navigation lists: the work sections, no admin ones. */
+const plannerSections = ['Overview', 'Series', 'Uploads', 'Refits', 'Misses'];
 
 let browser: TestBrowser;
 
@@ -31,9 +34,12 @@ describe('web shell with the database and the worker running', () => {
   let server: TestServer;
   let page: Page;
   let requests: ReturnType<typeof watchRequests>;
+  let planner: { email: string };
 
   beforeAll(async () => {
     server = await startTestServer();
+    ({ planner } = await createPeople(server.db));
+    await browser.context.clearCookies();
     page = await browser.context.newPage();
     requests = watchRequests(page);
   });
@@ -43,14 +49,27 @@ describe('web shell with the database and the worker running', () => {
     await server?.close();
   });
 
-  it('opens on the Overview with the section navigation and the cautions', async () => {
+  it('sends someone not signed in to the sign-in page, with service health and the cautions', async () => {
     await page.goto(server.url, { waitUntil: 'networkidle' });
-    expect(new URL(page.url()).pathname).toBe('/overview');
+    const url = new URL(page.url());
+    expect(url.pathname).toBe('/sign-in');
+    expect(url.searchParams.get('returnUrl')).toBe('/overview');
+    expect(await page.title()).toBe('Sign in · Loadwright');
+    expect(await page.getByRole('navigation', { name: 'Sections' }).count()).toBe(0);
+    await page.getByText('Service: All services working').waitFor({ timeout: 15_000 });
+    expect(await page.getByRole('contentinfo').textContent()).toContain('Forecasts are decision support.');
+  });
+
+  it('opens on the Overview after signing in, with the navigation of the role and the cautions', async () => {
+    await signInThroughPage(page, server.url, planner.email, testPassword);
     expect(await page.title()).toBe('Overview · Loadwright');
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toContain('Overview');
     const navigation = page.getByRole('navigation', { name: 'Sections' });
-    for (const label of sections) expect(await navigation.getByRole('link', { name: label, exact: true }).isVisible()).toBe(true);
+    for (const label of plannerSections) expect(await navigation.getByRole('link', { name: label, exact: true }).isVisible()).toBe(true);
+    expect(await navigation.getByRole('link').count()).toBe(plannerSections.length);
     expect(await navigation.getByRole('link', { name: 'Overview' }).getAttribute('aria-current')).toBe('page');
+    expect(await page.getByRole('link', { name: /^Your account:\s*Test planner\s*,\s*planner$/ }).isVisible()).toBe(true);
+    expect(await page.getByRole('button', { name: 'Sign out' }).isVisible()).toBe(true);
     expect(await page.getByRole('contentinfo').textContent()).toContain('Forecasts are decision support.');
   });
 
@@ -129,9 +148,13 @@ describe('web shell with no job queue installed', () => {
   let server: TestServer;
   let page: Page;
 
+  let viewer: { email: string };
+
   beforeAll(async () => {
     // No worker has started, so pg-boss never installed its schema: the API answers 503 "degraded".
     server = await startTestServer({ worker: false });
+    ({ viewer } = await createPeople(server.db));
+    await browser.context.clearCookies();
     page = await browser.context.newPage();
   });
 
@@ -145,7 +168,7 @@ describe('web shell with no job queue installed', () => {
     expect(answer.status).toBe(503);
     const requests = watchRequests(page);
     await page.setViewportSize({ width: 1440, height: 900 });
-    await page.goto(`${server.url}/overview`, { waitUntil: 'networkidle' });
+    await signInThroughPage(page, server.url, viewer.email, testPassword);
     const status = page.getByRole('status');
     await status.getByText('Service degraded').waitFor({ timeout: 15_000 });
     expect(await status.textContent()).toContain('The job queue is not working.');

@@ -1,26 +1,68 @@
-import { Routes } from '@angular/router';
-import { PRODUCT_SECTIONS } from './core/product-sections';
+import type { Type } from '@angular/core';
+import { Route, Routes } from '@angular/router';
+import { holds, signedIn, signedOut } from './core/auth/auth-guards';
+import { PRODUCT_SECTIONS, type ProductSection } from './core/product-sections';
 
-/** Sections not built yet share one honest page that says what each will do. */
-const upcomingRoutes: Routes = PRODUCT_SECTIONS.filter((section) => !section.available).map((section) => ({
-  path: section.path,
-  title: section.label,
-  data: { section },
-  loadComponent: () => import('./shared/upcoming-section/upcoming-section').then((m) => m.UpcomingSection),
-}));
+/** Lazy loaders of the sections that have shipped, by path. */
+const sectionPages: Readonly<Record<string, () => Promise<Type<unknown>>>> = {
+  overview: () => import('./overview/overview').then((m) => m.Overview),
+  people: () => import('./people/people').then((m) => m.People),
+  'api-tokens': () => import('./api-tokens/api-tokens').then((m) => m.ApiTokens),
+  'audit-log': () => import('./audit-log/audit-log').then((m) => m.AuditLog),
+  outbox: () => import('./outbox/outbox').then((m) => m.Outbox),
+};
 
-/** Every feature loads lazily, so the first screen downloads only the shell. */
+/** Extra paths under a section (e.g. one Outbox message), served by the section's own page. */
+const sectionSubpaths: Readonly<Record<string, readonly string[]>> = { outbox: [':id'] };
+
+/**
+ * The routes of one section: its page for people holding the section's permission, then, at the same
+ * path, a page saying the role may not open it. Sections not built yet share one honest placeholder.
+ */
+function sectionRoutes(section: ProductSection): Routes {
+  const page = section.available ? sectionPages[section.path] : undefined;
+  const loadComponent = page ?? (() => import('./shared/upcoming-section/upcoming-section').then((m) => m.UpcomingSection));
+  const paths = [section.path, ...(sectionSubpaths[section.path] ?? []).map((sub) => `${section.path}/${sub}`)];
+  return paths.flatMap((path): Route[] => [
+    { path, title: section.label, data: { section }, canMatch: [holds(section.permission)], loadComponent },
+    { path, title: 'Not allowed', data: { section }, loadComponent: () => import('./shared/refused/refused').then((m) => m.Refused) },
+  ]);
+}
+
+/** Every page loads lazily, so the first screen downloads only the shell. */
 export const routes: Routes = [
   { path: '', pathMatch: 'full', redirectTo: 'overview' },
   {
-    path: 'overview',
-    title: 'Overview',
-    loadComponent: () => import('./overview/overview').then((m) => m.Overview),
+    path: 'sign-in',
+    title: 'Sign in',
+    canActivate: [signedOut],
+    loadComponent: () => import('./sign-in/sign-in').then((m) => m.SignIn),
   },
-  ...upcomingRoutes,
   {
-    path: '**',
-    title: 'Page not found',
-    loadComponent: () => import('./shared/not-found/not-found').then((m) => m.NotFound),
+    path: 'forgot-password',
+    title: 'Reset your password',
+    loadComponent: () => import('./sign-in/forgot-password').then((m) => m.ForgotPassword),
+  },
+  {
+    path: 'set-password',
+    title: 'Choose a password',
+    loadComponent: () => import('./set-password/set-password').then((m) => m.SetPassword),
+  },
+  {
+    path: '',
+    canActivateChild: [signedIn],
+    children: [
+      ...PRODUCT_SECTIONS.flatMap(sectionRoutes),
+      {
+        path: 'account',
+        title: 'Your account',
+        loadComponent: () => import('./account/account').then((m) => m.Account),
+      },
+      {
+        path: '**',
+        title: 'Page not found',
+        loadComponent: () => import('./shared/not-found/not-found').then((m) => m.NotFound),
+      },
+    ],
   },
 ];

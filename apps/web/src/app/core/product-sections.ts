@@ -1,3 +1,8 @@
+import type { Permission } from '@loadwright/contracts';
+
+/** Where a section sits in the navigation. */
+export type SectionGroup = 'work' | 'people-and-settings' | 'development';
+
 /** One section of the product as the navigation lists it. */
 export interface ProductSection {
   /** Route path, without a leading slash. */
@@ -10,7 +15,17 @@ export interface ProductSection {
   readonly purpose: string;
   /** False until the section ships; its route then shows the "later release" page. */
   readonly available: boolean;
+  /** The permission a person needs to see the section; the API checks the same one on every call. */
+  readonly permission: Permission;
+  /** The navigation group it belongs to. */
+  readonly group: SectionGroup;
 }
+
+/** Heading of each navigation group that has one. */
+export const SECTION_GROUP_LABELS: Readonly<Record<Exclude<SectionGroup, 'work'>, string>> = {
+  'people-and-settings': 'People and settings',
+  development: 'Development',
+};
 
 /** The product's sections in navigation order, as the product brief lists its screens. */
 export const PRODUCT_SECTIONS: readonly ProductSection[] = [
@@ -20,6 +35,8 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     icon: 'space_dashboard',
     purpose: 'Live refit status, open misses, accuracy against the naive benchmark and the next-week system peak.',
     available: true,
+    permission: 'data.read',
+    group: 'work',
   },
   {
     path: 'series',
@@ -28,6 +45,8 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     purpose:
       'The series catalogue with a hierarchy filter; for each series its history and forecast with 80 % and 95 % bands, model card, diagnostics, accuracy by horizon, versions and adjustments.',
     available: false,
+    permission: 'data.read',
+    group: 'work',
   },
   {
     path: 'uploads',
@@ -35,6 +54,8 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     icon: 'upload_file',
     purpose: 'Drop a load or temperature file, map its columns, preview it, follow its progress and read its validation report.',
     available: false,
+    permission: 'data.read',
+    group: 'work',
   },
   {
     path: 'refits',
@@ -42,6 +63,8 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     icon: 'model_training',
     purpose: 'Refit runs with per-series status, errors and durations, and a way to refit now.',
     available: false,
+    permission: 'data.read',
+    group: 'work',
   },
   {
     path: 'misses',
@@ -49,19 +72,52 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     icon: 'crisis_alert',
     purpose: 'Miss events and the rules that raise them, to acknowledge, comment on and resolve.',
     available: false,
+    permission: 'data.read',
+    group: 'work',
+  },
+  {
+    path: 'people',
+    label: 'People',
+    icon: 'group',
+    purpose: 'Invite people by e-mail, change their roles, deactivate and reactivate them.',
+    available: true,
+    permission: 'admin.people',
+    group: 'people-and-settings',
+  },
+  {
+    path: 'api-tokens',
+    label: 'API tokens',
+    icon: 'key',
+    purpose: 'Tokens for downstream systems that pull approved forecasts: create, see last use, revoke.',
+    available: true,
+    permission: 'admin.tokens',
+    group: 'people-and-settings',
+  },
+  {
+    path: 'audit-log',
+    label: 'Audit log',
+    icon: 'policy',
+    purpose: 'Who did what, when and from where: sign-ins, role and token changes, uploads, model settings, approvals.',
+    available: true,
+    permission: 'admin.audit',
+    group: 'people-and-settings',
   },
   {
     path: 'settings',
-    label: 'People and settings',
-    icon: 'manage_accounts',
-    purpose: 'People and roles, refit schedule and time zone, alert rule defaults, mail settings, API tokens and the audit log.',
+    label: 'Settings',
+    icon: 'tune',
+    purpose: 'Refit schedule and time zone, alert rule defaults and mail settings.',
     available: false,
+    permission: 'admin.settings',
+    group: 'people-and-settings',
   },
   {
     path: 'outbox',
     label: 'Outbox',
     icon: 'outbox',
     purpose: 'The local mail catcher for development: every e-mail Loadwright has sent, as its recipient would read it.',
-    available: false,
+    available: true,
+    permission: 'admin.outbox',
+    group: 'development',
   },
 ];

@@ -1,7 +1,8 @@
-import { HttpClient, HttpErrorResponse } from '@angular/common/http';
+import { HttpClient, HttpContext, HttpErrorResponse } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { type HealthReport, healthReportSchema } from '@loadwright/contracts';
 import { Observable, catchError, map, of, throwError } from 'rxjs';
+import { KEEP_HTTP_ERRORS } from '../problems/problem-interceptor';
 import { HealthCheckFailed } from './health-check-failed';
 
 /** Reads the API's health report, validated against the shared contract. */
@@ -14,7 +15,7 @@ export class HealthClient {
    * report in the body) or fails with {@link HealthCheckFailed} carrying a message for the planner.
    */
   read(): Observable<HealthReport> {
-    return this.http.get<unknown>('/api/health').pipe(
+    return this.http.get<unknown>('/api/health', { context: new HttpContext().set(KEEP_HTTP_ERRORS, true) }).pipe(
       catchError((error: unknown) => {
         // A degraded service answers 503 with a full report: that is news, not a failure.
         if (error instanceof HttpErrorResponse && error.status === 503 && healthReportSchema.safeParse(error.error).success) {

@@ -1,0 +1,307 @@
+/**
+ * Sign-in, roles and the admin pages in a real browser against a real API with the demo seeded: each
+ * demo role sees only what it may do, a refused address says so, an invite travels through the Outbox
+ * to the set-password page and a first sign-in, API tokens show their secret once, the audit log reads.
+ */
+import { mkdir } from 'node:fs/promises';
+import { resolve } from 'node:path';
+import type { Role } from '@loadwright/contracts';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { recordAudit } from '../../apps/api/src/audit/audit-log';
+import { demoScenario } from '../../fixtures/demo/scenario';
+import { seedDemo } from '../../libs/db/src/seed/seed-demo';
+import { type TestServer, startTestServer } from '../support/server';
+import { blockingViolations, findAccessibilityViolations } from './support/accessibility';
+import { type TestBrowser, launchBrowser } from './support/browser';
+import { watchRequests } from './support/network-guard';
+import { signInThroughPage } from './support/sign-in';
+
+const artifacts = resolve(import.meta.dirname, '../.artifacts');
+const password = demoScenario.demoPassword;
+const account = (role: Role) => demoScenario.accounts.find((candidate) => candidate.role === role)!;
+const adminLinks = ['People', 'API tokens', 'Audit log', 'Outbox'];
+/** Entries per audit log page, as apps/web/src/app/audit-log/audit-client.ts asks for them. */
+const AUDIT_PAGE_SIZE = 50;
+const newcomer = { email: 'hollis.marsh@tallowmere.example', name: 'Hollis Marsh', password: 'silo-lantern-harrow-brook' };
+
+let browser: TestBrowser;
+let server: TestServer;
+let page: Page;
+let requests: ReturnType<typeof watchRequests>;
+
+beforeAll(async () => {
+  await mkdir(artifacts, { recursive: true });
+  server = await startTestServer();
+  await seedDemo(server.databaseUrl);
+  browser = await launchBrowser();
+  page = await browser.context.newPage();
+  requests = watchRequests(page);
+}, 120_000);
+
+afterAll(async () => {
+  await page?.close();
+  await browser?.close();
+  await server?.close();
+});
+
+/** Forgets every cookie, so the next page load is a signed-out browser. */
+async function signOutBrowser(): Promise<void> {
+  await browser.context.clearCookies();
+}
+
+/** The top bar's link to the account page, named after the person and their role. */
+const accountLink = (name: string, role: Role) => page.getByRole('link', { name: new RegExp(`^Your account:\\s*${name}\\s*,\\s*${role}$`) });
+
+/** The main navigation. */
+const navigation = () => page.getByRole('navigation', { name: 'Sections' });
+
+describe('sign-in page', () => {
+  it('shows the API\'s message for a wrong password and keeps the person on the page', async () => {
+    await signOutBrowser();
+    await page.goto(`${server.url}/overview`, { waitUntil: 'networkidle' });
+    await page.getByLabel('E-mail address').fill(account('planner').email);
+    await page.getByLabel('Password', { exact: true }).fill('not-the-password-at-all');
+    await page.getByRole('button', { name: 'Sign in', exact: true }).click();
+    const alert = page.getByRole('alert');
+    await alert.waitFor();
+    expect(await alert.textContent()).toContain('The e-mail address or password is not right.');
+    expect(new URL(page.url()).pathname).toBe('/sign-in');
+  });
+
+  it('checks the form before asking the API', async () => {
+    await page.getByLabel('E-mail address').fill('not-an-address');
+    await page.getByRole('button', { name: 'Sign in', exact: true }).click();
+    await page.getByText('Enter a valid e-mail address').waitFor();
+  });
+
+  it('passes axe-core and looks right on a wide screen and a phone', async () => {
+    await page.reload({ waitUntil: 'networkidle' });
+    await page.getByText('Service: All services working').waitFor({ timeout: 15_000 });
+    expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
+    await page.screenshot({ path: resolve(artifacts, 'sign-in-wide.png') });
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.reload({ waitUntil: 'networkidle' });
+    await page.getByText('Service: All services working').waitFor({ timeout: 15_000 });
+    expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
+    await page.screenshot({ path: resolve(artifacts, 'sign-in-phone.png'), fullPage: true });
+    await page.setViewportSize({ width: 1440, height: 900 });
+  });
+});
+
+describe('each demo role sees only what it may do', () => {
+  for (const role of ['admin', 'steward', 'planner', 'viewer'] as const) {
+    it(`${role}: navigation and top bar`, async () => {
+      await signOutBrowser();
+      await signInThroughPage(page, server.url, account(role).email, password);
+      await page.getByRole('heading', { level: 1, name: 'Overview' }).waitFor();
+      expect(await accountLink(account(role).displayName, role).isVisible()).toBe(true);
+      const adminGroup = navigation().getByRole('heading', { name: 'People and settings' });
+      expect(await adminGroup.count()).toBe(role === 'admin' ? 1 : 0);
+      for (const name of adminLinks) expect(await navigation().getByRole('link', { name, exact: true }).count()).toBe(role === 'admin' ? 1 : 0);
+      expect(await navigation().getByRole('link', { name: 'Overview', exact: true }).count()).toBe(1);
+    });
+  }
+
+  it('a viewer who types the People address is told it is not for their role', async () => {
+    await signOutBrowser();
+    await signInThroughPage(page, server.url, account('viewer').email, password);
+    await page.goto(`${server.url}/people`, { waitUntil: 'networkidle' });
+    await page.getByRole('heading', { level: 1, name: 'Not allowed for your role' }).waitFor();
+    expect(await page.getByRole('alert').textContent()).toContain('People is not available to your role (viewer)');
+    expect(await page.title()).toBe('Not allowed · Loadwright');
+    expect(requests.all.some((url) => url.endsWith('/api/people'))).toBe(false);
+  });
+
+  it('signing out ends the session: the Overview asks for sign-in again', async () => {
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL((url) => url.pathname === '/sign-in');
+    await page.goto(`${server.url}/overview`, { waitUntil: 'networkidle' });
+    expect(new URL(page.url()).pathname).toBe('/sign-in');
+  });
+});
+
+describe('an admin invites someone, who signs in through the e-mailed link', () => {
+  beforeAll(async () => {
+    await signOutBrowser();
+    await signInThroughPage(page, server.url, account('admin').email, password, '/people');
+  });
+
+  it('lists the people with role, status and last sign-in, and passes axe-core', async () => {
+    const table = page.getByRole('table', { name: 'People and their roles' });
+    await table.waitFor();
+    for (const { displayName } of demoScenario.accounts) expect(await table.getByRole('rowheader', { name: new RegExp(displayName) }).count()).toBe(1);
+    const adminRow = table.getByRole('row', { name: new RegExp(account('admin').displayName) });
+    expect(await adminRow.textContent()).toContain('Active');
+    expect(await adminRow.textContent()).not.toContain('Never');
+    expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
+  });
+
+  it('shows the API\'s field error on the e-mail control when the address already has an account', async () => {
+    await page.getByRole('button', { name: 'Invite someone' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Invite someone' });
+    await dialog.getByLabel('E-mail address').fill(account('planner').email);
+    await dialog.getByLabel('Name').fill('Someone Again');
+    const answer = page.waitForResponse((response) => response.url().endsWith('/api/people') && response.request().method() === 'POST');
+    await dialog.getByRole('button', { name: 'Send invite' }).click();
+    expect((await answer).status()).toBe(409);
+    await dialog.getByText('Already has an account').waitFor();
+    expect(await dialog.getByLabel('E-mail address').getAttribute('aria-invalid')).toBe('true');
+  });
+
+  it('invites a new person, who then shows as invite pending', async () => {
+    const dialog = page.getByRole('dialog', { name: 'Invite someone' });
+    await dialog.getByLabel('E-mail address').fill(newcomer.email);
+    await dialog.getByLabel('Name').fill(newcomer.name);
+    await dialog.getByRole('combobox', { name: 'Role' }).click();
+    await page.getByRole('option', { name: 'planner' }).click();
+    await dialog.getByRole('button', { name: 'Send invite' }).click();
+    await page.getByRole('status').getByText(`Invite sent to ${newcomer.email}.`).waitFor();
+    const row = page.getByRole('row', { name: new RegExp(newcomer.name) });
+    expect(await row.textContent()).toContain('Invite pending');
+    expect(await row.textContent()).toContain('Never');
+    expect(await row.getByRole('button', { name: `Resend invite to ${newcomer.name}` }).isVisible()).toBe(true);
+    await page.screenshot({ path: resolve(artifacts, 'people.png') });
+  });
+
+  it('asks before deactivating, and does nothing on cancel', async () => {
+    await page.getByRole('button', { name: `Deactivate ${account('viewer').displayName}` }).click();
+    const confirm = page.getByRole('dialog', { name: `Deactivate ${account('viewer').displayName}?` });
+    await confirm.getByRole('button', { name: 'Cancel' }).click();
+    await confirm.waitFor({ state: 'detached' });
+    expect(await page.getByRole('row', { name: new RegExp(account('viewer').displayName) }).textContent()).toContain('Active');
+  });
+
+  let inviteLink: URL;
+
+  it('finds the invitation in the Outbox with its plain-text and sandboxed HTML parts', async () => {
+    await navigation().getByRole('link', { name: 'Outbox' }).click();
+    const message = page.getByRole('link', { name: new RegExp(`Your Loadwright invitation.*To ${newcomer.email}`) });
+    await message.waitFor();
+    await message.click();
+    await page.getByRole('heading', { level: 2, name: 'Your Loadwright invitation' }).waitFor();
+    const textPart = page.getByRole('region', { name: 'Plain-text part' });
+    expect(await textPart.textContent()).toContain(`Hello ${newcomer.name},`);
+    const frame = page.locator('iframe.html');
+    expect(await frame.getAttribute('sandbox')).toBe('');
+    expect(await frame.getAttribute('srcdoc')).toContain('Choose a password');
+    const html = page.frameLocator('iframe.html');
+    await html.getByRole('heading', { name: 'Welcome to Loadwright' }).waitFor();
+    inviteLink = new URL((await textPart.getByRole('link').getAttribute('href'))!);
+    expect(inviteLink.pathname).toBe('/set-password');
+    expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
+    await page.screenshot({ path: resolve(artifacts, 'outbox.png') });
+  });
+
+  it('the link opens the set-password page, which checks the rule and sets the password', async () => {
+    await signOutBrowser();
+    // The test server's public address has no port; open the same path and token on this server.
+    await page.goto(`${server.url}${inviteLink.pathname}${inviteLink.search}`, { waitUntil: 'networkidle' });
+    await page.getByRole('heading', { level: 1, name: 'Choose a password' }).waitFor();
+    await page.getByLabel('New password', { exact: true }).fill('too-short');
+    await page.getByLabel('Repeat the new password').fill('too-short');
+    await page.getByRole('button', { name: 'Set password' }).click();
+    await page.getByText('Use at least 12 characters').last().waitFor();
+    await page.getByLabel('New password', { exact: true }).fill(newcomer.password);
+    await page.getByLabel('Repeat the new password').fill(newcomer.password);
+    await page.getByRole('button', { name: 'Set password' }).click();
+    await page.getByRole('status').getByText('Password set. You can sign in now.').waitFor();
+  });
+
+  it('the same link used again shows the server\'s message', async () => {
+    await page.goto(`${server.url}${inviteLink.pathname}${inviteLink.search}`, { waitUntil: 'networkidle' });
+    await page.getByLabel('New password', { exact: true }).fill(newcomer.password);
+    await page.getByLabel('Repeat the new password').fill(newcomer.password);
+    await page.getByRole('button', { name: 'Set password' }).click();
+    await page.getByRole('alert').getByText('This link has expired or was already used.').waitFor();
+  });
+
+  it('the new person signs in as a planner and sees no admin sections', async () => {
+    await signInThroughPage(page, server.url, newcomer.email, newcomer.password);
+    expect(await accountLink(newcomer.name, 'planner').isVisible()).toBe(true);
+    for (const name of adminLinks) expect(await navigation().getByRole('link', { name, exact: true }).count()).toBe(0);
+  });
+
+  it('the account page puts the API\'s refusal of a wrong current password on that field', async () => {
+    await page.getByRole('link', { name: /^Your account:/ }).click();
+    await page.getByRole('heading', { level: 1, name: 'Your account' }).waitFor();
+    await page.getByLabel('Current password').fill('not-my-password');
+    await page.getByLabel('New password', { exact: true }).fill('another-long-passphrase');
+    await page.getByLabel('Repeat the new password').fill('another-long-passphrase');
+    await page.getByRole('button', { name: 'Change password' }).click();
+    await page.getByText('Not your current password').waitFor();
+  });
+});
+
+describe('API tokens and the audit log', () => {
+  beforeAll(async () => {
+    await signOutBrowser();
+    await signInThroughPage(page, server.url, account('admin').email, password, '/api-tokens');
+  });
+
+  it('creates a token and shows its secret once, with a copy button and a warning', async () => {
+    await page.getByRole('button', { name: 'Create token' }).click();
+    const dialog = page.getByRole('dialog');
+    await dialog.getByLabel('Name').fill('Dispatch day-ahead pull');
+    await dialog.getByRole('radio', { name: /^read-write/ }).check();
+    await dialog.getByLabel('Days until it expires').fill('90');
+    await dialog.getByRole('button', { name: 'Create token' }).click();
+    await dialog.getByText('This is the only time the secret is shown.').waitFor();
+    const secret = await dialog.getByLabel(/^Secret/).inputValue();
+    expect(secret.length).toBeGreaterThan(20);
+    expect(await dialog.getByRole('button', { name: 'Copy' }).isVisible()).toBe(true);
+    await page.screenshot({ path: resolve(artifacts, 'api-tokens-secret.png') });
+    // The secret is a real token: the API knows it (403 for lacking a person's session, not 401 for an unknown caller).
+    const answer = await fetch(`${server.url}/api/auth/session`, { headers: { authorization: `Bearer ${secret}` } });
+    expect(answer.status).toBe(403);
+    await dialog.getByRole('button', { name: 'I have stored the secret' }).click();
+    await dialog.waitFor({ state: 'detached' });
+    expect(await page.content()).not.toContain(secret);
+    const row = page.getByRole('row', { name: /Dispatch day-ahead pull/ });
+    expect(await row.textContent()).toContain('read-write');
+    expect(await row.textContent()).toContain('Not yet');
+    expect(await row.textContent()).toContain('Ines Calloway');
+  });
+
+  it('revokes a token after confirmation', async () => {
+    await page.getByRole('button', { name: 'Revoke Dispatch day-ahead pull' }).click();
+    await page.getByRole('dialog', { name: 'Revoke “Dispatch day-ahead pull”?' }).getByRole('button', { name: 'Revoke token' }).click();
+    await page.getByRole('status').getByText('Token “Dispatch day-ahead pull” revoked.').waitFor();
+    expect(await page.getByRole('row', { name: /Dispatch day-ahead pull/ }).textContent()).toContain('Revoked');
+  });
+
+  it('reads the audit log with readable names and filters it by action family', async () => {
+    await navigation().getByRole('link', { name: 'Audit log' }).click();
+    const table = page.getByRole('table', { name: 'Audit entries, newest first' });
+    await table.waitFor();
+    for (const name of ['Revoked an API token', 'Created an API token', 'Invited a person', 'Sign-in failed', 'Signed in']) {
+      expect(await table.getByText(name, { exact: true }).count()).toBeGreaterThan(0);
+    }
+    await page.getByRole('combobox', { name: 'Action' }).click();
+    await page.getByRole('option', { name: 'API tokens' }).click();
+    await page.getByRole('button', { name: 'Apply' }).click();
+    await expect.poll(async () => (await table.locator('tbody tr').count())).toBe(2);
+    expect(await table.textContent()).not.toContain('Signed in');
+    await page.getByRole('button', { name: 'Clear' }).click();
+    await expect.poll(async () => (await table.locator('tbody tr').count())).toBeGreaterThan(2);
+    expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
+    await page.screenshot({ path: resolve(artifacts, 'audit-log.png') });
+  });
+
+  it('pages back through older entries', async () => {
+    // More entries than one page holds: a burst of failed sign-ins from one documentation address.
+    for (let attempt = 0; attempt < AUDIT_PAGE_SIZE + 10; attempt += 1) {
+      await recordAudit(server.db, { actor: { kind: 'anonymous' }, action: 'session.sign_in_failed', detail: { email: 'nobody@tallowmere.example' }, ip: '192.0.2.7' });
+    }
+    await page.reload({ waitUntil: 'networkidle' });
+    const rows = page.getByRole('table', { name: 'Audit entries, newest first' }).locator('tbody tr');
+    await expect.poll(() => rows.count()).toBe(AUDIT_PAGE_SIZE);
+    await page.getByRole('button', { name: 'Older entries' }).click();
+    await expect.poll(() => rows.count()).toBeGreaterThan(AUDIT_PAGE_SIZE);
+    await page.getByText(/entries shown, oldest reached/).waitFor();
+  });
+
+  it('made no request that left 127.0.0.1', () => {
+    expect(requests.offMachine).toEqual([]);
+  });
+});
