@@ -105,9 +105,12 @@ describe('GET /api/exports/forecasts.csv', () => {
     expect(rows.find((row) => row.series_key === 'fdr-c1')).toMatchObject({ mean: '-1.5', unit: 'kW' });
   });
 
-  it('exports the whole system when no series or parent is given', async () => {
+  it('exports the whole system when no series or parent is given, or only some hierarchy levels of it', async () => {
     const rows = csvRows((await byToken('/api/exports/forecasts.csv')).text);
     expect(new Set(rows.map((row) => row.version_id))).toEqual(new Set([String(zoneVersion), String(feederVersion)]));
+    const zones = csvRows((await byToken(forecastExportPath({ format: 'csv', seriesLevels: ['zone', 'system'] }))).text);
+    expect(new Set(zones.map((row) => row.series_key))).toEqual(new Set(['zone-central']));
+    expect((await byToken('/api/exports/forecasts.csv?seriesLevels=district')).status).toBe(400);
   });
 
   it('refuses an unknown time zone or level (400) and unknown series (404)', async () => {

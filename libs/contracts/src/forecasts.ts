@@ -341,7 +341,8 @@ const listParameter = z.preprocess((value) => (Array.isArray(value) ? value.join
 /**
  * GET /api/exports/forecasts.csv and /api/exports/forecasts: approved forecasts of one or more series
  * (`series=12,14`), of a group (`parent=3`: it and every descendant) or, with neither, of every
- * active series. Times in `tz` (UTC by default, or an IANA zone); bounds of `levels` (default 80,95).
+ * active series, optionally only those at some hierarchy levels (`seriesLevels=zone,feeder`). Times
+ * in `tz` (UTC by default, or an IANA zone); bounds of the interval `levels` (default 80,95).
  */
 export const forecastExportQuerySchema = z
   .object({
@@ -353,6 +354,8 @@ export const forecastExportQuerySchema = z
       .transform((parts) => parts.map(Number))
       .pipe(z.array(z.number().refine((level) => (forecastIntervalLevels as readonly number[]).includes(level), 'Levels are 80 and/or 95')))
       .transform((levels) => [...new Set(levels)].sort((a, b) => a - b) as ForecastIntervalLevel[]),
+    /** Keep only series at these hierarchy levels, e.g. `seriesLevels=zone` for every zone. */
+    seriesLevels: listParameter.pipe(z.array(z.enum(['system', 'zone', 'substation', 'feeder'])).min(1)).optional(),
   })
   .refine((value) => value.series === undefined || value.parent === undefined, { message: 'Send series or parent, not both', path: ['parent'] });
 
@@ -367,6 +370,8 @@ export interface ForecastExportLink {
   timeZone?: string;
   /** Bounds to include (default 80 and 95). */
   levels?: readonly ForecastIntervalLevel[];
+  /** Only series at these hierarchy levels. */
+  seriesLevels?: readonly ('system' | 'zone' | 'substation' | 'feeder')[];
 }
 
 /** The API path of an export, e.g. `/api/exports/forecasts.csv?parent=3&tz=America%2FChicago`, for download links. */
@@ -376,6 +381,7 @@ export function forecastExportPath(link: ForecastExportLink): string {
   if (link.parentId !== undefined) query.set('parent', String(link.parentId));
   if (link.timeZone && link.timeZone !== 'UTC') query.set('tz', link.timeZone);
   if (link.levels) query.set('levels', link.levels.join(','));
+  if (link.seriesLevels?.length) query.set('seriesLevels', link.seriesLevels.join(','));
   const search = query.toString();
   return `/api/exports/forecasts${link.format === 'csv' ? '.csv' : ''}${search ? `?${search}` : ''}`;
 }

@@ -45,7 +45,7 @@ async function planExport(db: Database, query: ForecastExportQuery): Promise<Exp
   } else if (query.series !== undefined) {
     scope = { kind: 'series', ids: [...new Set(query.series)] };
   }
-  const inScope = await seriesInScope(db, scope);
+  let inScope = await seriesInScope(db, scope);
   if (scope.kind === 'series') {
     const found = new Set(inScope.map((row) => row.id));
     const missing = scope.ids.filter((id) => !found.has(id));
@@ -53,6 +53,10 @@ async function planExport(db: Database, query: ForecastExportQuery): Promise<Exp
     scopeName = inScope.length === 1 ? inScope[0]!.key : `${inScope.length}-series`;
   }
 
+  if (query.seriesLevels) {
+    const wanted = new Set<string | null>(query.seriesLevels);
+    inScope = inScope.filter((row) => wanted.has(row.level));
+  }
   const bySeries = new Map(inScope.map((row) => [row.id, row]));
   const entries: ExportEntry[] = [];
   const ids = inScope.map((row) => row.id);
