@@ -117,10 +117,12 @@ describe('one series', () => {
     expect(station.body).toMatchObject({ level: null, linkedLoadCount: 5, temperatureSeries: null });
   });
 
-  it('answers 404 for an unknown id', async () => {
+  it('is found by key as well as by id, and answers 404 for neither', async () => {
+    const byKey = await api().get('/api/series/fdr-n2').set('Cookie', viewer.cookie);
+    expect(byKey.body).toMatchObject({ id: ids.get('fdr-n2'), key: 'fdr-n2' });
     const response = await api().get('/api/series/999999').set('Cookie', viewer.cookie);
     expect(response.status).toBe(404);
-    expect(response.body.detail).toBe('No series with id 999999.');
+    expect(response.body.detail).toBe('No series "999999".');
   });
 });
 
@@ -222,6 +224,8 @@ describe('archiving', () => {
     const restored = await asSteward(api().post(`/api/series/${id}/restore`)).send();
     expect(restored.status).toBe(200);
     expect(restored.body.archivedAt).toBeNull();
+    // The most recently changed series comes first when sorted by update time.
+    expect(keysOf((await list({ sort: 'updated', order: 'desc', limit: 1 })).body)).toEqual(['fdr-n5']);
     const actions = await server.db.select({ action: auditLog.action }).from(auditLog).where(eq(auditLog.targetId, String(id)));
     expect(actions.map((a) => a.action)).toEqual(expect.arrayContaining(['series.archived', 'series.restored']));
   });

@@ -139,7 +139,10 @@ export const maxPushReadings = 20_000;
 
 /** One reading pushed by another system. */
 export const pushedReadingSchema = z.object({
-  /** The instant, ISO 8601 with a UTC offset or Z (local times are ambiguous and refused). */
+  /**
+   * The instant as the series' timestamps mark it (start or end of the interval), ISO 8601 with a
+   * UTC offset or Z; local times without an offset are ambiguous and refused.
+   */
   ts: z.iso.datetime({ offset: true, error: 'Give the time as ISO 8601 with an offset, e.g. 2026-01-15T14:00:00-06:00 or 2026-01-15T20:00:00Z' }),
   value: z.number({ error: 'Give the value as a number' }).refine(Number.isFinite, 'Give a finite number'),
 });
@@ -199,7 +202,10 @@ export const greenButtonLocalTimeSchema = z.object({
   dstEndRule: z.string().nullable(),
 });
 
-/** What a Green Button file held, beside the import counts. */
+/**
+ * POST /api/series/:series/green-button answers with this: what the Green Button file held, beside
+ * the import counts. The file is the request body, sent as one of `greenButtonMediaTypes`.
+ */
 export const greenButtonImportResultSchema = importResultSchema.extend({
   /** The reading type: unit of measure code and name, multiplier, interval length and accumulation. */
   readingType: z.object({
@@ -217,6 +223,9 @@ export const greenButtonImportResultSchema = importResultSchema.extend({
 
 /** Largest Green Button file accepted, bytes. */
 export const maxGreenButtonBytes = 20 * 1024 * 1024;
+
+/** Content types a Green Button file may be sent as. */
+export const greenButtonMediaTypes = ['application/xml', 'application/atom+xml', 'text/xml'] as const;
 
 export type ReadingHistoryQuery = z.infer<typeof readingHistoryQuerySchema>;
 export type ReadingPoint = z.infer<typeof readingPointSchema>;

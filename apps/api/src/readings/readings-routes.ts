@@ -6,6 +6,7 @@ import express from 'express';
 import type { Request, Response } from 'express';
 import {
   greenButtonImportResultSchema,
+  greenButtonMediaTypes,
   importResultSchema,
   maxGreenButtonBytes,
   pushReadingsRequestSchema,
@@ -27,11 +28,8 @@ import { pushedIntervalReadings } from './push-readings';
 
 const seriesParams = z.object({ series: z.string().trim().min(1).max(64) });
 
-/** Media types a Green Button file may be sent as. */
-export const greenButtonMediaTypes = ['application/xml', 'application/atom+xml', 'text/xml'];
-
 /** The XML body parser, run only inside the Green Button route after access is checked. */
-const readXmlBody = express.text({ type: greenButtonMediaTypes, limit: maxGreenButtonBytes });
+const readXmlBody = express.text({ type: [...greenButtonMediaTypes], limit: maxGreenButtonBytes });
 
 /** Reads the request body as XML text; 413 above the size limit, 400 when it is not XML. */
 async function xmlBody(req: Request, res: Response): Promise<string> {

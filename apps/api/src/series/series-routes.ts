@@ -9,7 +9,9 @@ import {
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
 import { clientAddress } from '../auth/client-address';
+import { HttpProblem } from '../errors/http-problem';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
+import { findSeriesByRef } from './series-repository';
 import { archiveSeries, createSeries, getSeriesDetail, listSeries, restoreSeries, updateSeries } from './series-service';
 
 const idParams = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) });
@@ -32,10 +34,14 @@ export function seriesRoutes({ db }: AppContext): RouteDefinition[] {
       path: '/series/:id',
       access: 'data.read',
       tag: 'Series',
-      summary: 'One series with its parent chain, children, linked station and reading counts by quality flag',
-      params: idParams,
+      summary: 'One series (by id or key) with its parent chain, children, linked station and reading counts by quality flag',
+      params: z.object({ id: z.string().trim().min(1).max(64) }),
       response: seriesDetailSchema,
-      handler: ({ params }) => getSeriesDetail(db, params.id),
+      handler: async ({ params }) => {
+        const found = await findSeriesByRef(db, params.id);
+        if (!found) throw new HttpProblem('notFound', `No series "${params.id}".`);
+        return getSeriesDetail(db, found.id);
+      },
     }),
     defineRoute({
       method: 'post',
