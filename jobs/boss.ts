@@ -5,11 +5,20 @@ import PgBoss from 'pg-boss';
 export interface BossOptions {
   /** Runs cron schedules and queue maintenance: true in workers only. */
   supervise: boolean;
+  /**
+   * Seconds between checks of cron schedules and between runs of the schedule's sender (pg-boss
+   * defaults 30 and 5; 1–45). Tests shorten them to see a per-minute cron fire promptly.
+   */
+  cronMonitorIntervalSeconds?: number;
+  /** See cronMonitorIntervalSeconds. */
+  cronWorkerIntervalSeconds?: number;
 }
 
 /** Creates (but does not start) a pg-boss client on the product's database. */
-export function createBoss(databaseUrl: string, { supervise }: BossOptions): PgBoss {
+export function createBoss(databaseUrl: string, { supervise, cronMonitorIntervalSeconds, cronWorkerIntervalSeconds }: BossOptions): PgBoss {
   return new PgBoss({
+    ...(cronMonitorIntervalSeconds === undefined ? {} : { cronMonitorIntervalSeconds }),
+    ...(cronWorkerIntervalSeconds === undefined ? {} : { cronWorkerIntervalSeconds }),
     connectionString: databaseUrl,
     schema: 'pgboss',
     supervise,

@@ -4,6 +4,7 @@
  */
 import type PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
+import { registerRefitQueues } from './refit-queues';
 
 /** What a queue's handler may use. */
 export interface WorkerContext {
@@ -13,6 +14,7 @@ export interface WorkerContext {
 }
 
 /** Creates every queue and starts its handler. Queues are added here as features land. */
-export async function registerQueues(_boss: PgBoss, _context: WorkerContext): Promise<void> {
-  // The intake (import) and nightly refit queues register here.
+export async function registerQueues(boss: PgBoss, context: WorkerContext): Promise<void> {
+  // The intake (import) queue registers here too.
+  await registerRefitQueues(boss, context);
 }

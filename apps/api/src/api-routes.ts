@@ -12,6 +12,8 @@ import { peopleRoutes } from './people/people-routes';
 import { readingsRoutes } from './readings/readings-routes';
 import { seriesRoutes } from './series/series-routes';
 import { tokenRoutes } from './tokens/token-routes';
+import { modelRoutes } from './models/model-routes';
+import { refitRoutes } from './refits/refit-routes';
 
 const version = process.env['npm_package_version'] ?? '0.1.0';
 
@@ -19,6 +21,7 @@ const version = process.env['npm_package_version'] ?? '0.1.0';
 export function apiRoutes(context: AppContext): RouteDefinition[] {
   const routes = [...healthRoutes(context), ...authRoutes(context), ...peopleRoutes(context), ...tokenRoutes(context), ...auditRoutes(context), ...outboxRoutes(context)];
   routes.push(...forecastRoutes(context));
+  routes.push(...modelRoutes(context), ...refitRoutes(context));
   routes.push(...seriesRoutes(context), ...readingsRoutes(context));
   let document: unknown;
   routes.push(

@@ -10,4 +10,6 @@ export * from './outbox';
 export * from './series';
 export * from './readings';
 export * from './forecasts';
+export * from './models';
+export * from './refits';
 export * from './uploads';

@@ -1,0 +1,161 @@
+/**
+ * Model settings per series (GET/PUT /api/series/:id/model), the newest fit with what `auto` compared
+ * (GET /api/series/:id/fit), and the organisation's holiday calendar (/api/holidays).
+ */
+import {
+  createHolidayRequestSchema,
+  fitSummarySchema,
+  holidayCalendarSchema,
+  holidayListQuerySchema,
+  modelSettingsRequestSchema,
+  modelSettingsSchema,
+  seedHolidaysRequestSchema,
+  seedHolidaysResultSchema,
+  holidaySchema,
+} from '@loadwright/contracts';
+import { z } from 'zod';
+import type { AppContext } from '../app-context';
+import { recordAudit } from '../audit/audit-log';
+import { clientAddress } from '../auth/client-address';
+import { HttpProblem } from '../errors/http-problem';
+import { defineRoute, type RouteDefinition } from '../http/route-table';
+import { readHolidayPlace, seedHolidayYears } from '../refit-engine/holiday-calendar';
+import { NoModelError, readLatestFit, readModelSettings, writeModelSettings } from './model-settings-service';
+
+const idParams = z.object({ id: z.coerce.number().int().positive() });
+
+/** The model and holiday routes. */
+export function modelRoutes({ db, pool }: AppContext): RouteDefinition[] {
+  const settingsOf = async (seriesId: number) => {
+    try {
+      return await readModelSettings(db, pool, seriesId);
+    } catch (error) {
+      if (error instanceof NoModelError) throw new HttpProblem('notFound', error.message);
+      throw error;
+    }
+  };
+
+  return [
+    defineRoute({
+      method: 'get',
+      path: '/series/:id/model',
+      access: 'data.read',
+      tag: 'Models',
+      summary: "A load series' model settings (defaults until a planner changes them)",
+      params: idParams,
+      response: modelSettingsSchema,
+      handler: ({ params }) => settingsOf(params.id),
+    }),
+    defineRoute({
+      method: 'put',
+      path: '/series/:id/model',
+      access: 'models.edit',
+      tag: 'Models',
+      summary: "Replace a load series' model settings; used from the next refit on",
+      params: idParams,
+      body: modelSettingsRequestSchema,
+      response: modelSettingsSchema,
+      handler: async ({ params, body, actor, req }) => {
+        const before = await settingsOf(params.id);
+        await db.transaction(async (tx) => {
+          await writeModelSettings(tx, params.id, body, actor.kind === 'user' ? actor.userId : null);
+          const { seriesId: _s, temperatureSeries: _t, updatedAt: _u, updatedBy: _b, ...previous } = before;
+          await recordAudit(tx, { actor, action: 'model.settings_changed', targetType: 'series', targetId: params.id, detail: { before: previous, after: body }, ip: clientAddress(req) });
+        });
+        return settingsOf(params.id);
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/series/:id/fit',
+      access: 'data.read',
+      tag: 'Models',
+      summary: 'The newest fit of a load series: method, coefficients, residual checks and what auto compared',
+      params: idParams,
+      response: fitSummarySchema,
+      handler: async ({ params }) => {
+        await settingsOf(params.id);
+        const fit = await readLatestFit(pool, params.id);
+        if (!fit) throw new HttpProblem('notFound', `Series ${params.id} has not been fitted yet.`);
+        return fit;
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/holidays',
+      access: 'data.read',
+      tag: 'Models',
+      summary: 'The holiday calendar that feeds the day-type regressors (default: this year and next)',
+      query: holidayListQuerySchema,
+      response: holidayCalendarSchema,
+      handler: async ({ query }) => {
+        const year = new Date().getUTCFullYear();
+        const from = query.from ?? `${year}-01-01`;
+        const to = query.to ?? `${year + 1}-12-31`;
+        if (from > to) throw new HttpProblem('invalidInput', 'The start date must not be after the end date.', [{ pointer: '/from', detail: 'after to' }]);
+        const place = await readHolidayPlace(pool);
+        const { rows } = await pool.query(
+          `select id, to_char(day, 'YYYY-MM-DD') as day, name, kind, source, updated_at from holidays where day between $1::date and $2::date order by day, name`,
+          [from, to],
+        );
+        return { country: place.country, region: place.region, holidays: rows.map(holidayOut) };
+      },
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/holidays',
+      access: 'models.edit',
+      tag: 'Models',
+      summary: "Add a day to the holiday calendar (e.g. a plant shutdown); counts as a holiday from the next refit on",
+      body: createHolidayRequestSchema,
+      response: holidaySchema,
+      status: 201,
+      handler: async ({ body, actor, req }) => {
+        const { rows } = await pool.query(
+          `insert into holidays (day, name, kind, source, updated_by_id) values ($1::date, $2, $3, 'manual', $4)
+           on conflict on constraint holidays_day_name_key do nothing
+           returning id, to_char(day, 'YYYY-MM-DD') as day, name, kind, source, updated_at`,
+          [body.day, body.name, body.kind, actor.kind === 'user' ? actor.userId : null],
+        );
+        if (rows.length === 0) throw new HttpProblem('conflict', `${body.day} is already in the calendar as "${body.name}".`);
+        const holiday = holidayOut(rows[0]);
+        await recordAudit(db, { actor, action: 'holiday.added', targetType: 'holiday', targetId: holiday.id, detail: { day: holiday.day, name: holiday.name, kind: holiday.kind }, ip: clientAddress(req) });
+        return holiday;
+      },
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/holidays/seed',
+      access: 'models.edit',
+      tag: 'Models',
+      summary: "Fill the calendar with the public holidays of the organisation's country and region for years not seeded yet",
+      body: seedHolidaysRequestSchema,
+      response: seedHolidaysResultSchema,
+      handler: async ({ body, actor, req }) => {
+        const place = await readHolidayPlace(pool);
+        if (!place.country) throw new HttpProblem('conflict', 'The organisation has no holiday country set; an admin sets it in the settings.');
+        const added = await seedHolidayYears(pool, place, body.years);
+        await recordAudit(db, { actor, action: 'holiday.seeded', targetType: 'holiday', detail: { years: body.years, added, country: place.country, region: place.region }, ip: clientAddress(req) });
+        return { added };
+      },
+    }),
+    defineRoute({
+      method: 'delete',
+      path: '/holidays/:id',
+      access: 'models.edit',
+      tag: 'Models',
+      summary: 'Remove a day from the holiday calendar',
+      params: idParams,
+      handler: async ({ params, actor, req }) => {
+        const { rows } = await pool.query(`delete from holidays where id = $1 returning to_char(day, 'YYYY-MM-DD') as day, name, source`, [params.id]);
+        if (rows.length === 0) throw new HttpProblem('notFound', `No holiday with id ${params.id}.`);
+        await recordAudit(db, { actor, action: 'holiday.removed', targetType: 'holiday', targetId: params.id, detail: rows[0], ip: clientAddress(req) });
+      },
+    }),
+  ];
+}
+
+/** A holidays row as the contract shapes it. */
+function holidayOut(row: Record<string, any>) {
+  return { id: row['id'], day: row['day'], name: row['name'], kind: row['kind'], source: row['source'], updatedAt: (row['updated_at'] as Date).toISOString() };
+}

@@ -1,0 +1,58 @@
+/**
+ * The refit's job queues: names, retry settings, and a way to add jobs inside one's own transaction
+ * (pg-boss's insert on the caller's connection), shared by the API and the worker.
+ */
+import PgBoss from 'pg-boss';
+import type { Queryable } from './series-window';
+
+/** One job per series per run: data RefitSeriesJob. */
+export const refitSeriesQueue = 'refit-series';
+/** The nightly schedule fires into this queue; its handler fans out a run over every active series. */
+export const refitNightlyQueue = 'refit-nightly';
+
+/** Data of a 'refit-series' job. */
+export interface RefitSeriesJob {
+  runId: number;
+  seriesId: number;
+}
+
+/** Retry and expiry of refit jobs, from REFIT_RETRY_LIMIT, REFIT_RETRY_DELAY_SECONDS (defaults 2 and 30 s, doubling). */
+export function refitQueueOptions(env: NodeJS.ProcessEnv = process.env): Omit<PgBoss.Queue, 'name'> {
+  const limit = Number(env['REFIT_RETRY_LIMIT'] ?? 2);
+  const delay = Number(env['REFIT_RETRY_DELAY_SECONDS'] ?? 30);
+  return {
+    retryLimit: Number.isInteger(limit) && limit >= 0 ? limit : 2,
+    retryDelay: Number.isFinite(delay) && delay >= 0 ? delay : 30,
+    retryBackoff: true,
+    // A worker killed mid-job leaves it active; after this long another worker takes it again.
+    expireInSeconds: 600,
+  };
+}
+
+/** Creates both refit queues (or brings their settings up to date). */
+export async function createRefitQueues(boss: PgBoss): Promise<void> {
+  const options = refitQueueOptions();
+  for (const name of [refitSeriesQueue, refitNightlyQueue]) {
+    if (await boss.getQueue(name)) await boss.updateQueue(name, { name, ...options });
+    else await boss.createQueue(name, { name, ...options });
+  }
+}
+
+/** Adds jobs on a given connection (so they commit or roll back with the caller's transaction). */
+export type JobInserter = (jobs: PgBoss.JobInsert[], connection: Queryable) => Promise<void>;
+
+/** A JobInserter that needs no running pg-boss: pg-boss's insert statement run on the caller's connection. */
+export function createJobInserter(): JobInserter {
+  const boss = new PgBoss({ db: { executeSql: async () => ({ rows: [] }) }, schema: 'pgboss', supervise: false, schedule: false, migrate: false });
+  return async (jobs, connection) => {
+    await boss.insert(jobs, { db: { executeSql: (text, values) => connection.query({ text, values }) as Promise<{ rows: unknown[] }> as Promise<{ rows: any[] }> } });
+  };
+}
+
+/** True when the refit queue exists (a worker has started at least once against this database). */
+export async function refitQueueReady(db: Queryable): Promise<boolean> {
+  const { rows } = await db.query({ text: `select to_regclass('pgboss.queue') is not null as installed` });
+  if (!(rows[0] as { installed: boolean }).installed) return false;
+  const found = await db.query({ text: 'select 1 from pgboss.queue where name = $1', values: [refitSeriesQueue] });
+  return found.rows.length > 0;
+}

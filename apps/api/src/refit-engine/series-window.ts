@@ -1,0 +1,208 @@
+/**
+ * Reads what one series' refit needs: the series, its model settings, the training window of hourly
+ * values (validation estimates in place of flagged or missing readings, excluded hours left out and
+ * bridged), and the linked station's temperatures over the window and the forecast hours.
+ *
+ * Temperature forecasts are stored as ordinary readings of the temperature series with timestamps after
+ * the load's last reading (uploaded like any temperature file): whatever the station holds for the hours
+ * after the last actual is the forecast the refit uses.
+ */
+import { qualityFlag } from '@loadwright/db';
+import { countMissing, fillInteriorGaps } from './fill-gaps';
+import { defaultModelSettings, settingsFromRow, type ModelSpecRow } from './model-settings';
+import { RefitDataError } from './refit-errors';
+import type { ModelSettingsRequest } from '@loadwright/contracts';
+
+/** Anything that runs parameterised SQL: a pg Pool or a checked-out client. */
+export interface Queryable {
+  query(config: { text: string; values?: unknown[]; rowMode?: 'array' }): Promise<{ rows: unknown[] }>;
+}
+
+/** One hour in milliseconds. */
+export const HOUR_MS = 3_600_000;
+/** Shortest training window the refit accepts: two weeks, so the weekly cycle is seen twice. */
+export const MIN_TRAINING_HOURS = 336;
+/** Most of the window that may be missing (bridged by straight lines) before the refit refuses. */
+export const MAX_MISSING_SHARE = 0.2;
+/** Longest temperature gap bridged inside the forecast hours. */
+const MAX_FUTURE_TEMPERATURE_GAP = 3;
+/** Least share of training hours the station must cover for temperature regressors. */
+const MIN_TEMPERATURE_COVERAGE = 0.9;
+/** Readings whose raw value is suspect: without an estimate they count as missing. */
+const suspect = qualityFlag.spike | qualityFlag.flatLine | qualityFlag.negative | qualityFlag.impossible;
+
+/** The series as the refit sees it. */
+export interface RefitSeries {
+  id: number;
+  key: string;
+  name: string;
+  unit: string;
+  intervalMinutes: number;
+  timeZone: string;
+  temperatureSeriesId: number | null;
+}
+
+/** The linked weather station. */
+export interface Station {
+  id: number;
+  key: string;
+  name: string;
+  unit: string;
+}
+
+/** Hourly training data ending at the last usable reading. */
+export interface TrainingWindow {
+  timestamps: Float64Array;
+  values: Float64Array;
+  /** Hours bridged by straight lines (missing rows, excluded or unestimated suspect readings). */
+  bridgedHours: number;
+}
+
+/** The station's temperatures on the training hours and the forecast hours, or why they cannot be used. */
+export type TemperatureInputs =
+  | { usable: true; station: Station; training: Float64Array; future: Float64Array }
+  | { usable: false; station: Station | null; reason: string; fallback: boolean };
+
+/** Everything read for one refit. */
+export interface RefitInputs {
+  series: RefitSeries;
+  settings: ModelSettingsRequest;
+  window: TrainingWindow;
+  temperature: TemperatureInputs;
+}
+
+/** Reads the series, its settings, window and temperatures; throws RefitDataError when unusable. */
+export async function readRefitInputs(db: Queryable, seriesId: number): Promise<RefitInputs> {
+  const series = await readSeries(db, seriesId);
+  if (series.intervalMinutes !== 60) {
+    throw new RefitDataError(`${series.key} records every ${series.intervalMinutes} minutes; the refit models hourly series only`);
+  }
+  const specRows = (await db.query({ text: 'select * from model_specs where series_id = $1', values: [seriesId] })).rows as Array<Record<string, unknown>>;
+  const settings = specRows[0] ? settingsFromRow(camelRow(specRows[0]) as unknown as ModelSpecRow) : defaultModelSettings;
+  const window = await readTrainingWindow(db, series, settings.trainingWindowDays);
+  const temperature = settings.temperature.enabled ? await readTemperature(db, series, window, settings.horizonHours) : { usable: false as const, station: null, reason: 'temperature regressors are switched off in the settings', fallback: false };
+  return { series, settings, window, temperature };
+}
+
+/** The series row; refuses unknown, archived or temperature series. */
+async function readSeries(db: Queryable, seriesId: number): Promise<RefitSeries> {
+  const { rows } = await db.query({
+    text: 'select id, key, name, kind, unit, interval_minutes, time_zone, temperature_series_id, archived_at from series where id = $1',
+    values: [seriesId],
+  });
+  const row = rows[0] as Record<string, unknown> | undefined;
+  if (!row) throw new RefitDataError(`series ${seriesId} does not exist`);
+  if (row['kind'] !== 'load') throw new RefitDataError(`${row['key']} is a temperature series; only load series are refitted`);
+  if (row['archived_at']) throw new RefitDataError(`${row['key']} is archived`);
+  return {
+    id: Number(row['id']),
+    key: String(row['key']),
+    name: String(row['name']),
+    unit: String(row['unit']),
+    intervalMinutes: Number(row['interval_minutes']),
+    timeZone: String(row['time_zone']),
+    temperatureSeriesId: row['temperature_series_id'] === null ? null : Number(row['temperature_series_id']),
+  };
+}
+
+/** Hourly values of `seriesId` on (fromMs, toMs], NaN where no usable value exists. */
+async function readHourly(db: Queryable, seriesId: number, fromMs: number, toMs: number): Promise<Float64Array> {
+  const hours = Math.round((toMs - fromMs) / HOUR_MS);
+  const out = new Float64Array(hours).fill(Number.NaN);
+  const { rows } = await db.query({
+    text: `select (extract(epoch from ts) * 1000)::float8, value, estimated, quality
+             from observations where series_id = $1 and ts > to_timestamp($2::float8 / 1000) and ts <= to_timestamp($3::float8 / 1000)`,
+    values: [seriesId, fromMs, toMs],
+    rowMode: 'array',
+  });
+  for (const raw of rows as Array<[number, number | null, number | null, number]>) {
+    const [ts, value, estimated, quality] = raw;
+    const index = Math.round((ts - fromMs) / HOUR_MS) - 1;
+    if (index < 0 || index >= hours) continue;
+    if (quality & qualityFlag.excluded) continue;
+    if (quality & qualityFlag.estimated && estimated !== null) out[index] = estimated;
+    else if (value !== null && !(quality & suspect)) out[index] = value;
+    else if (estimated !== null) out[index] = estimated;
+  }
+  return out;
+}
+
+/** The last `days` of hourly values up to the last reading, checked for length, gaps and variation. */
+async function readTrainingWindow(db: Queryable, series: RefitSeries, days: number): Promise<TrainingWindow> {
+  const { rows } = await db.query({ text: 'select (extract(epoch from max(ts)) * 1000)::float8 as last from observations where series_id = $1', values: [series.id] });
+  const last = (rows[0] as { last: number | null }).last;
+  if (last === null) throw new RefitDataError(`${series.key} has no readings yet`);
+  const hours = days * 24;
+  const raw = await readHourly(db, series.id, last - hours * HOUR_MS, last);
+  let first = 0;
+  while (first < raw.length && Number.isNaN(raw[first])) first++;
+  let end = raw.length;
+  while (end > first && Number.isNaN(raw[end - 1])) end--;
+  const values = raw.slice(first, end);
+  const n = values.length;
+  if (n < MIN_TRAINING_HOURS) {
+    throw new RefitDataError(`${series.key} has ${n} usable hours in its training window; the refit needs at least ${MIN_TRAINING_HOURS} (two weeks)`);
+  }
+  const missing = countMissing(values);
+  if (missing > MAX_MISSING_SHARE * n) {
+    throw new RefitDataError(`${series.key} misses ${missing} of ${n} hours (${Math.round((100 * missing) / n)} %) in its training window; at most ${MAX_MISSING_SHARE * 100} % can be bridged`);
+  }
+  const bridgedHours = fillInteriorGaps(values, Number.POSITIVE_INFINITY);
+  let min = Infinity;
+  let max = -Infinity;
+  for (let t = 0; t < n; t++) {
+    if (values[t] < min) min = values[t];
+    if (values[t] > max) max = values[t];
+  }
+  if (max - min <= 1e-9 * Math.max(1, Math.abs(max))) {
+    throw new RefitDataError(`${series.key} holds the same value (${max}) in every hour of its training window: there is no variation to model`);
+  }
+  // Grid hour i of `raw` is last − (hours − 1 − i) hours.
+  const startMs = last - (hours - 1 - first) * HOUR_MS;
+  const timestamps = Float64Array.from({ length: n }, (_, t) => startMs + t * HOUR_MS);
+  return { timestamps, values, bridgedHours };
+}
+
+/** The station's temperatures aligned with the training hours and the horizon, or why not. */
+async function readTemperature(db: Queryable, series: RefitSeries, window: TrainingWindow, horizon: number): Promise<TemperatureInputs> {
+  if (series.temperatureSeriesId === null) return { usable: false, station: null, reason: 'the series has no linked temperature series', fallback: false };
+  const { rows } = await db.query({ text: 'select id, key, name, unit from series where id = $1', values: [series.temperatureSeriesId] });
+  const station = rows[0] as Station;
+  const n = window.values.length;
+  const firstMs = window.timestamps[0];
+  const lastMs = window.timestamps[n - 1];
+  const all = await readHourly(db, station.id, firstMs - HOUR_MS, lastMs + horizon * HOUR_MS);
+  const training = all.slice(0, n);
+  const coverage = 1 - countMissing(training) / n;
+  if (coverage < MIN_TEMPERATURE_COVERAGE) {
+    return { usable: false, station, reason: `${station.name} covers ${Math.round(coverage * 100)} % of the training hours (needs ${MIN_TEMPERATURE_COVERAGE * 100} %)`, fallback: true };
+  }
+  fillInteriorGaps(training, Number.POSITIVE_INFINITY);
+  fillEdges(training);
+  const future = all.slice(n - 1);
+  fillInteriorGaps(future, MAX_FUTURE_TEMPERATURE_GAP);
+  const missingFuture = countMissing(future);
+  if (missingFuture > 0) {
+    return {
+      usable: false,
+      station,
+      reason: `no temperature forecast of ${station.name} covers the next ${horizon} hours (${missingFuture} hours missing): fitted without temperature`,
+      fallback: true,
+    };
+  }
+  return { usable: true, station, training, future: future.slice(1) };
+}
+
+/** Carries the first and last known values out over leading and trailing NaNs, in place. */
+function fillEdges(values: Float64Array): void {
+  const first = values.findIndex((v) => !Number.isNaN(v));
+  for (let t = 0; t < first; t++) values[t] = values[first];
+  let last = values.length - 1;
+  while (last >= 0 && Number.isNaN(values[last])) last--;
+  for (let t = last + 1; t < values.length; t++) values[t] = values[last];
+}
+
+/** A snake_case row with camelCase keys (model_specs read through plain SQL). */
+function camelRow(row: Record<string, unknown>): Record<string, unknown> {
+  return Object.fromEntries(Object.entries(row).map(([key, value]) => [key.replace(/_([a-z0-9])/g, (_, c: string) => c.toUpperCase()), value]));
+}
