@@ -346,16 +346,24 @@ const listParameter = z.preprocess((value) => (Array.isArray(value) ? value.join
  */
 export const forecastExportQuerySchema = z
   .object({
-    series: listParameter.transform((parts) => parts.map(Number)).pipe(z.array(z.number().int().positive()).min(1).max(10_000)).optional(),
-    parent: z.coerce.number().int().positive().optional(),
-    tz: z.string().default('UTC').refine(isKnownTimeZone, 'Use UTC or an IANA time zone such as America/Chicago'),
+    series: listParameter
+      .transform((parts) => parts.map(Number))
+      .pipe(z.array(z.number().int().positive()).min(1).max(10_000))
+      .optional()
+      .describe('Series ids, comma-separated, e.g. 12,14'),
+    parent: z.coerce.number().int().positive().optional().describe('A hierarchy node: it and all its descendants'),
+    tz: z.string().default('UTC').refine(isKnownTimeZone, 'Use UTC or an IANA time zone such as America/Chicago').describe('UTC (default) or an IANA time zone, e.g. America/Chicago'),
     levels: z
       .preprocess((value) => value ?? forecastIntervalLevels.join(','), listParameter)
       .transform((parts) => parts.map(Number))
       .pipe(z.array(z.number().refine((level) => (forecastIntervalLevels as readonly number[]).includes(level), 'Levels are 80 and/or 95')))
-      .transform((levels) => [...new Set(levels)].sort((a, b) => a - b) as ForecastIntervalLevel[]),
+      .transform((levels) => [...new Set(levels)].sort((a, b) => a - b) as ForecastIntervalLevel[])
+      .describe('Interval levels whose bounds to include: 80, 95 or 80,95 (default)'),
     /** Keep only series at these hierarchy levels, e.g. `seriesLevels=zone` for every zone. */
-    seriesLevels: listParameter.pipe(z.array(z.enum(['system', 'zone', 'substation', 'feeder'])).min(1)).optional(),
+    seriesLevels: listParameter
+      .pipe(z.array(z.enum(['system', 'zone', 'substation', 'feeder'])).min(1))
+      .optional()
+      .describe('Only series at these hierarchy levels, comma-separated: system, zone, substation, feeder'),
   })
   .refine((value) => value.series === undefined || value.parent === undefined, { message: 'Send series or parent, not both', path: ['parent'] });
 

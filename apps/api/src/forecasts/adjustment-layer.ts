@@ -46,12 +46,12 @@ export function covers(rule: AdjustmentRule, ts: Date): boolean {
   return rule.periodStart.getTime() <= t && t < rule.periodEnd.getTime();
 }
 
-/** The factor and shift the rules put on the interval at `ts`; null when none covers it. */
+/** The factor and shift the rules (in creation order) put on the interval at `ts`; null when none covers it. */
 export function effectAt(rules: readonly AdjustmentRule[], ts: Date): Effect | null {
   let factor = 1;
   let shift = 0;
   let any = false;
-  for (const rule of [...rules].sort((a, b) => a.id - b.id)) {
+  for (const rule of rules) {
     if (!covers(rule, ts)) continue;
     any = true;
     if (rule.kind === 'scale') factor *= rule.amount;
