@@ -159,6 +159,20 @@ describe('validation of pushed readings', () => {
 });
 
 describe('limits and refusals', () => {
+  it('takes the largest batch one request may carry (20,000 hourly readings with offsets) in one go', async () => {
+    const start = Date.UTC(2022, 0, 1);
+    const largest = Array.from({ length: 20_000 }, (_, i) => ({
+      ts: new Date(start + i * 3_600_000 - 6 * 3_600_000).toISOString().replace('Z', '-06:00'),
+      value: 1500 + 300 * Math.sin((2 * Math.PI * i) / 24) + (i % 7),
+    }));
+    const started = performance.now();
+    const response = await push('push-a', { readings: largest });
+    const elapsedMs = performance.now() - started;
+    expect(response.status).toBe(200);
+    expect(response.body).toMatchObject({ received: 20_000, inserted: 20_000, rejected: 0 });
+    expect(elapsedMs).toBeLessThan(15_000);
+  });
+
   it('refuses more readings than one request may carry, with the limit in the message', async () => {
     const tooMany = Array.from({ length: 20_001 }, (_, i) => ({ ts: new Date(Date.UTC(2020, 0, 1) + i * 3_600_000).toISOString(), value: 1 }));
     const response = await push('push-a', { readings: tooMany });

@@ -44,6 +44,20 @@ export function qualityFlagsOf(quality: number): QualityFlagName[] {
   return qualityFlagNames.filter((name) => (quality & qualityFlagBits[name]) !== 0);
 }
 
+/** Short labels of the quality flags, for legends and tooltips. */
+export const qualityFlagLabels: Record<QualityFlagName, string> = {
+  estimated: 'Estimated',
+  missing: 'Missing',
+  spike: 'Spike',
+  flatLine: 'Flat line',
+  negative: 'Negative',
+  impossible: 'Impossible value',
+  duplicateConflict: 'Conflicting duplicate',
+  dstAmbiguous: 'Repeated DST hour',
+  manualEdit: 'Edited by hand',
+  excluded: 'Excluded from training',
+};
+
 /** A quality flag name, checked. */
 export const qualityFlagNameSchema = z.enum(qualityFlagNames as [QualityFlagName, ...QualityFlagName[]]);
 
