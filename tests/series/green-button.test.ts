@@ -2,6 +2,7 @@
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { eq } from 'drizzle-orm';
+import { uploadMappingSchema, uploadSettingsSchema } from '@loadwright/contracts';
 import { auditLog, observations, series, uploads } from '@loadwright/db';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -72,7 +73,10 @@ describe('Green Button import', () => {
 
     const [upload] = await server.db.select().from(uploads).where(eq(uploads.id, response.body.uploadId));
     expect(upload).toMatchObject({ source: 'green_button', status: 'done', rowsImported: 47 });
-    expect(upload!.settings).toMatchObject({ localTime: { tzOffsetSeconds: -21600, dstOffsetSeconds: 3600 }, usagePoint: 'Pump house meter' });
+    expect(upload!.settings).toMatchObject({ greenButton: { localTime: { tzOffsetSeconds: -21600, dstOffsetSeconds: 3600 }, usagePoint: 'Pump house meter' } });
+    // The upload list reads mapping and settings with the file-upload shapes.
+    expect(uploadMappingSchema.parse(upload!.mapping)).toMatchObject({ layout: 'long', seriesKey: 'gb-pump' });
+    expect(uploadSettingsSchema.parse(upload!.settings)).toMatchObject({ unit: 'kW', timeZone: 'America/Chicago', timestampsMark: 'start' });
     const audit = await server.db.select().from(auditLog).where(eq(auditLog.action, 'greenButton.imported'));
     expect(audit).toHaveLength(1);
 

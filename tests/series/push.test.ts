@@ -1,5 +1,6 @@
 /** The push API: other systems send actuals as JSON with an API token; same rules and writer as uploads. */
 import { and, eq } from 'drizzle-orm';
+import { uploadMappingSchema, uploadSettingsSchema } from '@loadwright/contracts';
 import { auditLog, observationRevisions, observations, series, uploads } from '@loadwright/db';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -67,6 +68,8 @@ describe('pushing', () => {
     const [upload] = await server.db.select().from(uploads).where(eq(uploads.id, firstUploadId));
     expect(upload).toMatchObject({ source: 'api', status: 'done', rowsTotal: 48, rowsImported: 48, fileName: 'API push to push-a' });
     expect(upload!.uploadedByTokenId).not.toBeNull();
+    expect(uploadMappingSchema.parse(upload!.mapping)).toEqual({ layout: 'long', timestampColumn: 'ts', valueColumn: 'value', seriesKeyColumn: null, seriesKey: 'push-a' });
+    expect(uploadSettingsSchema.parse(upload!.settings)).toMatchObject({ unit: 'kW', timeZone: 'America/Chicago', timestampsMark: 'start' });
     const audit = await server.db.select().from(auditLog).where(and(eq(auditLog.action, 'readings.pushed'), eq(auditLog.targetId, String(ids.get('push-a')))));
     expect(audit).toHaveLength(1);
     expect(audit[0]!.detail).toMatchObject({ key: 'push-a', uploadId: firstUploadId, inserted: 48 });

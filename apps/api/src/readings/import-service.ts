@@ -6,7 +6,7 @@
  */
 import { createHash } from 'node:crypto';
 import { and, eq, ne } from 'drizzle-orm';
-import type { ImportResult } from '@loadwright/contracts';
+import type { ImportResult, SeriesUnit, TimestampsMark, UploadMapping, UploadSettings } from '@loadwright/contracts';
 import { uploads, type Database, type Series, type UploadSource } from '@loadwright/db';
 import type { Actor } from '../auth/actor';
 import { recordAudit } from '../audit/audit-log';
@@ -31,8 +31,12 @@ export interface ReadingBatch {
   /** SHA-256 (hex) of the batch's content, the key of "same batch twice". */
   contentSha256: string;
   byteSize: number;
-  /** What the sender told us, kept with the upload (units, local time parameters…). */
-  settings: Record<string, unknown>;
+  /** Unit the sender's values were in. */
+  unit: SeriesUnit;
+  /** What the sender's timestamps marked. */
+  timestampsMark: TimestampsMark;
+  /** Facts of the source kept with the upload beside the settings (e.g. Green Button local time parameters). */
+  sourceDetail?: Record<string, unknown>;
   actor: Actor;
   ip: string;
   /** Audit action, e.g. readings.pushed. */
@@ -61,8 +65,7 @@ export async function importBatch(db: Database, batch: ReadingBatch): Promise<Im
           uploadedById: batch.actor.kind === 'user' ? batch.actor.userId : null,
           uploadedByTokenId: batch.actor.kind === 'token' ? batch.actor.tokenId : null,
           status: 'importing',
-          mapping: { seriesKey: series.key },
-          settings: batch.settings,
+          ...uploadRecordOf(batch),
           rowsTotal: batch.readings.length,
           startedAt: new Date(),
         })
@@ -122,6 +125,25 @@ export async function importBatch(db: Database, batch: ReadingBatch): Promise<Im
     }
     throw error;
   }
+}
+
+/**
+ * The mapping and settings recorded with the upload, in the shapes the upload list shows for files:
+ * one series, a timestamp and a value per reading, offsets given (so no repeated-hour policy applies).
+ */
+function uploadRecordOf(batch: ReadingBatch): { mapping: UploadMapping; settings: UploadSettings & Record<string, unknown> } {
+  return {
+    mapping: { layout: 'long', timestampColumn: 'ts', valueColumn: 'value', seriesKeyColumn: null, seriesKey: batch.series.key },
+    settings: {
+      unit: batch.unit,
+      timeZone: batch.series.timeZone,
+      timestampsMark: batch.timestampsMark,
+      repeatedHourPolicy: 'reject',
+      decimalSeparator: '.',
+      estimateShortGaps: true,
+      ...(batch.sourceDetail && { [batch.source === 'green_button' ? 'greenButton' : 'source']: batch.sourceDetail }),
+    },
+  };
 }
 
 type LandedUpload = Pick<typeof uploads.$inferSelect, 'id' | 'rowsTotal'>;
