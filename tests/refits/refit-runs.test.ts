@@ -114,6 +114,17 @@ describe('a manual run for one series', () => {
   });
 });
 
+describe('refit scopes', () => {
+  it('names series that do not exist and refuses weather stations', async () => {
+    const missing = await request(server.url).post('/api/refits').set('Cookie', planner.cookie).set('X-CSRF-Token', planner.csrf).send({ scope: { kind: 'series', seriesIds: [999999] } });
+    expect(missing.status).toBe(404);
+    expect(missing.body.detail).toContain('999999');
+    const station = await seriesId(server.pool, 'wx-upland');
+    const refused = await request(server.url).post('/api/refits').set('Cookie', planner.cookie).set('X-CSRF-Token', planner.csrf).send({ scope: { kind: 'subtree', seriesId: station } });
+    expect(refused.status).toBe(400);
+  });
+});
+
 describe('a manual run for a zone and everything below it', () => {
   it('refits the zone and its substations and feeders, superseding earlier drafts', async () => {
     const zone = await seriesId(server.pool, 'zone-north');
@@ -150,6 +161,7 @@ describe('the nightly schedule', () => {
   it('fans out one job per active load series when it fires, once per fire time', async () => {
     const { rows: active } = await server.pool.query(`select count(*)::int as n from series where kind = 'load' and archived_at is null`);
     // Deliver the schedule's job exactly as pg-boss's cron does, twice for the same minute.
+    while (new Date().getSeconds() > 55) await new Promise((done) => setTimeout(done, 500));
     await sender.send(refitNightlyQueue, {});
     await sender.send(refitNightlyQueue, {});
     const run = await waitFor(async () => {
