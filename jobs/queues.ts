@@ -4,6 +4,7 @@
  */
 import type PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
+import { registerImportQueue } from './import.worker';
 import { registerRefitQueues } from './refit-queues';
 
 /** What a queue's handler may use. */
@@ -15,6 +16,7 @@ export interface WorkerContext {
 
 /** Creates every queue and starts its handler. Queues are added here as features land. */
 export async function registerQueues(boss: PgBoss, context: WorkerContext): Promise<void> {
+  await registerImportQueue(boss, context);
   // The intake (import) queue registers here too.
   await registerRefitQueues(boss, context);
 }

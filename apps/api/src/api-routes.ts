@@ -5,6 +5,7 @@ import { auditRoutes } from './audit/audit-routes';
 import { authRoutes } from './auth/auth-routes';
 import { forecastRoutes } from './forecasts/forecast-routes';
 import { healthRoutes } from './health/health-routes';
+import { uploadRoutes } from './intake/upload-routes';
 import { buildOpenApiDocument } from './http/openapi';
 import { defineRoute, type RouteDefinition } from './http/route-table';
 import { outboxRoutes } from './outbox/outbox-routes';
@@ -23,6 +24,7 @@ export function apiRoutes(context: AppContext): RouteDefinition[] {
   routes.push(...forecastRoutes(context));
   routes.push(...modelRoutes(context), ...refitRoutes(context));
   routes.push(...seriesRoutes(context), ...readingsRoutes(context));
+  routes.push(...uploadRoutes(context));
   let document: unknown;
   routes.push(
     defineRoute({

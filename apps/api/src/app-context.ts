@@ -19,4 +19,8 @@ export interface AppContext {
   outboxFolder?: string;
   /** Folder of the built web app; absent in API-only tests. */
   webDist?: string;
+  /** Folder where uploaded files wait for their import job (default: the system temp folder's loadwright-uploads). */
+  uploadFolder?: string;
+  /** Largest upload accepted, in bytes (from UPLOAD_MAX_MB; default 512 MiB). */
+  uploadMaxBytes?: number;
 }

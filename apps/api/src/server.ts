@@ -32,6 +32,7 @@ export async function startServer(config: Config) {
     publicUrl,
     outboxFolder: config.OUTBOX_FOLDER,
     webDist: resolve(repoRoot, config.WEB_DIST),
+    uploadMaxBytes: config.UPLOAD_MAX_MB * 1024 * 1024,
   });
   const server = app.listen(config.PORT, config.HOST);
   await new Promise<void>((done, fail) => server.once('listening', done).once('error', fail));

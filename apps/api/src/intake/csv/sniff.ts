@@ -1,0 +1,177 @@
+/**
+ * First look at an uploaded file (its first 64 KiB): is it text in an encoding Loadwright reads, which
+ * delimiter separates its fields, does it start with a header row, and what do its first rows hold.
+ * A file that cannot be read gets one sentence saying why and what to do instead.
+ */
+import { open } from 'node:fs/promises';
+import { parse } from 'csv-parse/sync';
+import type { UploadLayout, UploadPreview } from '@loadwright/contracts';
+import { parseTimestamp } from './parse-timestamp';
+
+/** Bytes read for the first look. */
+export const sniffBytes = 64 * 1024;
+
+/** Data rows shown in the preview. */
+export const previewRows = 20;
+
+/** The outcome of a first look. */
+export type SniffResult = { ok: true; layout: UploadLayout; preview: UploadPreview } | { ok: false; message: string };
+
+/** Magic numbers of formats people send instead of CSV. */
+const knownBinaries: Array<{ bytes: number[]; name: string }> = [
+  { bytes: [0x50, 0x4b, 0x03, 0x04], name: 'a ZIP archive or an Excel workbook (.xlsx)' },
+  { bytes: [0xd0, 0xcf, 0x11, 0xe0], name: 'an old Excel workbook (.xls)' },
+  { bytes: [0x25, 0x50, 0x44, 0x46], name: 'a PDF document' },
+  { bytes: [0x89, 0x50, 0x4e, 0x47], name: 'a PNG image' },
+  { bytes: [0x1f, 0x8b], name: 'a gzip archive' },
+  { bytes: [0xff, 0xd8, 0xff], name: 'a JPEG image' },
+];
+
+const saveAsCsv = 'Save it as CSV (UTF-8), comma-, semicolon- or tab-separated, and upload that.';
+
+/** Looks at the start of the file at `path`. */
+export async function sniffFile(path: string): Promise<SniffResult> {
+  const handle = await open(path, 'r');
+  try {
+    const buffer = Buffer.alloc(sniffBytes);
+    const { bytesRead } = await handle.read(buffer, 0, sniffBytes, 0);
+    const stat = await handle.stat();
+    return sniffBytesOf(buffer.subarray(0, bytesRead), bytesRead >= stat.size);
+  } finally {
+    await handle.close();
+  }
+}
+
+/** Looks at the first bytes of a file; `whole` says whether they are the entire file. Pure. */
+export function sniffBytesOf(bytes: Buffer, whole: boolean): SniffResult {
+  if (bytes.length === 0) return { ok: false, message: 'The file is empty.' };
+  for (const known of knownBinaries) {
+    if (known.bytes.every((byte, i) => bytes[i] === byte)) return { ok: false, message: `The file is ${known.name}, not CSV text. ${saveAsCsv}` };
+  }
+  const encoding = detectEncoding(bytes);
+  const bomLength = encoding === 'utf-8' ? (hasUtf8Bom(bytes) ? 3 : 0) : 2;
+  if (encoding === 'utf-8') {
+    const nul = bytes.indexOf(0);
+    if (nul >= 0) return { ok: false, message: `The file holds binary data (a zero byte at offset ${nul}), not CSV text. ${saveAsCsv}` };
+    const bad = firstInvalidUtf8(bytes, whole);
+    if (bad >= 0) {
+      const row = countLines(bytes, bad);
+      return { ok: false, message: `Row ${row} is not UTF-8 text (byte 0x${bytes[bad]!.toString(16).toUpperCase().padStart(2, '0')} at offset ${bad}); the file seems to use another encoding. Save it as CSV UTF-8 and upload that.` };
+    }
+  }
+  let text = new TextDecoder(encoding).decode(bytes.subarray(bomLength));
+  if (!whole) text = text.slice(0, Math.max(0, text.lastIndexOf('\n')));
+  if (/[\u0000-\u0008\u000e-\u001f]/.test(text)) {
+    const at = text.search(/[\u0000-\u0008\u000e-\u001f]/);
+    return { ok: false, message: `Row ${text.slice(0, at).split('\n').length} holds control characters, so this is not CSV text. ${saveAsCsv}` };
+  }
+  if (text.trim() === '') return { ok: false, message: 'The file holds no rows.' };
+
+  const delimiter = detectDelimiter(text);
+  if (!delimiter.ok) return delimiter;
+  let records: string[][];
+  try {
+    records = (parse(text, { delimiter: delimiter.value, relax_column_count: true, skip_empty_lines: true, to_line: previewRows + 60 }) as string[][]);
+  } catch (error) {
+    return { ok: false, message: csvErrorMessage(error) };
+  }
+  const first = records[0] ?? [];
+  const hasHeader = !first.some((cell) => parseTimestamp(cell) !== null);
+  const columns = hasHeader ? first.map((name, i) => name.trim() || `column ${i + 1}`) : first.map((_, i) => `column ${i + 1}`);
+  const seen = new Map<string, number>();
+  for (const [i, name] of columns.entries()) {
+    const earlier = seen.get(name.toLowerCase());
+    if (earlier !== undefined) return { ok: false, message: `Row 1: columns ${earlier + 1} and ${i + 1} are both named "${name}"; give each column its own name.` };
+    seen.set(name.toLowerCase(), i);
+  }
+  const rows = records.slice(hasHeader ? 1 : 0, (hasHeader ? 1 : 0) + previewRows);
+  if (rows.length === 0) return { ok: false, message: 'The file has a header row but no data rows.' };
+  const decimalSeparator = delimiter.value === ';' && rows.some((row) => row.some((cell) => /^-?\d+,\d+$/.test(cell.trim()))) ? ',' : '.';
+  const stamps = rows.flatMap((row) => row.map((cell) => parseTimestamp(cell)).filter((stamp) => stamp !== null));
+  return {
+    ok: true,
+    layout: {
+      encoding,
+      delimiter: delimiter.value,
+      hasHeader,
+      columns,
+      decimalSeparator,
+      timestampsHaveOffset: stamps.length === 0 ? null : stamps.every((stamp) => stamp.kind === 'instant'),
+    },
+    preview: { columns, rows },
+  };
+}
+
+function hasUtf8Bom(bytes: Buffer): boolean {
+  return bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf;
+}
+
+function detectEncoding(bytes: Buffer): UploadLayout['encoding'] {
+  if (bytes[0] === 0xff && bytes[1] === 0xfe) return 'utf-16le';
+  if (bytes[0] === 0xfe && bytes[1] === 0xff) return 'utf-16be';
+  return 'utf-8';
+}
+
+/** Offset of the first byte that breaks UTF-8, or −1; a sequence cut by the end of a partial read is fine. */
+export function firstInvalidUtf8(bytes: Uint8Array, whole: boolean): number {
+  let i = 0;
+  while (i < bytes.length) {
+    const byte = bytes[i]!;
+    const length = byte < 0x80 ? 1 : byte >= 0xc2 && byte <= 0xdf ? 2 : byte >= 0xe0 && byte <= 0xef ? 3 : byte >= 0xf0 && byte <= 0xf4 ? 4 : 0;
+    if (length === 0) return i;
+    if (i + length > bytes.length) return whole ? i : -1;
+    for (let k = 1; k < length; k++) if ((bytes[i + k]! & 0xc0) !== 0x80) return i;
+    i += length;
+  }
+  return -1;
+}
+
+function countLines(bytes: Buffer, upTo: number): number {
+  let lines = 1;
+  for (let i = 0; i < upTo; i++) if (bytes[i] === 0x0a) lines++;
+  return lines;
+}
+
+/** The delimiter that splits the first lines into the same number (> 1) of fields. */
+function detectDelimiter(text: string): { ok: true; value: UploadLayout['delimiter'] } | { ok: false; message: string } {
+  const lines = text.split(/\r?\n/).filter((line) => line.trim() !== '').slice(0, 30);
+  const score = (delimiter: string) => {
+    const counts = lines.map((line) => splitOutsideQuotes(line, delimiter));
+    const first = counts[0]!;
+    return first > 1 ? counts.filter((count) => count === first).length * 100 + first : 0;
+  };
+  const candidates = [',', ';', '\t'] as const;
+  const best = candidates.map((delimiter) => ({ delimiter, score: score(delimiter) })).sort((a, b) => b.score - a.score)[0]!;
+  if (best.score > 0) return { ok: true, value: best.delimiter };
+  const other = ['|', ':', ' '].find((candidate) => splitOutsideQuotes(lines[0]!, candidate) > 1);
+  const hint = other ? ` This file seems to separate fields with "${other === ' ' ? 'space' : other}".` : '';
+  return { ok: false, message: `Row 1 has a single column: Loadwright reads files whose fields are separated by comma, semicolon or tab.${hint} Export the file again with one of those.` };
+}
+
+function splitOutsideQuotes(line: string, delimiter: string): number {
+  let fields = 1;
+  let quoted = false;
+  for (const char of line) {
+    if (char === '"') quoted = !quoted;
+    else if (char === delimiter && !quoted) fields++;
+  }
+  return fields;
+}
+
+/** A csv-parse error as a sentence naming the row. */
+export function csvErrorMessage(error: unknown, rowOffset = 0): string {
+  const e = error as { code?: string; lines?: number; record?: unknown[]; message?: string };
+  const row = (e.lines ?? 0) + rowOffset;
+  switch (e.code) {
+    case 'CSV_RECORD_INCONSISTENT_FIELDS_LENGTH':
+    case 'CSV_RECORD_DONT_MATCH_COLUMNS_LENGTH':
+      return `Row ${row} has ${e.record?.length ?? 'a different number of'} fields where the header has a different number; check for a stray delimiter or a missing cell.`;
+    case 'CSV_QUOTE_NOT_CLOSED':
+      return `Row ${row}: a quoted field is never closed; check the quotes (") in that row.`;
+    case 'CSV_INVALID_CLOSING_QUOTE':
+    case 'CSV_NON_TRIMABLE_CHAR_AFTER_CLOSING_QUOTE':
+      return `Row ${row}: a quote (") stands inside a field that is not quoted as a whole; quote the whole field and double the inner quote.`;
+    default:
+      return `Row ${row} cannot be read as CSV: ${e.message ?? String(error)}`;
+  }
+}

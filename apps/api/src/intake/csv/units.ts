@@ -1,0 +1,28 @@
+/**
+ * Converting an upload's unit to a series' stored unit. Demand converts by powers of 1000. Energy per
+ * interval becomes mean demand over the interval: E kWh over m minutes is E · 60 / m kW (for example
+ * 25 kWh in 15 minutes is a mean of 100 kW). Temperature converts between °C and °F.
+ */
+import type { UploadUnit } from '@loadwright/contracts';
+
+const demandInWatts: Record<string, number> = { W: 1, kW: 1e3, MW: 1e6 };
+
+/** A function from the file's value to the stored value, or a sentence saying why there is none. */
+export function unitConversion(from: UploadUnit, to: string, intervalMinutes: number): ((value: number) => number) | string {
+  if (from === 'degC' || from === 'degF') {
+    if (to !== 'degC' && to !== 'degF') return `${from} is a temperature unit but the series stores ${to}`;
+    if (from === to) return (value) => value;
+    return from === 'degC' ? (value) => value * 1.8 + 32 : (value) => (value - 32) / 1.8;
+  }
+  const target = demandInWatts[to];
+  if (target === undefined) return `${from} is a load unit but the series stores temperatures in ${to}`;
+  // Multiply by a whole factor or divide by one, so that 1234 W reads 1.234 kW exactly as written.
+  const sourceWatts = from === 'kWh' || from === 'MWh' ? ((from === 'kWh' ? 1e3 : 1e6) * 60) / intervalMinutes : demandInWatts[from]!;
+  if (sourceWatts === target) return (value) => value;
+  if (sourceWatts > target) {
+    const factor = sourceWatts / target;
+    return (value) => value * factor;
+  }
+  const divisor = target / sourceWatts;
+  return (value) => value / divisor;
+}

@@ -1,0 +1,134 @@
+/**
+ * Imports one confirmed upload, as the import job runs it: read the stored file again (streamed),
+ * validate, and write every reading and finding in ONE transaction, so the upload lands whole or
+ * not at all. Progress goes to the upload row over a separate connection while the transaction
+ * runs, so the web app can show it. A rejection marks the upload failed with its one message and
+ * stores nothing. Safe to run twice: a finished upload is left alone.
+ */
+import { rm } from 'node:fs/promises';
+import { eq } from 'drizzle-orm';
+import type { UploadMapping, UploadSettings } from '@loadwright/contracts';
+import { auditLog, uploads, type Database } from '@loadwright/db';
+import type { Pool } from 'pg';
+import { sniffFile } from './csv/sniff';
+import { FindingTally } from './findings';
+import { planImport } from './import-plan';
+import { importSeries } from './import-series';
+import { loadCatalogue } from './load-catalogue';
+import { readUploadFile } from './read-upload-file';
+import { UploadRejection } from './upload-rejection';
+import { writeFindings } from './write-findings';
+
+/** Share of the progress bar given to reading the file; the rest is writing. */
+const readShare = 0.5;
+
+/** What the import needs. */
+export interface ImportUploadDeps {
+  db: Database;
+  /** Pool for progress updates outside the import transaction. */
+  pool: Pool;
+  /** Readings after this instant are findings (default: the clock). */
+  now?: Date;
+}
+
+/** How an import ended. */
+export type ImportUploadOutcome =
+  | { status: 'done'; rows: number; inserted: number; unchanged: number; revised: number; rejected: number; findings: FindingTally }
+  | { status: 'failed'; message: string }
+  | { status: 'skipped'; reason: string };
+
+/** Runs the import of upload `uploadId`. Throws only on unexpected errors (the job retries those). */
+export async function importUpload(deps: ImportUploadDeps, uploadId: number): Promise<ImportUploadOutcome> {
+  const { db, pool } = deps;
+  const [upload] = await db.select().from(uploads).where(eq(uploads.id, uploadId));
+  if (!upload) return { status: 'skipped', reason: `upload ${uploadId} does not exist` };
+  if (upload.status === 'done' || upload.status === 'failed' || upload.status === 'received') return { status: 'skipped', reason: `upload ${uploadId} is ${upload.status}` };
+  const progress = (fraction: number, rows: number) =>
+    pool.query('update uploads set progress = $2, rows_processed = $3, updated_at = now() where id = $1', [uploadId, Math.min(1, Math.max(0, fraction)), rows]).then(() => undefined);
+  await db.update(uploads).set({ status: 'importing', startedAt: new Date(), progress: 0, rowsProcessed: 0, error: null }).where(eq(uploads.id, uploadId));
+
+  try {
+    if (!upload.storagePath || !upload.mapping || !upload.settings) throw new UploadRejection('The upload has no stored file or no confirmed mapping; upload the file again.');
+    const sniffed = await sniffFile(upload.storagePath).catch(() => ({ ok: false as const, message: 'The stored file is gone; upload the file again.' }));
+    if (!sniffed.ok) throw new UploadRejection(sniffed.message);
+    const catalogue = await loadCatalogue(db);
+    const planned = planImport(upload.mapping as UploadMapping, upload.settings as UploadSettings, sniffed.layout, sniffed.preview, catalogue);
+    if (!planned.ok) throw new UploadRejection(planned.message);
+    const settings = planned.plan.settings;
+
+    const file = await readUploadFile(upload.storagePath, sniffed.layout, planned.plan, (fraction, rows) => progress(fraction * readShare, rows));
+    let readings = 0;
+    for (const intake of file.bySeries.values()) readings += intake.readings.length;
+    if (readings === 0) throw new UploadRejection(noUsableRowsMessage(file.rows, file.findings[0]));
+
+    const tally = new FindingTally();
+    for (const finding of file.findings) tally.add(finding);
+    const totals = { inserted: 0, unchanged: 0, revised: 0, rejected: file.rejected };
+    let written = 0;
+    await db.transaction(async (tx) => {
+      for (const { series, readings: columns } of file.bySeries.values()) {
+        const before = written;
+        const result = await importSeries(tx, { ...series, seriesId: series.id }, columns, {
+          uploadId,
+          now: deps.now,
+          maxEstimatedGap: settings.estimateShortGaps === false ? 0 : 3,
+          onRows: (rows) => progress(readShare + ((1 - readShare) * Math.min(readings, before + rows)) / readings, file.rows),
+        });
+        written += columns.length;
+        totals.inserted += result.inserted;
+        totals.unchanged += result.unchanged;
+        totals.revised += result.revised;
+        totals.rejected += result.rejected;
+        tally.merge(result.findings);
+      }
+      await writeFindings(tx, uploadId, file.findings);
+      await tx
+        .update(uploads)
+        .set({
+          status: 'done',
+          progress: 1,
+          rowsTotal: file.rows,
+          rowsProcessed: file.rows,
+          rowsImported: totals.inserted,
+          rowsUnchanged: totals.unchanged,
+          rowsRevised: totals.revised,
+          rowsRejected: totals.rejected,
+          finishedAt: new Date(),
+          storagePath: null,
+          updatedAt: new Date(),
+        })
+        .where(eq(uploads.id, uploadId));
+      await tx.insert(auditLog).values({
+        actorUserId: upload.uploadedById,
+        actorTokenId: upload.uploadedByTokenId,
+        action: 'upload.imported',
+        targetType: 'upload',
+        targetId: String(uploadId),
+        detail: { fileName: upload.fileName, rows: file.rows, ...totals },
+      });
+    });
+    await rm(upload.storagePath, { force: true });
+    return { status: 'done', rows: file.rows, ...totals, findings: tally };
+  } catch (error) {
+    if (!(error instanceof UploadRejection)) throw error;
+    await db
+      .update(uploads)
+      .set({ status: 'failed', error: error.message, progress: 0, finishedAt: new Date(), storagePath: null, updatedAt: new Date() })
+      .where(eq(uploads.id, uploadId));
+    if (upload.storagePath) await rm(upload.storagePath, { force: true });
+    return { status: 'failed', message: error.message };
+  }
+}
+
+/** The message for a file none of whose rows could be stored. */
+function noUsableRowsMessage(rows: number, first: { sourceRow: number | null; rule: string; detail: Record<string, unknown> } | undefined): string {
+  if (rows === 0) return 'The file has a header row but no data rows.';
+  if (!first) return `None of the ${rows} data rows holds a reading: every mapped value cell is empty.`;
+  const why =
+    first.rule === 'unknown_series'
+      ? `column "${String(first.detail['column'])}": "${String(first.detail['key'])}" is not a series in the catalogue`
+      : first.rule === 'dst_missing_hour'
+        ? `${String(first.detail['local'])} does not exist in ${String(first.detail['timeZone'])} (clocks skip that hour)`
+        : `${String(first.detail['local'])} occurs twice in ${String(first.detail['timeZone'])} and the upload rejects repeated hours`;
+  return `None of the ${rows} data rows can be stored; the first problem is row ${first.sourceRow}, ${why}.`;
+}

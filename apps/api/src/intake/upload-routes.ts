@@ -1,0 +1,213 @@
+/**
+ * The routes under /api/uploads (stewards and admins, permission data.upload): receive a CSV file
+ * (streamed to disk with its SHA-256), confirm its mapping (which queues the import job), follow an
+ * upload's progress and report, and download its findings as CSV.
+ */
+import { rm } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { eq } from 'drizzle-orm';
+import multer from 'multer';
+import { z } from 'zod';
+import {
+  confirmUploadRequestSchema,
+  uploadDetailSchema,
+  uploadListQuerySchema,
+  uploadPageSchema,
+  uploadReceiptSchema,
+  uploadSchema,
+  type UploadDetail,
+  type UploadMapping,
+  type UploadSettings,
+} from '@loadwright/contracts';
+import { uploads } from '@loadwright/db';
+import type { Request, Response } from 'express';
+import type { AppContext } from '../app-context';
+import type { Actor } from '../auth/actor';
+import { clientAddress } from '../auth/client-address';
+import { recordAudit } from '../audit/audit-log';
+import { HttpProblem } from '../errors/http-problem';
+import { defineRoute, type RouteDefinition } from '../http/route-table';
+import { csvLine, csvNumber, csvText } from './csv-cell';
+import { sniffFile } from './csv/sniff';
+import { hashingDiskStorage, type StoredFile } from './hashing-disk-storage';
+import { planImport } from './import-plan';
+import { enqueueImport, importQueueReady } from './import-queue';
+import { loadCatalogue } from './load-catalogue';
+import { proposeMapping } from './propose-mapping';
+import { allFindings, findUpload, listUploads, uploadReport, uploadWithContent } from './upload-store';
+
+const tag = 'Uploads';
+const idParams = z.object({ id: z.coerce.number().int().positive() });
+
+/** Default folder for files awaiting import (API and worker share the machine's temp folder). */
+export const defaultUploadFolder = join(tmpdir(), 'loadwright-uploads');
+
+/** Default upload size limit when the context sets none: 512 MiB (UPLOAD_MAX_MB). */
+const defaultMaxBytes = 512 * 1024 * 1024;
+
+/** The routes under /api/uploads. */
+export function uploadRoutes(context: AppContext): RouteDefinition[] {
+  const { db, pool } = context;
+  const folder = context.uploadFolder ?? defaultUploadFolder;
+  const maxBytes = context.uploadMaxBytes ?? defaultMaxBytes;
+  const receiver = multer({ storage: hashingDiskStorage(folder), limits: { fileSize: maxBytes, files: 1, fields: 5 } }).single('file');
+
+  /** Runs multer; resolves with the stored file, or throws a problem the steward can act on. */
+  const receive = (req: Request, res: Response) =>
+    new Promise<StoredFile>((resolve, reject) => {
+      receiver(req, res, (error: unknown) => {
+        if (error instanceof multer.MulterError && error.code === 'LIMIT_FILE_SIZE') {
+          reject(new HttpProblem('payloadTooLarge', `The file is larger than the upload limit of ${Math.round(maxBytes / 1048576)} MB; split it into smaller files.`));
+        } else if (error instanceof multer.MulterError) {
+          reject(new HttpProblem('invalidInput', `Send one file in the form field "file" (${error.message}).`, [{ pointer: '/file', detail: error.message }]));
+        } else if (error) {
+          reject(error);
+        } else if (!req.file) {
+          reject(new HttpProblem('invalidInput', 'Send the file as multipart/form-data in the form field "file".', [{ pointer: '/file', detail: 'Choose a CSV file' }]));
+        } else {
+          resolve(req.file as StoredFile);
+        }
+      });
+    });
+
+  /** The detail of an upload: its report, and while awaiting its mapping, the first look at its file. */
+  const detail = async (id: number): Promise<UploadDetail> => {
+    const upload = await findUpload(db, id);
+    if (!upload) throw new HttpProblem('notFound', `No upload with id ${id}.`);
+    const report = await uploadReport(db, id);
+    const empty = { layout: null, preview: null, proposal: null };
+    if (upload.status !== 'received') return { upload, report, ...empty };
+    const [row] = await db.select({ path: uploads.storagePath }).from(uploads).where(eq(uploads.id, id));
+    const sniffed = row?.path ? await sniffFile(row.path).catch(() => null) : null;
+    if (!sniffed?.ok) return { upload, report, ...empty };
+    const catalogue = await loadCatalogue(db);
+    return { upload, report, layout: sniffed.layout, preview: sniffed.preview, proposal: proposeMapping(sniffed.layout, sniffed.preview, catalogue) };
+  };
+
+  const who = (actor: Actor) => ({ uploadedById: actor.kind === 'user' ? actor.userId : null, uploadedByTokenId: actor.kind === 'token' ? actor.tokenId : null });
+
+  return [
+    defineRoute({
+      method: 'post',
+      path: '/uploads',
+      access: 'data.upload',
+      tag,
+      summary: 'Upload a CSV file (multipart field "file"): stored, hashed and previewed with a proposed mapping; the same bytes again answer with the earlier upload',
+      response: uploadReceiptSchema,
+      handler: async ({ req, res, actor }) => {
+        const file = await receive(req, res);
+        const earlier = await uploadWithContent(db, file.sha256);
+        if (earlier !== null) {
+          await rm(file.path, { force: true });
+          const found = await detail(earlier);
+          const done = found.upload.status === 'done';
+          return { ...found, duplicateOf: earlier, message: `${done ? 'Already imported' : 'Already uploaded'} as upload ${earlier}; nothing was added.` };
+        }
+        const sniffed = await sniffFile(file.path);
+        const fileName = file.originalname.slice(0, 255) || 'upload.csv';
+        const values = sniffed.ok
+          ? { status: 'received' as const, storagePath: file.path }
+          : { status: 'failed' as const, error: sniffed.message, storagePath: null, finishedAt: new Date() };
+        if (!sniffed.ok) await rm(file.path, { force: true });
+        const inserted = await db
+          .insert(uploads)
+          .values({ source: 'csv', fileName, contentSha256: file.sha256, byteSize: file.size, ...who(actor), ...values })
+          .onConflictDoNothing()
+          .returning({ id: uploads.id });
+        if (inserted.length === 0) {
+          // The same bytes arrived at the same moment from elsewhere: answer as a repeat.
+          await rm(file.path, { force: true });
+          const id = (await uploadWithContent(db, file.sha256))!;
+          return { ...(await detail(id)), duplicateOf: id, message: `Already uploaded as upload ${id}; nothing was added.` };
+        }
+        const id = inserted[0]!.id;
+        await recordAudit(db, { actor, action: 'upload.received', targetType: 'upload', targetId: id, detail: { fileName, byteSize: file.size, accepted: sniffed.ok }, ip: clientAddress(req) });
+        res.status(201);
+        return { ...(await detail(id)), duplicateOf: null, message: sniffed.ok ? null : sniffed.message };
+      },
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/uploads/:id/mapping',
+      access: 'data.upload',
+      tag,
+      summary: 'Confirm the column mapping, unit, time zone, interval convention and repeated-hour policy; checks them against the file and queues the import',
+      params: idParams,
+      body: confirmUploadRequestSchema,
+      response: uploadSchema,
+      handler: async ({ params, body, actor, req }) => {
+        const [row] = await db.select().from(uploads).where(eq(uploads.id, params.id));
+        if (!row) throw new HttpProblem('notFound', `No upload with id ${params.id}.`);
+        if (row.status !== 'received') throw new HttpProblem('conflict', `Upload ${row.id} is ${row.status}; only a received upload takes a mapping.`);
+        const sniffed = row.storagePath ? await sniffFile(row.storagePath).catch(() => null) : null;
+        if (!sniffed?.ok) throw new HttpProblem('conflict', `The stored file of upload ${row.id} is gone; upload it again.`);
+        const planned = planImport(body.mapping, body.settings, sniffed.layout, sniffed.preview, await loadCatalogue(db));
+        if (!planned.ok) throw new HttpProblem('invalidInput', planned.message, [{ pointer: '/mapping', detail: planned.message }]);
+        if (!(await importQueueReady(pool))) throw new HttpProblem('unavailable', 'The import queue is not running: start a worker (npm start runs one) and confirm again.');
+        const client = await pool.connect();
+        try {
+          await client.query('begin');
+          const updated = await client.query(`update uploads set status = 'queued', mapping = $2, settings = $3, updated_at = now() where id = $1 and status = 'received'`, [
+            row.id,
+            JSON.stringify(body.mapping satisfies UploadMapping),
+            JSON.stringify(body.settings satisfies UploadSettings),
+          ]);
+          if (updated.rowCount !== 1) throw new HttpProblem('conflict', `Upload ${row.id} was confirmed meanwhile.`);
+          await enqueueImport(client, row.id);
+          await client.query('commit');
+        } catch (error) {
+          await client.query('rollback');
+          throw error;
+        } finally {
+          client.release();
+        }
+        await recordAudit(db, { actor, action: 'upload.mapped', targetType: 'upload', targetId: row.id, detail: { layout: body.mapping.layout, unit: body.settings.unit, timeZone: body.settings.timeZone }, ip: clientAddress(req) });
+        return (await findUpload(db, row.id))!;
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/uploads',
+      access: 'data.upload',
+      tag,
+      summary: 'Uploads, newest first, with status and progress',
+      query: uploadListQuerySchema,
+      response: uploadPageSchema,
+      handler: ({ query }) => listUploads(db, query),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/uploads/:id',
+      access: 'data.upload',
+      tag,
+      summary: 'One upload: status, progress 0–100, counts, the validation report (counts and up to 10 examples per rule); while awaiting its mapping also the preview and proposal',
+      params: idParams,
+      response: uploadDetailSchema,
+      handler: ({ params }) => detail(params.id),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/uploads/:id/report.csv',
+      access: 'data.upload',
+      tag,
+      summary: "Every finding of an upload as CSV (spreadsheet formulas in text neutralised)",
+      params: idParams,
+      produces: 'text/csv',
+      status: 200,
+      handler: async ({ params, res }) => {
+        const upload = await findUpload(db, params.id);
+        if (!upload) throw new HttpProblem('notFound', `No upload with id ${params.id}.`);
+        res.status(200);
+        res.setHeader('Content-Type', 'text/csv; charset=utf-8');
+        res.setHeader('Content-Disposition', `attachment; filename="upload-${upload.id}-findings.csv"`);
+        res.write(csvLine(['rule', 'series', 'ts', 'value', 'source_row', 'detail'].map(csvText)));
+        for await (const page of allFindings(db, upload.id)) {
+          const text = page.map((f) => csvLine([csvText(f.rule), csvText(f.seriesKey), csvText(f.ts), csvNumber(f.value), csvNumber(f.sourceRow), csvText(JSON.stringify(f.detail))])).join('');
+          if (!res.write(text)) await new Promise((resolve) => res.once('drain', resolve));
+        }
+        res.end();
+      },
+    }),
+  ];
+}
