@@ -11,6 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { recordAudit } from '../../apps/api/src/audit/audit-log';
 import { demoScenario } from '../../fixtures/demo/scenario';
 import { seedDemo } from '../../libs/db/src/seed/seed-demo';
+import { signIn } from '../support/people';
 import { type TestServer, startTestServer } from '../support/server';
 import { blockingViolations, findAccessibilityViolations } from './support/accessibility';
 import { type TestBrowser, launchBrowser } from './support/browser';
@@ -118,6 +119,34 @@ describe('each demo role sees only what it may do', () => {
     await page.waitForURL((url) => url.pathname === '/sign-in');
     await page.goto(`${server.url}/overview`, { waitUntil: 'networkidle' });
     expect(new URL(page.url()).pathname).toBe('/sign-in');
+  });
+});
+
+describe('a session ended by the server', () => {
+  it('sends the person to sign in again, says why, and brings them back to the page', async () => {
+    await signOutBrowser();
+    await signInThroughPage(page, server.url, account('steward').email, password, '/account');
+    // An admin changes the steward's role elsewhere: the API ends every session of theirs at once.
+    const admin = await signIn(server.url, account('admin').email, password);
+    const change = await fetch(`${server.url}/api/people`, { headers: { cookie: admin.cookie.join('; ') } });
+    const steward = ((await change.json()) as { id: number; email: string }[]).find((person) => person.email === account('steward').email)!;
+    const patched = await fetch(`${server.url}/api/people/${steward.id}`, {
+      method: 'PATCH',
+      headers: { cookie: admin.cookie.join('; '), 'x-csrf-token': admin.csrf, 'content-type': 'application/json' },
+      body: JSON.stringify({ role: 'planner' }),
+    });
+    expect(patched.status).toBe(200);
+    await page.getByLabel('Current password').fill(password);
+    await page.getByLabel('New password', { exact: true }).fill('a-new-long-passphrase');
+    await page.getByLabel('Repeat the new password').fill('a-new-long-passphrase');
+    await page.getByRole('button', { name: 'Change password' }).click();
+    await page.waitForURL((url) => url.pathname === '/sign-in');
+    expect(await page.getByRole('status').textContent()).toContain('Your session has ended.');
+    await page.getByLabel('E-mail address').fill(account('steward').email);
+    await page.getByLabel('Password', { exact: true }).fill(password);
+    await page.getByRole('button', { name: 'Sign in', exact: true }).click();
+    await page.waitForURL((url) => url.pathname === '/account');
+    expect(await accountLink(account('steward').displayName, 'planner').isVisible()).toBe(true);
   });
 });
 

@@ -4,7 +4,6 @@ import { ChangeDetectionStrategy, Component, ElementRef, computed, inject, signa
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatListModule } from '@angular/material/list';
 import { MatSidenavModule } from '@angular/material/sidenav';
 import { MatToolbarModule } from '@angular/material/toolbar';
 import { Router, RouterLink, RouterLinkActive } from '@angular/router';
@@ -20,7 +19,7 @@ const WIDE_LAYOUT = '(min-width: 960px)';
 /** The frame of every page: top bar, section navigation (beside or over the content), main area, cautions. */
 @Component({
   selector: 'lw-shell',
-  imports: [NgTemplateOutlet, MatSidenavModule, MatToolbarModule, MatListModule, MatIconModule, MatButtonModule, RouterLink, RouterLinkActive, LogoMark, Cautions],
+  imports: [NgTemplateOutlet, MatSidenavModule, MatToolbarModule, MatIconModule, MatButtonModule, RouterLink, RouterLinkActive, LogoMark, Cautions],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './shell.html',
   styleUrl: './shell.scss',
