@@ -13,7 +13,7 @@ import { parse, type Options } from 'csv-parse';
 import { qualityFlag } from '@loadwright/db';
 import type { UploadLayout } from '@loadwright/contracts';
 import type { CatalogueEntry } from './catalogue-entry';
-import { csvErrorMessage } from './csv/sniff';
+import { csvErrorMessage, firstInvalidUtf8 } from './csv/sniff';
 import { parseValueCell } from './csv/parse-number';
 import { parseTimestamp, type ParsedTimestamp } from './csv/parse-timestamp';
 import { unitConversion } from './csv/units';
@@ -154,15 +154,21 @@ export async function readUploadFile(path: string, layout: UploadLayout, plan: I
   const file = createReadStream(path, { highWaterMark: 1 << 20 });
   const decoder = new TextDecoder(layout.encoding, { fatal: true });
   let bytesSeen = 0;
+  let linesSeen = 1;
   const decode = new Transform({
     readableObjectMode: false,
     transform(chunk: Buffer, _encoding, done) {
       try {
         done(null, decoder.decode(chunk, { stream: true }));
       } catch {
-        done(new UploadRejection(`The file stops being ${layout.encoding.toUpperCase()} text after byte ${bytesSeen}; save it as CSV UTF-8 and upload it again.`));
+        // Where in this chunk the text breaks (a sequence cut at the chunk's start counts from 0).
+        const offset = Math.max(0, firstInvalidUtf8(chunk, false));
+        let row = linesSeen;
+        for (let i = chunk.indexOf(10); i >= 0 && i < offset; i = chunk.indexOf(10, i + 1)) row++;
+        done(new UploadRejection(`Row ${row} is not ${layout.encoding.toUpperCase()} text (byte 0x${chunk[offset]!.toString(16).toUpperCase().padStart(2, '0')} at offset ${bytesSeen + offset}); save the file as CSV UTF-8 and upload it again.`));
       } finally {
         bytesSeen += chunk.length;
+        for (let i = chunk.indexOf(10); i >= 0; i = chunk.indexOf(10, i + 1)) linesSeen++;
       }
     },
     flush(done) {
@@ -216,9 +222,9 @@ export async function readUploadFile(path: string, layout: UploadLayout, plan: I
   } catch (error) {
     file.destroy();
     if (error instanceof UploadRejection) throw error;
-    const cause = (error as { code?: string }).code?.startsWith('CSV_') ? error : (error as { cause?: unknown }).cause;
+    const cause = (error as { code?: string }).code ? error : (error as { cause?: unknown }).cause;
     if (cause instanceof UploadRejection) throw cause;
-    if ((cause as { code?: string } | undefined)?.code?.startsWith('CSV_')) throw new UploadRejection(csvErrorMessage(cause));
+    if ((cause as { code?: string } | undefined)?.code) throw new UploadRejection(csvErrorMessage(cause, plan.columns));
     throw error;
   }
   await onProgress?.(1, rows);

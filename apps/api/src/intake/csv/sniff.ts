@@ -158,20 +158,26 @@ function splitOutsideQuotes(line: string, delimiter: string): number {
   return fields;
 }
 
-/** A csv-parse error as a sentence naming the row. */
-export function csvErrorMessage(error: unknown, rowOffset = 0): string {
-  const e = error as { code?: string; lines?: number; record?: unknown[]; message?: string };
-  const row = (e.lines ?? 0) + rowOffset;
+/** A csv-parse error as a sentence naming the row (and the column when known). */
+export function csvErrorMessage(error: unknown, columns: readonly string[] = []): string {
+  const e = error as { code?: string; lines?: number; record?: unknown[]; column?: number | string; message?: string };
+  const row = e.lines ?? 0;
+  const column = typeof e.column === 'number' && columns[e.column] ? `, column "${columns[e.column]}"` : '';
   switch (e.code) {
     case 'CSV_RECORD_INCONSISTENT_FIELDS_LENGTH':
-    case 'CSV_RECORD_DONT_MATCH_COLUMNS_LENGTH':
-      return `Row ${row} has ${e.record?.length ?? 'a different number of'} fields where the header has a different number; check for a stray delimiter or a missing cell.`;
+    case 'CSV_RECORD_DONT_MATCH_COLUMNS_LENGTH': {
+      const expected = /expect (\d+), got (\d+)/.exec(e.message ?? '');
+      return expected
+        ? `Row ${row} has ${expected[2]} fields where the header has ${expected[1]}; check that row for a stray delimiter or a missing cell.`
+        : `Row ${row} has a different number of fields than the header; check that row for a stray delimiter or a missing cell.`;
+    }
     case 'CSV_QUOTE_NOT_CLOSED':
-      return `Row ${row}: a quoted field is never closed; check the quotes (") in that row.`;
+      return `The file ends inside a quoted field (row ${row}): a quote (") opened in an earlier row is never closed.`;
+    case 'INVALID_OPENING_QUOTE':
     case 'CSV_INVALID_CLOSING_QUOTE':
     case 'CSV_NON_TRIMABLE_CHAR_AFTER_CLOSING_QUOTE':
-      return `Row ${row}: a quote (") stands inside a field that is not quoted as a whole; quote the whole field and double the inner quote.`;
+      return `Row ${row}${column}: a quote (") stands inside a field; quote the whole field and double the inner quote ("").`;
     default:
-      return `Row ${row} cannot be read as CSV: ${e.message ?? String(error)}`;
+      return `Row ${row} cannot be read as CSV (${e.message ?? String(error)}).`;
   }
 }
