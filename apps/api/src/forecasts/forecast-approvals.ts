@@ -1,5 +1,5 @@
 /**
- * Approving drafts, one or many at once, and previewing what a group approval changes.
+ * Approving drafts, one or many at once.
  *
  * Approval runs in one transaction that first locks the rows of the series involved (FOR NO KEY
  * UPDATE, in id order so two bulk approvals cannot deadlock; NO KEY leaves readings and refits that
@@ -8,16 +8,12 @@
  * version of a series is ever approved. The previous approved version is superseded in the same
  * transaction; the database's immutability triggers keep approved versions as they were approved.
  */
-import type { ApprovalPreview, ApprovalPreviewItem, ApprovalPreviewRequest, ApprovalResult } from '@loadwright/contracts';
+import type { ApprovalResult } from '@loadwright/contracts';
 import { forecastVersions, type Database } from '@loadwright/db';
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { recordAudit } from '../audit/audit-log';
 import { HttpProblem } from '../errors/http-problem';
-import { horizonPeak } from './daily-peaks';
 import type { Caller } from './forecast-adjustments';
-import { adjustmentsOf, currentVersions, findSeries, pointsOf, seriesInScope, type SeriesScope } from './forecast-repository';
-import { effectiveValues } from './forecast-review';
-import { energyDifference, percentDifference } from './version-comparison';
 
 /** Why a listed version could not be approved. */
 function staleReason(versionId: number, state: string | undefined): string {
@@ -85,44 +81,4 @@ export async function approveVersions(db: Database, versionIds: number[], { acto
     }
     return { approvedAt: approvedAt.toISOString(), approved };
   });
-}
-
-/** What approving the current drafts of the series in scope would change, series by series. */
-export async function previewApprovals(db: Database, request: ApprovalPreviewRequest): Promise<ApprovalPreview> {
-  let scope: SeriesScope;
-  if (request.parentId !== undefined) {
-    if (!(await findSeries(db, request.parentId))) throw new HttpProblem('notFound', `No series with id ${request.parentId}.`);
-    scope = { kind: 'subtree', rootId: request.parentId };
-  } else scope = { kind: 'series', ids: [...new Set(request.seriesIds!)] };
-
-  const inScope = await seriesInScope(db, scope);
-  if (scope.kind === 'series') {
-    const found = new Set(inScope.map((row) => row.id));
-    const missing = scope.ids.filter((id) => !found.has(id));
-    if (missing.length > 0) throw new HttpProblem('notFound', `No load series with id ${missing.join(', ')}.`);
-  }
-
-  const versions = await currentVersions(db, inScope.map((row) => row.id));
-  const ids = versions.map((row) => row.id);
-  const [points, adjustments] = await Promise.all([pointsOf(db, ids), adjustmentsOf(db, ids)]);
-
-  const items: ApprovalPreviewItem[] = inScope.map((seriesRow) => {
-    const draft = versions.find((row) => row.seriesId === seriesRow.id && row.state === 'draft');
-    const approved = versions.find((row) => row.seriesId === seriesRow.id && row.state === 'approved');
-    const draftValues = draft ? effectiveValues(points.get(draft.id)!, adjustments.get(draft.id)!) : [];
-    const approvedValues = approved ? effectiveValues(points.get(approved.id)!, adjustments.get(approved.id)!) : [];
-    const draftPeak = horizonPeak(draftValues, seriesRow.timeZone);
-    const approvedPeak = horizonPeak(approvedValues, seriesRow.timeZone);
-    const bothPeaks = draftPeak !== null && approvedPeak !== null;
-    return {
-      series: seriesRow,
-      draft: draft ? { versionId: draft.id, issuedAt: draft.issuedAt.toISOString(), origin: draft.origin.toISOString(), adjustmentCount: draft.adjustmentCount, peak: draftPeak } : null,
-      approved: approved ? { versionId: approved.id, approvedAt: approved.approvedAt?.toISOString() ?? null, origin: approved.origin.toISOString(), peak: approvedPeak } : null,
-      peakDifference: bothPeaks ? draftPeak.value - approvedPeak.value : null,
-      peakDifferencePercent: bothPeaks ? percentDifference(draftPeak.value, approvedPeak.value) : null,
-      energy: draft && approved ? energyDifference(draftValues, approvedValues, seriesRow.intervalMinutes) : null,
-    };
-  });
-  const versionIds = items.flatMap((item) => (item.draft ? [item.draft.versionId] : []));
-  return { items, versionIds, withoutDraft: items.length - versionIds.length };
 }

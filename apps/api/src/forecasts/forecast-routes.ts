@@ -20,7 +20,8 @@ import type { AppContext } from '../app-context';
 import { clientAddress } from '../auth/client-address';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
 import { addAdjustment, removeAdjustment } from './forecast-adjustments';
-import { approveVersions, previewApprovals } from './forecast-approvals';
+import { previewApprovals } from './approval-preview';
+import { approveVersions } from './forecast-approvals';
 import { streamForecastCsv, streamForecastJson } from './forecast-export';
 import { reviewForecast, versionDetail, versionPage } from './forecast-review';
 

@@ -1,0 +1,64 @@
+/**
+ * What approving the current drafts of some series or of a group would change: for each series the
+ * draft's and the approved version's peak over their horizons, and the energy difference over the
+ * intervals both cover (adjusted numbers where adjusted).
+ */
+import type { ApprovalPreview, ApprovalPreviewItem, ApprovalPreviewRequest, ForecastSeries } from '@loadwright/contracts';
+import type { Database } from '@loadwright/db';
+import { HttpProblem } from '../errors/http-problem';
+import { horizonPeak } from './daily-peaks';
+import { adjustmentsOf, currentVersions, findSeries, pointsOf, seriesInScope, type SeriesScope } from './forecast-repository';
+import { effectiveValues } from './forecast-review';
+import { energyDifference, percentDifference } from './version-comparison';
+
+/** Series whose versions a preview loads per round trip. */
+const seriesPerBatch = 200;
+
+/** What approving the current drafts of the series in scope would change, series by series. */
+export async function previewApprovals(db: Database, request: ApprovalPreviewRequest): Promise<ApprovalPreview> {
+  let scope: SeriesScope;
+  if (request.parentId !== undefined) {
+    if (!(await findSeries(db, request.parentId))) throw new HttpProblem('notFound', `No series with id ${request.parentId}.`);
+    scope = { kind: 'subtree', rootId: request.parentId };
+  } else scope = { kind: 'series', ids: [...new Set(request.seriesIds!)] };
+
+  const inScope = await seriesInScope(db, scope);
+  if (scope.kind === 'series') {
+    const found = new Set(inScope.map((row) => row.id));
+    const missing = scope.ids.filter((id) => !found.has(id));
+    if (missing.length > 0) throw new HttpProblem('notFound', `No load series with id ${missing.join(', ')}.`);
+  }
+
+  const items: ApprovalPreviewItem[] = [];
+  // A batch of series at a time, so a whole-system preview never holds every point at once.
+  for (let start = 0; start < inScope.length; start += seriesPerBatch) {
+    items.push(...(await previewBatch(db, inScope.slice(start, start + seriesPerBatch))));
+  }
+  const versionIds = items.flatMap((item) => (item.draft ? [item.draft.versionId] : []));
+  return { items, versionIds, withoutDraft: items.length - versionIds.length };
+}
+
+/** Preview items of some series: their current draft and approved versions compared. */
+async function previewBatch(db: Database, inScope: ForecastSeries[]): Promise<ApprovalPreviewItem[]> {
+  const versions = await currentVersions(db, inScope.map((row) => row.id));
+  const ids = versions.map((row) => row.id);
+  const [points, adjustments] = await Promise.all([pointsOf(db, ids), adjustmentsOf(db, ids)]);
+
+  return inScope.map((seriesRow) => {
+    const draft = versions.find((row) => row.seriesId === seriesRow.id && row.state === 'draft');
+    const approved = versions.find((row) => row.seriesId === seriesRow.id && row.state === 'approved');
+    const draftValues = draft ? effectiveValues(points.get(draft.id)!, adjustments.get(draft.id)!) : [];
+    const approvedValues = approved ? effectiveValues(points.get(approved.id)!, adjustments.get(approved.id)!) : [];
+    const draftPeak = horizonPeak(draftValues, seriesRow.timeZone);
+    const approvedPeak = horizonPeak(approvedValues, seriesRow.timeZone);
+    const bothPeaks = draftPeak !== null && approvedPeak !== null;
+    return {
+      series: seriesRow,
+      draft: draft ? { versionId: draft.id, issuedAt: draft.issuedAt.toISOString(), origin: draft.origin.toISOString(), adjustmentCount: draft.adjustmentCount, peak: draftPeak } : null,
+      approved: approved ? { versionId: approved.id, approvedAt: approved.approvedAt?.toISOString() ?? null, origin: approved.origin.toISOString(), peak: approvedPeak } : null,
+      peakDifference: bothPeaks ? draftPeak.value - approvedPeak.value : null,
+      peakDifferencePercent: bothPeaks ? percentDifference(draftPeak.value, approvedPeak.value) : null,
+      energy: draft && approved ? energyDifference(draftValues, approvedValues, seriesRow.intervalMinutes) : null,
+    };
+  });
+}
