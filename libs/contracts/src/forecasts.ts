@@ -2,6 +2,21 @@
  * Forecast review, adjustment, approval and hand-on: what the series page, the approval screens and
  * downstream systems read and send.
  *
+ * Routes (under /api), with the permission each needs:
+ * - GET    series/:id/forecast                      data.read          → forecastReviewSchema
+ * - GET    series/:id/forecast-versions             data.read          forecastVersionsQuerySchema → forecastVersionPageSchema
+ * - GET    forecast-versions/:id                    data.read          → forecastVersionDetailSchema
+ * - POST   forecast-versions/:id/adjustments        forecasts.approve  createAdjustmentRequestSchema → 201 forecastAdjustmentSchema
+ * - DELETE forecast-versions/:id/adjustments/:aid   forecasts.approve  → 204
+ * - POST   forecast-versions/:id/approve            forecasts.approve  → approvalResultSchema
+ * - POST   forecast-approvals/preview               forecasts.approve  approvalPreviewRequestSchema → approvalPreviewSchema
+ * - POST   forecast-approvals                       forecasts.approve  bulkApprovalRequestSchema → approvalResultSchema
+ * - GET    exports/forecasts.csv                    data.read (tokens) forecastExportQuerySchema → text/csv (build links with forecastExportPath)
+ * - GET    exports/forecasts                        data.read (tokens) forecastExportQuerySchema → forecastExportSchema
+ * Problems: 404 unknown series/version; 409 (`/problems/conflict`) when a version is no longer a draft
+ * (adjusting or approving an approved or superseded version; a bulk approval lists every stale version
+ * in `errors` with a pointer `/versionIds/<index>` and approves nothing); 400 with pointers for input.
+ *
  * Conventions used throughout:
  * - Instants (`ts`, `issuedAt`, …) are UTC ISO 8601 strings. A forecast point's `ts` is the START of
  *   its interval; the interval is `[ts, ts + intervalMinutes)` and its value is the mean demand over
