@@ -201,6 +201,28 @@ describe('an admin invites someone, who signs in through the e-mailed link', () 
     expect(await page.getByRole('row', { name: new RegExp(account('viewer').displayName) }).textContent()).toContain('Active');
   });
 
+  it('changes a role after confirmation', async () => {
+    const name = account('viewer').displayName;
+    await page.getByRole('combobox', { name: `Role of ${name}` }).click();
+    await page.getByRole('option', { name: 'planner' }).click();
+    await page.getByRole('dialog', { name: `Make ${name} a planner?` }).getByRole('button', { name: 'Change role' }).click();
+    await page.getByRole('status').getByText(`${name} is now a planner.`).waitFor();
+    expect(await page.getByRole('combobox', { name: `Role of ${name}` }).textContent()).toContain('planner');
+  });
+
+  it('deactivates and reactivates someone, each after confirmation', async () => {
+    const name = account('steward').displayName;
+    const row = () => page.getByRole('row', { name: new RegExp(name) });
+    await page.getByRole('button', { name: `Deactivate ${name}` }).click();
+    await page.getByRole('dialog', { name: `Deactivate ${name}?` }).getByRole('button', { name: 'Deactivate' }).click();
+    await page.getByRole('status').getByText(`${name} is deactivated.`).waitFor();
+    expect(await row().textContent()).toContain('Deactivated');
+    await page.getByRole('button', { name: `Reactivate ${name}` }).click();
+    await page.getByRole('dialog', { name: `Reactivate ${name}?` }).getByRole('button', { name: 'Reactivate' }).click();
+    await page.getByRole('status').getByText(`${name} is active again.`).waitFor();
+    expect(await row().textContent()).toContain('Active');
+  });
+
   let inviteLink: URL;
 
   it('finds the invitation in the Outbox with its plain-text and sandboxed HTML parts', async () => {
