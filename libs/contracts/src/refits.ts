@@ -62,6 +62,8 @@ export const refitRunSummarySchema = z.object({
 export const refitPhaseTimingsSchema = z.object({
   read: z.number().optional(),
   fit: z.number().optional(),
+  /** CPU milliseconds of the fit (wall time above also counts waiting for a busy machine). */
+  fitCpu: z.number().optional(),
   diagnose: z.number().optional(),
   forecast: z.number().optional(),
   write: z.number().optional(),

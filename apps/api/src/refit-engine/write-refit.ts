@@ -18,6 +18,8 @@ export type WriteResult = { written: true; fitId: number; versionId: number } | 
 export interface PhaseTimings {
   read: number;
   fit: number;
+  /** CPU milliseconds of the fit. */
+  fitCpu: number;
   diagnose: number;
   forecast: number;
   write?: number;
