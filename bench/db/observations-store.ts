@@ -14,6 +14,8 @@
  */
 import { spawn } from 'node:child_process';
 import { once } from 'node:events';
+import { readFileSync } from 'node:fs';
+import { loadavg } from 'node:os';
 import { parseArgs } from 'node:util';
 import pg from 'pg';
 
@@ -43,6 +45,13 @@ const catalogueDdl = [
   'create table uploads (id integer primary key)',
 ];
 
+/** History of superseded readings, for the designs whose merge path is measured. */
+const revisionsDdl = `create table observation_revisions (
+  ts timestamptz not null, value double precision, superseded_at timestamptz not null default now(),
+  series_id integer not null, upload_id integer, superseded_by_upload_id integer,
+  quality smallint not null, revision smallint not null, estimated double precision,
+  primary key (series_id, ts, revision))`;
+
 const singleCurrentReads = {
   seriesRange:
     'select ts, value, estimated, quality from observations where series_id = $1 and ts >= $2 and ts < $3 order by ts',
@@ -58,11 +67,7 @@ const designs: Record<string, Design> = {
     ddl: [
       ...catalogueDdl,
       `create table observations (${currentColumns}, primary key (series_id, ts))`,
-      `create table observation_revisions (
-         ts timestamptz not null, value double precision, superseded_at timestamptz not null default now(),
-         series_id integer not null references series(id) on delete cascade, upload_id integer references uploads(id),
-         superseded_by_upload_id integer references uploads(id), quality smallint not null, revision smallint not null,
-         estimated double precision, primary key (series_id, ts, revision))`,
+      revisionsDdl,
     ],
     ...singleCurrentReads,
   },
@@ -72,6 +77,29 @@ const designs: Record<string, Design> = {
     ddl: [
       ...catalogueDdl,
       `create table observations (${currentColumns.replace(/ references [a-z]+\(id\)( on delete cascade)?/g, '')}, primary key (series_id, ts))`,
+      revisionsDdl,
+    ],
+    ...singleCurrentReads,
+  },
+  stmtcheck: {
+    name: 'stmtcheck',
+    description: 'as nofk, with statement-level triggers checking series and uploads once per statement',
+    ddl: [
+      ...catalogueDdl,
+      `create table observations (${currentColumns.replace(/ references [a-z]+\(id\)( on delete cascade)?/g, '')}, primary key (series_id, ts))`,
+      revisionsDdl,
+      ...readFileSync(new URL('../../drizzle/0004_observations_set_based_reference_checks.sql', import.meta.url), 'utf8')
+        .split('--> statement-breakpoint')
+        .filter((statement) => /observations_references_guard\(\)/.test(statement) && !/^\s*ALTER/.test(statement)),
+    ],
+    ...singleCurrentReads,
+  },
+  seriesfk: {
+    name: 'seriesfk',
+    description: 'as plain, keeping the foreign key to series but not the one to uploads',
+    ddl: [
+      ...catalogueDdl,
+      `create table observations (${currentColumns.replace(/ references uploads\(id\)/, '')}, primary key (series_id, ts))`,
     ],
     ...singleCurrentReads,
   },
@@ -334,6 +362,7 @@ async function benchDesign(design: Design) {
     await client.query(
       `insert into series select i, 'S' || i from generate_series(1, ${seriesCount}) i; insert into uploads values (1), (2)`,
     );
+    const loadBefore = loadavg()[0]!;
     const copy = await copyLoad(url.toString());
     await client.query('vacuum analyze observations');
     const stored = await sizes(client);
@@ -351,13 +380,15 @@ async function benchDesign(design: Design) {
       20,
     );
     const insert = await unnestInsert(client);
-    const merged = design.name === 'plain' ? await stagedMerge(url.toString()) : undefined;
+    const merged = design.ddl.includes(revisionsDdl) ? await stagedMerge(url.toString()) : undefined;
     const revisions = merged
       ? Number((await client.query('select count(*) as n from observation_revisions')).rows[0].n)
       : undefined;
     return {
       design: design.name,
       description: design.description,
+      /** 1-minute load average before and after, on a machine others share: rates vary with it. */
+      loadAverage: { before: round(loadBefore), after: round(loadavg()[0]!) },
       copy: { rows: copy.rows, seconds: round(copy.seconds), rowsPerSecond: Math.round(copy.rows / copy.seconds) },
       unnestInsert: { rows: insert.rows, seconds: round(insert.seconds), rowsPerSecond: Math.round(insert.rows / insert.seconds) },
       stagedMerge: merged && {

@@ -162,6 +162,30 @@ describe('constraints of the core schema', () => {
     expect(rows).toEqual([{ value: 4.2 }]);
   });
 
+  it('check the series and upload of readings once per statement, as foreign keys would', async () => {
+    const ts = new Date('2026-01-06T00:00:00Z');
+    const missingSeries = [{ seriesId: loadSeriesId, ts, value: 1 }, { seriesId: 999_999, ts, value: 2 }];
+    expect(await sqlState(() => handle.db.insert(schema.observations).values(missingSeries))).toBe('23503');
+    expect(
+      await sqlState(() => handle.db.insert(schema.observations).values({ seriesId: loadSeriesId, ts, value: 1, uploadId: 999_999 })),
+    ).toBe('23503');
+    const { rows } = await client.query('select count(*)::int as n from observations where ts = $1', [ts]);
+    expect(rows[0].n).toBe(0);
+  });
+
+  it('refuse to delete an upload that landed readings, and delete a failed one', async () => {
+    const [landed] = await handle.db
+      .insert(schema.uploads)
+      .values({ fileName: 'landed.csv', contentSha256: 'd'.repeat(64), byteSize: 1, status: 'done' })
+      .returning();
+    const [failed] = await handle.db
+      .insert(schema.uploads)
+      .values({ fileName: 'failed.csv', contentSha256: 'e'.repeat(64), byteSize: 1, status: 'failed' })
+      .returning();
+    expect(await sqlState(() => client.query('delete from uploads where id = $1', [landed!.id]))).toBe('23503');
+    await client.query('delete from uploads where id = $1', [failed!.id]);
+  });
+
   it('refuse a row with neither a raw reading nor an estimate', async () => {
     const ts = new Date('2026-01-05T11:00:00Z');
     expect(await sqlState(() => handle.db.insert(schema.observations).values({ seriesId: loadSeriesId, ts }))).toBe('23514');
@@ -299,10 +323,13 @@ describe('forecast versions once they leave draft', () => {
     expect(await sqlState(() => handle.pool.query(`update forecast_versions set superseded_at = now() - interval '1 day' where id = $1`, [id]))).toBe('55000');
   });
 
-  it('still let a deleted series take its versions, points and adjustments with it', async () => {
+  it('still let a deleted series take its versions, points, adjustments and readings with it', async () => {
     await draftWithPoints(new Date('2026-02-02T00:00:00Z'));
+    await handle.db.insert(schema.observations).values({ seriesId, ts: new Date('2026-01-31T23:00:00Z'), value: 7 });
+    await handle.db.insert(schema.observationRevisions).values({ seriesId, ts: new Date('2026-01-31T23:00:00Z'), value: 6, quality: 0, revision: 1 });
     await handle.pool.query('delete from series where id = $1', [seriesId]);
-    const { rows } = await handle.pool.query('select (select count(*) from forecast_versions)::int as v, (select count(*) from forecast_points)::int as p');
-    expect(rows[0]).toEqual({ v: 0, p: 0 });
+    const { rows } = await handle.pool.query(`select (select count(*) from forecast_versions)::int as v, (select count(*) from forecast_points)::int as p,
+      (select count(*) from observations)::int as o, (select count(*) from observation_revisions)::int as r`);
+    expect(rows[0]).toEqual({ v: 0, p: 0, o: 0, r: 0 });
   });
 });

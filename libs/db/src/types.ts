@@ -26,6 +26,7 @@ import type {
   observations,
   oneTimeTokenPurpose,
   oneTimeTokens,
+  profileForm,
   organisation,
   refitRunSeries,
   refitRuns,
@@ -178,6 +179,8 @@ export type HolidaySource = (typeof holidaySource.enumValues)[number];
 export type ModelMethod = (typeof modelMethod.enumValues)[number];
 /** One value of the `seasonalTreatment` enum. */
 export type SeasonalTreatment = (typeof seasonalTreatment.enumValues)[number];
+/** One value of the `profileForm` enum. */
+export type ProfileForm = (typeof profileForm.enumValues)[number];
 /** One value of the `refitTrigger` enum. */
 export type RefitTrigger = (typeof refitTrigger.enumValues)[number];
 /** One value of the `refitStatus` enum. */
