@@ -60,7 +60,7 @@ export type ValidationRule = (typeof validationRules)[number];
 /** What each rule means, for the report's headings. */
 export const validationRuleDescriptions: Record<ValidationRule, string> = {
   gap: 'Missing intervals between readings (short gaps are estimated, longer ones only reported)',
-  spike: 'Reading far from its neighbours (Hampel identifier: more than 4 robust standard deviations from the median of the 25 readings around it)',
+  spike: 'Reading far from its neighbours (Hampel identifier: more than 6 robust standard deviations from the median of the 13 readings around it)',
   flat_line: 'Identical values for longer than the limit (6 hours for load, 12 for temperature)',
   negative: 'Load below zero',
   impossible: 'Beyond what the series can physically read (load over 10× its robust maximum; temperature outside −60…60 °C)',
@@ -122,7 +122,14 @@ export const wideMappingSchema = z.object({
   layout: z.literal('wide'),
   timestampColumn: columnName,
   seriesColumns: z
-    .array(z.object({ column: columnName, seriesKey: z.string().min(1, 'Choose a series') }))
+    .array(
+      z.object({
+        column: columnName,
+        seriesKey: z.string().min(1, 'Choose a series'),
+        /** This column's unit when it differs from the upload's (e.g. a °F column beside kW ones). */
+        unit: z.enum(uploadUnits).optional(),
+      }),
+    )
     .min(1, 'Map at least one column to a series'),
 });
 

@@ -2,7 +2,7 @@
  * Checks a confirmed mapping against the file's columns, first rows and the catalogue, and turns it
  * into a plan the import follows. A mapping that does not fit gets one sentence naming the column.
  */
-import type { UploadLayout, UploadMapping, UploadPreview, UploadSettings } from '@loadwright/contracts';
+import type { UploadLayout, UploadMapping, UploadPreview, UploadSettings, UploadUnit } from '@loadwright/contracts';
 import type { CatalogueEntry } from './catalogue-entry';
 import { parseValueCell } from './csv/parse-number';
 import { parseTimestamp } from './csv/parse-timestamp';
@@ -16,8 +16,8 @@ export interface ImportPlan {
   timestampIndex: number;
   /** Long files: the value column and either the key column or the one series. */
   long: { valueIndex: number; keyIndex: number; series: CatalogueEntry | null } | null;
-  /** Wide files: each value column and its series. */
-  wide: Array<{ index: number; series: CatalogueEntry }> | null;
+  /** Wide files: each value column, its series and its unit. */
+  wide: Array<{ index: number; series: CatalogueEntry; unit: UploadUnit }> | null;
   /** The catalogue by key, for long files with a key column. */
   seriesByKey: Map<string, CatalogueEntry>;
 }
@@ -49,9 +49,9 @@ export function planImport(
     const k = cells.findIndex((cell) => cell.trim() !== '');
     return fail(`Column "${columns[index]}" holds no numbers${k >= 0 ? ` (row ${row(k)} reads "${cells[k]}")` : ''}; map the column that holds the readings.`);
   };
-  const checkUnit = (series: CatalogueEntry) => {
-    const conversion = unitConversion(settings.unit, series.unit, series.intervalMinutes);
-    return typeof conversion === 'string' ? fail(`Unit ${settings.unit} does not fit series "${series.key}": ${conversion}.`) : null;
+  const checkUnit = (series: CatalogueEntry, unit: UploadUnit = settings.unit) => {
+    const conversion = unitConversion(unit, series.unit, series.intervalMinutes);
+    return typeof conversion === 'string' ? fail(`Unit ${unit} does not fit series "${series.key}": ${conversion}.`) : null;
   };
 
   if (mapping.layout === 'long') {
@@ -87,7 +87,7 @@ export function planImport(
 
   const wide: ImportPlan['wide'] = [];
   const seenSeries = new Set<string>();
-  for (const { column, seriesKey } of mapping.seriesColumns) {
+  for (const { column, seriesKey, unit = settings.unit } of mapping.seriesColumns) {
     const index = indexOf(column);
     if (index < 0) return missing('value', column);
     if (index === timestampIndex) return fail(`Column "${column}" cannot be both the timestamp and a value column.`);
@@ -96,9 +96,9 @@ export function planImport(
     if (!series) return fail(`Column "${column}" is mapped to series "${seriesKey}", which is not in the catalogue.`);
     if (seenSeries.has(seriesKey)) return fail(`Series "${seriesKey}" is mapped from two columns; map each series once.`);
     seenSeries.add(seriesKey);
-    const unitProblem = checkUnit(series);
+    const unitProblem = checkUnit(series, unit);
     if (unitProblem) return fail(`Column "${column}": ${unitProblem.message}`);
-    wide.push({ index, series });
+    wide.push({ index, series, unit });
   }
   if (!wide.some((entry) => checkValues(entry.index) === null)) return checkValues(wide[0]!.index)!;
   return { ok: true, plan: { settings, columns, timestampIndex, long: null, wide, seriesByKey } };

@@ -32,7 +32,7 @@ export function proposeMapping(layout: UploadLayout, preview: UploadPreview, cat
     const timestampColumn = columns[timestampIndex]!;
     const wide = columns.map((name, i) => ({ name, i, entry: byKey.get(name.trim().toLowerCase()) })).filter((c) => c.entry && c.i !== timestampIndex);
     if (wide.length > 0) {
-      mapping = { layout: 'wide', timestampColumn, seriesColumns: wide.map((c) => ({ column: c.name, seriesKey: c.entry!.key })) };
+      mapping = { layout: 'wide', timestampColumn, seriesColumns: wide.map((c) => ({ column: c.name, seriesKey: c.entry!.key, unit: unitFromName(c.name) ?? (c.entry!.unit as UploadUnit) })) };
       mapped = wide.map((c) => c.entry!);
       const unmatched = columns.filter((name, i) => i !== timestampIndex && !byKey.has(name.trim().toLowerCase()));
       if (unmatched.length > 0) notes.push(`Columns not matched to a series and left out: ${unmatched.join(', ')}.`);

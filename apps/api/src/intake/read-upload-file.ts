@@ -11,7 +11,7 @@ import { createReadStream } from 'node:fs';
 import { Transform } from 'node:stream';
 import { parse, type Options } from 'csv-parse';
 import { qualityFlag } from '@loadwright/db';
-import type { UploadLayout } from '@loadwright/contracts';
+import type { UploadLayout, UploadUnit } from '@loadwright/contracts';
 import type { CatalogueEntry } from './catalogue-entry';
 import { csvErrorMessage, firstInvalidUtf8 } from './csv/sniff';
 import { parseValueCell } from './csv/parse-number';
@@ -62,11 +62,11 @@ export async function readUploadFile(path: string, layout: UploadLayout, plan: I
   const headerRows = layout.hasHeader ? 1 : 0;
   const columnName = (index: number) => plan.columns[index] ?? `column ${index + 1}`;
 
-  const routeFor = (series: CatalogueEntry, line: number, column: string): SeriesRoute => {
+  const routeFor = (series: CatalogueEntry, line: number, column: string, unit: UploadUnit = settings.unit): SeriesRoute => {
     let route = routes.get(series.key);
     if (route) return route;
-    const convert = unitConversion(settings.unit, series.unit, series.intervalMinutes);
-    if (typeof convert === 'string') throw new UploadRejection(`Row ${line}, column "${column}": unit ${settings.unit} does not fit series "${series.key}": ${convert}.`);
+    const convert = unitConversion(unit, series.unit, series.intervalMinutes);
+    if (typeof convert === 'string') throw new UploadRejection(`Row ${line}, column "${column}": unit ${unit} does not fit series "${series.key}": ${convert}.`);
     const intake = { series, readings: new ReadingColumns(4096) };
     bySeries.set(series.id, intake);
     route = { intake, convert, grid: intervalGrid(series.intervalMinutes, series.timeZone) };
@@ -212,9 +212,9 @@ export async function readUploadFile(path: string, layout: UploadLayout, plan: I
         const value = valueOf(cells[valueIndex] ?? '', line, valueIndex);
         if (value !== null) take(routeFor(series, line, columnName(keyIndex >= 0 ? keyIndex : valueIndex)), stamp, value, line);
       } else {
-        for (const { index, series } of plan.wide!) {
+        for (const { index, series, unit } of plan.wide!) {
           const value = valueOf(cells[index] ?? '', line, index);
-          if (value !== null) take(routeFor(series, line, columnName(index)), stamp, value, line);
+          if (value !== null) take(routeFor(series, line, columnName(index), unit), stamp, value, line);
         }
       }
       if (rows % 50_000 === 0) await onProgress?.(file.bytesRead / size, rows);

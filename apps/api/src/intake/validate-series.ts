@@ -14,7 +14,7 @@ import type { Finding } from './findings';
 import type { IntervalGrid } from './interval-grid';
 import { flatLineLimit, flatRuns } from './rules/flat-lines';
 import { findGaps } from './rules/gaps';
-import { hampelOutliers } from './rules/hampel-spikes';
+import { hampelDefaults, hampelOutliers } from './rules/hampel-spikes';
 import { isNegativeLoad, possibleRange, type BoundsSubject } from './rules/physical-bounds';
 import type { SeriesReadings } from './series-readings';
 
@@ -70,7 +70,7 @@ export function validateSeries(readings: SeriesReadings, options: ValidateOption
   for (const i of hampelOutliers(values, n)) {
     if (quality[i]! & unusable) continue;
     quality[i]! |= qualityFlag.spike;
-    finding('spike', i, { method: 'Hampel identifier', halfWindow: 12, k: 4 });
+    finding('spike', i, { method: 'Hampel identifier', ...hampelDefaults });
   }
   for (const run of flatRuns(values, gridIndex, n, flatLineLimit(options.kind, grid.intervalMinutes))) {
     for (let i = run.start; i <= run.end; i++) {

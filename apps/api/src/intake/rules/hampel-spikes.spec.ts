@@ -17,10 +17,18 @@ describe('hampelOutliers', () => {
   it('matches the definition on a hand-worked window: median 12, MAD 1, threshold 4 × 1.4826 = 5.93', () => {
     // Window of all 9 readings (h = 4): sorted 10 11 11 12 12 12 13 13 18 → median 12; |x − 12| sorted 0 0 0 1 1 1 1 2 6 → MAD 1.
     const values = Float64Array.from([12, 11, 13, 12, 18, 12, 11, 13, 10]);
-    expect(hampelOutliers(values, 9, { halfWindow: 4 })).toEqual([4]);
+    expect(hampelOutliers(values, 9, { halfWindow: 4, k: 4 })).toEqual([4]);
     // 17.9 − 12 = 5.9 < 5.9304: not flagged.
     values[4] = 17.9;
-    expect(hampelOutliers(values, 9, { halfWindow: 4 })).toEqual([]);
+    expect(hampelOutliers(values, 9, { halfWindow: 4, k: 4 })).toEqual([]);
+  });
+
+  it('judges only full windows: the first and last h readings are left alone', () => {
+    const values = Float64Array.from({ length: 40 }, (_, h) => daily(h));
+    values[2] = 1e6;
+    values[37] = 1e6;
+    values[20] = 1e6;
+    expect(hampelOutliers(values, 40)).toEqual([20]);
   });
 
   it('does not judge a window whose MAD is zero (a flat stretch)', () => {
