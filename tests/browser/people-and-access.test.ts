@@ -122,6 +122,38 @@ describe('each demo role sees only what it may do', () => {
   });
 });
 
+describe('a forgotten password', () => {
+  it('is reset through the e-mailed link, and the new password signs in', async () => {
+    const planner = account('planner');
+    const newPassword = 'harvest-moon-over-the-weir';
+    await signOutBrowser();
+    await page.goto(`${server.url}/sign-in`, { waitUntil: 'networkidle' });
+    await page.getByLabel('E-mail address').fill(planner.email);
+    await page.getByRole('link', { name: 'Forgot password?' }).click();
+    await page.getByRole('heading', { level: 1, name: 'Reset your password' }).waitFor();
+    expect(await page.getByLabel('E-mail address').inputValue()).toBe(planner.email);
+    await page.getByRole('button', { name: 'Send reset link' }).click();
+    await page.getByRole('status').getByText('If that address belongs to an active account, a reset link is on its way.').waitFor();
+    // Read the link from what the mail catcher received over SMTP, as an admin would on the Outbox page.
+    const admin = await signIn(server.url, account('admin').email, password);
+    const headers = { cookie: admin.cookie.join('; ') };
+    const caught = (await (await fetch(`${server.url}/api/outbox`, { headers })).json()) as { id: string; to: string[]; subject: string }[];
+    const reset = caught.find((mail) => mail.to.includes(planner.email) && mail.subject === 'Reset your Loadwright password')!;
+    const { text } = (await (await fetch(`${server.url}/api/outbox/${reset.id}`, { headers })).json()) as { text: string };
+    const link = new URL(text.match(/https?:\/\/\S+/)![0]);
+    await page.goto(`${server.url}${link.pathname}${link.search}`, { waitUntil: 'networkidle' });
+    await page.getByLabel('New password', { exact: true }).fill(newPassword);
+    await page.getByLabel('Repeat the new password').fill(newPassword);
+    await page.getByRole('button', { name: 'Set password' }).click();
+    await page.getByRole('status').getByText('Password set. You can sign in now.').waitFor();
+    await page.getByRole('link', { name: 'Go to sign in' }).click();
+    await page.getByLabel('E-mail address').fill(planner.email);
+    await page.getByLabel('Password', { exact: true }).fill(newPassword);
+    await page.getByRole('button', { name: 'Sign in', exact: true }).click();
+    await page.waitForURL((url) => url.pathname === '/overview');
+  });
+});
+
 describe('a session ended by the server', () => {
   it('sends the person to sign in again, says why, and brings them back to the page', async () => {
     await signOutBrowser();
@@ -281,6 +313,7 @@ describe('an admin invites someone, who signs in through the e-mailed link', () 
     await page.getByLabel('Repeat the new password').fill('another-long-passphrase');
     await page.getByRole('button', { name: 'Change password' }).click();
     await page.getByText('Not your current password').waitFor();
+    expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
   });
 });
 
@@ -312,6 +345,7 @@ describe('API tokens and the audit log', () => {
     expect(await row.textContent()).toContain('read-write');
     expect(await row.textContent()).toContain('Not yet');
     expect(await row.textContent()).toContain('Ines Calloway');
+    expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
   });
 
   it('revokes a token after confirmation', async () => {
