@@ -6,6 +6,8 @@ import { PRODUCT_SECTIONS, type ProductSection } from './core/product-sections';
 /** Lazy loaders of the sections that have shipped, by path. */
 const sectionPages: Readonly<Record<string, () => Promise<Type<unknown>>>> = {
   overview: () => import('./overview/overview').then((m) => m.Overview),
+  series: () => import('./series-catalogue/series-catalogue').then((m) => m.SeriesCatalogue),
+  uploads: () => import('./uploads/uploads').then((m) => m.Uploads),
   people: () => import('./people/people').then((m) => m.People),
   'api-tokens': () => import('./api-tokens/api-tokens').then((m) => m.ApiTokens),
   'audit-log': () => import('./audit-log/audit-log').then((m) => m.AuditLog),
@@ -13,7 +15,7 @@ const sectionPages: Readonly<Record<string, () => Promise<Type<unknown>>>> = {
 };
 
 /** Extra paths under a section (e.g. one Outbox message), served by the section's own page. */
-const sectionSubpaths: Readonly<Record<string, readonly string[]>> = { outbox: [':id'] };
+const sectionSubpaths: Readonly<Record<string, readonly string[]>> = { outbox: [':id'], uploads: [':id'] };
 
 /**
  * The routes of one section: its page for people holding the section's permission, then, at the same

@@ -44,7 +44,7 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     icon: 'stacked_line_chart',
     purpose:
       'The series catalogue with a hierarchy filter; for each series its history and forecast with 80 % and 95 % bands, model card, diagnostics, accuracy by horizon, versions and adjustments.',
-    available: false,
+    available: true,
     permission: 'data.read',
     group: 'work',
   },
@@ -53,8 +53,8 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     label: 'Uploads',
     icon: 'upload_file',
     purpose: 'Drop a load or temperature file, map its columns, preview it, follow its progress and read its validation report.',
-    available: false,
-    permission: 'data.read',
+    available: true,
+    permission: 'data.upload',
     group: 'work',
   },
   {

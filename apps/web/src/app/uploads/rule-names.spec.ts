@@ -1,0 +1,15 @@
+import { validationRules } from '@loadwright/contracts';
+import { describe, expect, it } from 'vitest';
+import { detailWords, ruleNames } from './rule-names';
+
+describe('ruleNames', () => {
+  it('names every validation rule the contracts list', () => {
+    expect(Object.keys(ruleNames).sort()).toEqual([...validationRules].sort());
+  });
+});
+
+describe('detailWords', () => {
+  it('spells out keys and rounds limits', () => {
+    expect(detailWords({ intervals: 3, estimated: true, robustSigma: 12.3456789, method: 'linear' })).toBe('intervals 3 · estimated yes · robust sigma 12.3457 · method linear');
+  });
+});

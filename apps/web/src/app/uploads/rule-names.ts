@@ -1,0 +1,39 @@
+import type { ValidationRule } from '@loadwright/contracts';
+
+/** Short headings of the validation rules, as the report lists them. */
+export const ruleNames: Record<ValidationRule, string> = {
+  gap: 'Gaps',
+  spike: 'Spikes',
+  flat_line: 'Flat lines',
+  negative: 'Negative values',
+  impossible: 'Impossible values',
+  duplicate_equal: 'Repeated readings (same value)',
+  duplicate_conflict: 'Repeated readings (conflicting values)',
+  off_grid: 'Off the interval grid',
+  future: 'In the future',
+  dst_repeated_hour: 'Repeated daylight-saving hour',
+  dst_missing_hour: 'Missing daylight-saving hour',
+  unparseable: 'Unreadable cells',
+  unknown_series: 'Unknown series',
+  estimated: 'Estimates stored',
+};
+
+/** Rules that record what Loadwright did rather than something wrong with the file. */
+export const informationalRules: ReadonlySet<ValidationRule> = new Set(['estimated']);
+
+/** A finding's rule-specific facts in words, e.g. "intervals 3 · estimated yes". */
+export function detailWords(detail: Record<string, unknown>): string {
+  return Object.entries(detail)
+    .map(([key, value]) => `${spaced(key)} ${typeof value === 'boolean' ? (value ? 'yes' : 'no') : typeof value === 'number' ? roundish(value) : String(value)}`)
+    .join(' · ');
+}
+
+/** camelCase or snake_case to plain words. */
+function spaced(key: string): string {
+  return key.replace(/_/g, ' ').replace(/([a-z])([A-Z])/g, '$1 $2').toLowerCase();
+}
+
+/** Numbers to at most four significant decimals, so limits read cleanly. */
+function roundish(value: number): string {
+  return Number.isInteger(value) ? String(value) : String(Number(value.toPrecision(6)));
+}
