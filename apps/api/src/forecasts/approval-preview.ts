@@ -5,10 +5,10 @@
  */
 import type { ApprovalPreview, ApprovalPreviewItem, ApprovalPreviewRequest, ForecastSeries } from '@loadwright/contracts';
 import type { Database } from '@loadwright/db';
-import { HttpProblem } from '../errors/http-problem';
 import { horizonPeak } from './daily-peaks';
-import { adjustmentsOf, currentVersions, findSeries, pointsOf, seriesInScope, type SeriesScope } from './forecast-repository';
+import { adjustmentsOf, currentVersions, pointsOf } from './forecast-repository';
 import { effectiveValues } from './forecast-review';
+import { resolveSeriesScope } from './series-scope';
 import { energyDifference, percentDifference } from './version-comparison';
 
 /** Series whose versions a preview loads per round trip. */
@@ -16,19 +16,7 @@ const seriesPerBatch = 200;
 
 /** What approving the current drafts of the series in scope would change, series by series. */
 export async function previewApprovals(db: Database, request: ApprovalPreviewRequest): Promise<ApprovalPreview> {
-  let scope: SeriesScope;
-  if (request.parentId !== undefined) {
-    if (!(await findSeries(db, request.parentId))) throw new HttpProblem('notFound', `No series with id ${request.parentId}.`);
-    scope = { kind: 'subtree', rootId: request.parentId };
-  } else scope = { kind: 'series', ids: [...new Set(request.seriesIds!)] };
-
-  const inScope = await seriesInScope(db, scope);
-  if (scope.kind === 'series') {
-    const found = new Set(inScope.map((row) => row.id));
-    const missing = scope.ids.filter((id) => !found.has(id));
-    if (missing.length > 0) throw new HttpProblem('notFound', `No load series with id ${missing.join(', ')}.`);
-  }
-
+  const inScope = (await resolveSeriesScope(db, request)).series;
   const items: ApprovalPreviewItem[] = [];
   // A batch of series at a time, so a whole-system preview never holds every point at once.
   for (let start = 0; start < inScope.length; start += seriesPerBatch) {

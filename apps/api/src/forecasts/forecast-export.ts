@@ -9,11 +9,11 @@ import { exportIntervalConvention, type ExportedPoint, type ExportedSeries, type
 import { forecastVersions, type Database } from '@loadwright/db';
 import { and, eq, inArray } from 'drizzle-orm';
 import type { Response } from 'express';
-import { HttpProblem } from '../errors/http-problem';
 import { adjustPoints } from './adjustment-layer';
 import { csvLine, numberCell, textCell } from './csv-cells';
-import { adjustmentsOf, findSeries, pointsOf, seriesInScope, type SeriesScope } from './forecast-repository';
+import { adjustmentsOf, pointsOf } from './forecast-repository';
 import { localIso } from './local-time';
+import { resolveSeriesScope } from './series-scope';
 
 /** Versions whose points are read and written per round trip. */
 const versionsPerBatch = 100;
@@ -35,24 +35,8 @@ interface ExportPlan {
 
 /** Resolves the query's scope to approved versions; throws not found for unknown series. */
 async function planExport(db: Database, query: ForecastExportQuery): Promise<ExportPlan> {
-  let scope: SeriesScope = { kind: 'all' };
-  let scopeName = 'system';
-  if (query.parent !== undefined) {
-    const parent = await findSeries(db, query.parent);
-    if (!parent) throw new HttpProblem('notFound', `No series with id ${query.parent}.`);
-    scope = { kind: 'subtree', rootId: parent.id };
-    scopeName = parent.key;
-  } else if (query.series !== undefined) {
-    scope = { kind: 'series', ids: [...new Set(query.series)] };
-  }
-  let inScope = await seriesInScope(db, scope);
-  if (scope.kind === 'series') {
-    const found = new Set(inScope.map((row) => row.id));
-    const missing = scope.ids.filter((id) => !found.has(id));
-    if (missing.length > 0) throw new HttpProblem('notFound', `No load series with id ${missing.join(', ')}.`);
-    scopeName = inScope.length === 1 ? inScope[0]!.key : `${inScope.length}-series`;
-  }
-
+  const scope = await resolveSeriesScope(db, { seriesIds: query.series, parentId: query.parent });
+  let inScope = scope.series;
   if (query.seriesLevels) {
     const wanted = new Set<string | null>(query.seriesLevels);
     inScope = inScope.filter((row) => wanted.has(row.level));
@@ -69,7 +53,7 @@ async function planExport(db: Database, query: ForecastExportQuery): Promise<Exp
   }
   entries.sort((a, b) => a.series.id - b.series.id);
   const exported = new Set(entries.map((entry) => entry.series.id));
-  return { entries, withoutApproved: inScope.filter((row) => !exported.has(row.id)), scopeName };
+  return { entries, withoutApproved: inScope.filter((row) => !exported.has(row.id)), scopeName: scope.name };
 }
 
 /** Formats instants in one zone, remembering each: the series of an export share their hours. */
