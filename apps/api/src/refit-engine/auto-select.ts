@@ -7,7 +7,8 @@
  * 3 × 24 hours; its remainder is then shared by every candidate: conditional-MLE AR with
  * the order chosen by AIC up to 6, then while the CPU budget lasts ridge AR over the daily and weekly
  * lags (1–3, 24, 25, 168: yesterday's and last week's level, cheap), NLS ARMA(2,1), and lasso AR over
- * lags 1–48 and 168 (the dearest). Each candidate forecasts the held-out hours from three origins, 24 hours
+ * lags 1–48 and 168 (the dearest; each starts only if its expected cost fits the remaining budget).
+ * Each candidate forecasts the held-out hours from three origins, 24 hours
  * each, with its parameters fixed and the actuals up to each origin (temperatures as observed), and is
  * scored by MAE against seasonal naive on the same hours. Rule: the lowest MAE wins; candidates within
  * 2 % of it are separated by AIC (same remainder, so comparable); seasonal naive wins only when no
@@ -19,6 +20,7 @@ import {
   cmleAr,
   fitArmaPart,
   fitLoadModel,
+  forecastArma,
   forecastLoadModel,
   nlsArma,
   selectOrder,
@@ -27,7 +29,7 @@ import {
   type LoadSeriesData,
 } from '@loadwright/forecasting';
 import { regularisedLags, seasonalNaiveSpec, type ModelDesign } from './model-plan';
-import { extendModel, modelAtOrigin } from './reanchor';
+import { extendModel, modelAtOrigin, type ExtendedModel } from './reanchor';
 import { describeRefitError } from './refit-errors';
 
 /** Settings of the candidate comparison. */
@@ -38,7 +40,7 @@ export interface AutoOptions {
   horizon?: number;
   /** Largest AR order of the conditional-MLE candidate (default 6, capped by the settings). */
   maxArOrder?: number;
-  /** CPU milliseconds after which no optional candidate (NLS, lasso) is started (default 120). */
+  /** CPU milliseconds the candidates may take: an optional one starts only if it should finish within it (default REFIT_AUTO_BUDGET_MS or 130). */
   budgetMs?: number;
   /** Milliseconds clock (default: this process's CPU time, so a busy machine does not shrink the set). */
   clock?: () => number;
@@ -72,7 +74,7 @@ export function autoSelect(design: ModelDesign, data: LoadSeriesData, options: A
   const started = clock();
   const originCount = options.origins ?? 3;
   const horizon = options.horizon ?? 24;
-  const budgetMs = options.budgetMs ?? 120;
+  const budgetMs = options.budgetMs ?? Number(process.env['REFIT_AUTO_BUDGET_MS'] ?? 130);
   const n = data.values.length;
   const holdout = n - originCount * horizon >= MIN_ESTIMATION_HOURS ? originCount * horizon : 0;
   const m = n - holdout;
@@ -81,15 +83,19 @@ export function autoSelect(design: ModelDesign, data: LoadSeriesData, options: A
 
   const designModel = fitLoadModel({ ...design, method: 'cmle', p: Math.min(2, maxP), q: 0 }, estimation);
   const remainder = designModel.remainder;
-  const order = selectOrder(remainder, { method: 'cmle', maxP, criterion: 'aic' });
+  // The order by AIC from Yule-Walker fits (one autocovariance pass each), then one conditional-MLE fit.
+  const order = selectOrder(remainder, { method: 'yule-walker', maxP, criterion: 'aic' });
   const candidates: ModelCandidate[] = [{ label: `cmle AR(${order.best.p})`, method: 'cmle', fit: cmleAr(remainder, order.best.p), fitMs: clock() - started, error: null }];
-  const optional: Array<{ label: string; method: FittedMethod; run: () => FitResult }> = [
-    { label: 'ridge AR (lags 1–3, 24, 25, 168)', method: 'ridge', run: () => fitArmaPart({ method: 'ridge', p: 168, q: 0, lags: [1, 2, 3, 24, 25, 168], select: 'bic' }, remainder) },
-    { label: 'NLS ARMA(2,1)', method: 'nls', run: () => nlsArma(remainder, 2, 1) },
-    { label: 'lasso AR (lags 1–48, 168)', method: 'lasso', run: () => fitArmaPart({ method: 'lasso', p: 168, q: 0, lags: regularisedLags(48, [168]), select: 'bic' }, remainder) },
+  // Expected CPU milliseconds of each optional candidate on a year of hourly data (measured on the
+  // benchmark fleet), scaled by length: a candidate starts only if it should finish within the budget.
+  const scale = remainder.length / 8760;
+  const optional: Array<{ label: string; method: FittedMethod; costMs: number; run: () => FitResult }> = [
+    { label: 'ridge AR (lags 1–3, 24, 25, 168)', method: 'ridge', costMs: 25, run: () => fitArmaPart({ method: 'ridge', p: 168, q: 0, lags: [1, 2, 3, 24, 25, 168], select: 'bic' }, remainder) },
+    { label: 'NLS ARMA(2,1)', method: 'nls', costMs: 20, run: () => nlsArma(remainder, 2, 1) },
+    { label: 'lasso AR (lags 1–48, 168)', method: 'lasso', costMs: 110, run: () => fitArmaPart({ method: 'lasso', p: 168, q: 0, lags: regularisedLags(48, [168]), select: 'bic' }, remainder) },
   ];
   for (const candidate of optional) {
-    if (clock() - started > budgetMs) {
+    if (clock() - started + candidate.costMs * scale > budgetMs) {
       candidates.push({ label: candidate.label, method: candidate.method, fit: null, fitMs: 0, error: `left out: the ${budgetMs} ms time budget was spent` });
       continue;
     }
@@ -113,8 +119,8 @@ export function autoSelect(design: ModelDesign, data: LoadSeriesData, options: A
     if (origins.length === 0) return { candidate, extended, mae: null, rmse: null };
     try {
       const errors = origins.flatMap((o) => {
-        const forecast = forecastLoadModel(modelAtOrigin(extended, o), { temperature: data.temperature?.subarray(o, o + horizon) }, horizon, []);
-        return Array.from(forecast.mean, (mean, h) => actual(o, h) - mean);
+        const mean = backtestMean(extended, o, horizon);
+        return Array.from(mean, (value, h) => actual(o, h) - value);
       });
       return { candidate, extended, mae: meanAbs(errors), rmse: rootMeanSquare(errors) };
     } catch (error) {
@@ -183,6 +189,25 @@ export function autoSelect(design: ModelDesign, data: LoadSeriesData, options: A
   };
   if (!winner) return { model: fitLoadModel(seasonalNaiveSpec(design), data), method: 'seasonal-naive', selection };
   return { model: modelAtOrigin(winner.extended!, n), method: winner.candidate.method, selection };
+}
+
+/**
+ * Mean forecast of hours o+1..o+horizon from origin o with the parameters fixed. With an additive or no
+ * seasonal step and no log, the deterministic part of hour t is transformed_t − remainder_t (profile and
+ * regression on the observed regressors), so the forecast is that plus the ARMA forecast of the
+ * remainder: exactly what forecastLoadModel computes, without rebuilding calendars and regressors for
+ * every origin. Other designs go through forecastLoadModel.
+ */
+export function backtestMean(extended: ExtendedModel, origin: number, horizon: number): ArrayLike<number> {
+  const { spec, arma } = extended.fitted;
+  const additive = spec.seasonal.kind === 'none' || (spec.seasonal.kind === 'profile' && spec.seasonal.form === 'additive');
+  if (!additive || spec.log) {
+    const temperature = extended.data.temperature?.subarray(origin, origin + horizon);
+    return forecastLoadModel(modelAtOrigin(extended, origin), { temperature }, horizon, []).mean;
+  }
+  const cut = origin - extended.remainderOffset;
+  const part = forecastArma(arma!, extended.remainder.subarray(0, cut), horizon, extended.residuals.subarray(0, cut));
+  return Array.from(part.mean, (value, h) => value + extended.transformed[origin + h] - extended.remainder[cut + h]);
 }
 
 /** CPU time of this process in milliseconds (the fit is synchronous, so this is the fit's own time). */
