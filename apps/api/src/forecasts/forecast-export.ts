@@ -3,6 +3,10 @@
  * whole-system export never sits in memory as one string. Every row states its interval
  * ([interval_start, interval_end), local time with offset) and time zone; the mean is the adjusted
  * mean where a planner adjusted it.
+ *
+ * The versions to export are chosen once, up front; the batches read later still match that choice
+ * even if an approval supersedes one of them meanwhile, because a version's points and adjustments
+ * never change after approval.
  */
 import { once } from 'node:events';
 import { exportIntervalConvention, type ExportedPoint, type ExportedSeries, type ForecastExportQuery, type ForecastSeries } from '@loadwright/contracts';
