@@ -4,6 +4,7 @@
  * writes bench/results/<name>.json. A filter keeps the modules whose "<area>/<name>" contains it
  * (e.g. `npm run bench -- engine` or `npm run bench -- nls-vs-r`). Exits 1 when a check fails.
  *
+ * Benchmarks marked `onlyWhenNamed` (slow ones) run only when a filter selects them.
  * Only files whose source declares `export const bench` are imported: a stand-alone script in a
  * bench folder (run with its own arguments) has side effects on import and is listed as skipped.
  */
@@ -44,6 +45,10 @@ async function main(): Promise<void> {
     const loaded = (await import(pathToFileURL(new URL(path, root).pathname).href)) as { bench?: Benchmark };
     if (!loaded.bench) continue;
     const { bench } = loaded;
+    if (bench.onlyWhenNamed && filters.length === 0) {
+      console.log(`\n=== ${path}: skipped (slow; run it with \`npm run bench -- ${bench.name}\`)`);
+      continue;
+    }
     console.log(`\n=== ${path}: ${bench.description}`);
     const started = performance.now();
     const report = await bench.run();

@@ -12,6 +12,8 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 export interface Benchmark {
   name: string;
   description: string;
+  /** Slow benchmarks run only when a filter names them, not on a bare `npm run bench`. */
+  onlyWhenNamed?: boolean;
   run(): Promise<BenchReport> | BenchReport;
 }
 

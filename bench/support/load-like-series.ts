@@ -7,14 +7,14 @@
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { seededRandom, simulateArma } from '../../libs/forecasting/src/arma/testing-random';
+import { simulateArma } from '../../libs/forecasting/src/core/simulate-arma';
 
 /** The true parameters the series is simulated from. */
 export const loadLikeModel = { mean: 1200, ar: [1.55, -0.6], ma: [0.3], sigma2: 225 };
 
 /** n hourly values (MW, three decimals), deterministic for a given seed. */
 export function loadLikeSeries(n = 8760, seed = 20260101): number[] {
-  return Array.from(simulateArma(loadLikeModel, n, seededRandom(seed)), (value) => Math.round(value * 1000) / 1000);
+  return Array.from(simulateArma(loadLikeModel, n, seed), (value) => Math.round(value * 1000) / 1000);
 }
 
 /** Writes the series to a fresh temporary CSV with a `value` header; returns its path. */

@@ -1,14 +1,15 @@
 // Checks of the Hannan-Rissanen starting values.
 // Sources: fixtures/reference/ref/lh.json ols[p].lm_ols (R 4.2.2 `lm(E[, 1] ~ E[, -1])` on
 // `embed(x, p + 1)`): with q = 0 the method is exactly conditional least squares; simulation
-// recovery with known parameters (seeded, ./testing-random.ts) for q > 0, where Hannan & Rissanen
+// recovery with known parameters (seeded, ../core/simulate-arma.ts) for q > 0, where Hannan & Rissanen
 // (1982) show the estimates are consistent.
 import { describe, expect, it } from 'vitest';
 import { ForecastingError } from '../core/errors';
 import { loadReference, loadSeries } from '../core/spec-support';
 import { hannanRissanen } from './hannan-rissanen';
 import { isInvertible, isStationary } from './polynomial-roots';
-import { seededRandom, simulateArma } from './testing-random';
+import { normalGenerator } from '../core/random';
+import { simulateArma } from '../core/simulate-arma';
 
 describe('hannanRissanen', () => {
   it('is least squares on the lags when q = 0 (lh, R lm, 1e-9 relative)', () => {
@@ -30,7 +31,7 @@ describe('hannanRissanen', () => {
       { mean: 0, ar: [0.9, -0.2], ma: [0.5, 0.2], sigma2: 4 },
     ];
     models.forEach((model, index) => {
-      const x = simulateArma(model, 20000, seededRandom(31 + index));
+      const x = simulateArma(model, 20000, 31 + index);
       const start = hannanRissanen(x, model.ar.length, model.ma.length);
       [...start.ar, ...start.ma].forEach((value, i) => expect(Math.abs(value - [...model.ar, ...model.ma][i])).toBeLessThan(0.05));
       expect(Math.abs(start.sigma2 - model.sigma2) / model.sigma2).toBeLessThan(0.05);
@@ -39,9 +40,9 @@ describe('hannanRissanen', () => {
 
   it('always returns a stationary, invertible model', () => {
     // A random walk pushes the AR estimate to the unit circle.
-    const random = seededRandom(4);
+    const normal = normalGenerator(4);
     const walk = new Float64Array(500);
-    for (let t = 1; t < walk.length; t++) walk[t] = walk[t - 1] + random.normal();
+    for (let t = 1; t < walk.length; t++) walk[t] = walk[t - 1] + normal();
     const start = hannanRissanen(walk, 1, 1);
     expect(isStationary(start.ar)).toBe(true);
     expect(isInvertible(start.ma)).toBe(true);

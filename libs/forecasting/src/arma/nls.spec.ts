@@ -4,7 +4,7 @@
 //   `arima(x, order = c(p, 0, q), method = "CSS", include.mean = TRUE, optim.control = list(reltol = 1e-14,
 //   maxit = 5000, ndeps = rep(1e-6, k)))`; ols[p].lm_ols is `lm(E[, 1] ~ E[, -1])` on `embed(x, p + 1)`.
 // - the npm package `arima` 0.2.8, method 2 (CSS), run in a child process (./npm-arima-reference.ts).
-// - simulation recovery with known parameters (seeded, ./testing-random.ts).
+// - simulation recovery with known parameters (seeded, ../core/simulate-arma.ts).
 // - the least-squares AR fit of ../ar/cmle.ts (QR) for a long AR.
 import { describe, expect, it } from 'vitest';
 import { cmleAr } from '../ar/cmle';
@@ -15,7 +15,7 @@ import { cssSumOfSquares } from './css';
 import { nlsArma } from './nls';
 import { fitWithNpmArima } from './npm-arima-reference';
 import { isInvertible, isStationary } from './polynomial-roots';
-import { seededRandom, simulateArma } from './testing-random';
+import { simulateArma } from '../core/simulate-arma';
 
 const orders = ['1,1', '2,1', '1,2'] as const;
 const series: ReferenceSeries[] = ['lh', 'LakeHuron'];
@@ -127,7 +127,7 @@ describe('nlsArma for a pure AR(p) equals least squares', () => {
 describe('nlsArma for a long AR equals the QR least-squares fit', () => {
   it('AR(12) on 2,000 simulated points matches cmleAr (Householder QR) to 1e-7 relative', () => {
     // A model too large for the unrolled passes, so this runs the generic recursion end to end.
-    const x = simulateArma({ mean: 5, ar: [0.5, 0.1, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0.2], ma: [], sigma2: 1 }, 2000, seededRandom(12));
+    const x = simulateArma({ mean: 5, ar: [0.5, 0.1, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0.2], ma: [], sigma2: 1 }, 2000, 12);
     const fit = nlsArma(x, 12, 0);
     const ls = cmleAr(x, 12);
     expect(fit.converged).toBe(true);
@@ -140,11 +140,11 @@ describe('nlsArma for a long AR equals the QR least-squares fit', () => {
 describe('nlsArma against the npm package arima (method 2 = CSS)', () => {
   // That package prints 6 significant digits and stops on its own (looser) tolerance, so coefficients
   // are compared at 2e-4 absolute (μ of LakeHuron ≈ 579: 2e-6 relative) and its sum of squares must not
-  // beat ours. It traps ("memory access out of bounds") on longer series: bisected in child processes by
-  // bench/engine/npm-arima-limit.ts (`npm run bench -- npm-arima`), the benchmark's hourly series fits up
-  // to 8,200 points for CSS and CSS-ML ARMA(2,1) and 8,202 for CSS ARMA(1,1), and traps from the next
-  // point on; the same values kept to 6 instead of 3 decimals moved the limit to 8,210 (CSS) and 8,190
-  // (CSS-ML), so the threshold depends slightly on the data.
+  // beat ours. It fails on long series: bench/engine/npm-arima-limit.ts (`npm run bench -- npm-arima`)
+  // bisects and then scans point by point in child processes. On the benchmark's hourly series, CSS
+  // ARMA(2,1), CSS ARMA(1,1) and CSS-ML ARMA(2,1) all fit reliably up to 8,190 points; from 8,191 on
+  // they fail (WebAssembly traps, or a summary without coefficients), with sporadic successes up to
+  // 8,224 points, and every probe fails from 8,225 (CSS) or 8,223 (CSS-ML), 16 in a row checked.
   for (const name of series) {
     const x = loadSeries(name);
     for (const order of orders) {
@@ -169,7 +169,7 @@ describe('nlsArma recovers simulated models', () => {
   ];
   for (const { name, model } of cases) {
     it(`${name}: each estimate within 3 standard errors on n = 3000`, () => {
-      const x = simulateArma(model, 3000, seededRandom(7 + model.ar.length));
+      const x = simulateArma(model, 3000, 7 + model.ar.length);
       const fit = nlsArma(x, model.ar.length, model.ma.length);
       expect(fit.converged).toBe(true);
       const truth = [...model.ar, ...model.ma, model.mean];
@@ -188,7 +188,7 @@ describe('nlsArma recovers simulated models', () => {
     let total = 0;
     let sumZ2 = 0;
     for (let replication = 0; replication < 60; replication++) {
-      const x = simulateArma(model, 400, seededRandom(1000 + replication));
+      const x = simulateArma(model, 400, 1000 + replication);
       const fit = nlsArma(x, 1, 1);
       const z = [(fit.ar[0] - 0.7) / fit.stderr.ar![0], (fit.ma[0] + 0.3) / fit.stderr.ma![0], fit.mean / fit.stderr.mean!];
       for (const value of z) {
@@ -205,7 +205,7 @@ describe('nlsArma recovers simulated models', () => {
   it('returns an invertible MA when the data come from the non-invertible twin θ = 2.5', () => {
     // MA(1) with θ and 1/θ (σ² scaled by θ²) have the same autocorrelations (Brockwell & Davis 2016 §3.1):
     // the invertible representation, θ = 0.4, is the one to expect.
-    const x = simulateArma({ mean: 0, ar: [], ma: [2.5], sigma2: 1 }, 2000, seededRandom(99));
+    const x = simulateArma({ mean: 0, ar: [], ma: [2.5], sigma2: 1 }, 2000, 99);
     const fit = nlsArma(x, 0, 1);
     expect(isInvertible(fit.ma)).toBe(true);
     expect(Math.abs(fit.ma[0] - 0.4) / fit.stderr.ma![0]).toBeLessThan(3);
@@ -213,7 +213,7 @@ describe('nlsArma recovers simulated models', () => {
   });
 
   it('stays invertible on an over-differenced series, whose CSS optimum is at θ → −1', () => {
-    const white = simulateArma({ mean: 0, ar: [], ma: [], sigma2: 1 }, 301, seededRandom(5));
+    const white = simulateArma({ mean: 0, ar: [], ma: [], sigma2: 1 }, 301, 5);
     const differenced = Array.from({ length: 300 }, (_, t) => white[t + 1] - white[t]);
     const fit = nlsArma(differenced, 0, 1);
     expect(isInvertible(fit.ma)).toBe(true);

@@ -8,8 +8,9 @@
  * only printed with `verbose: true`, to 6 significant digits; its MA sign is the Box-Jenkins one
  * (x_t = … + e_t − θ e_{t−1}), so θ is negated here into R's convention. It traps ("memory access out
  * of bounds") on long series and is unusable in that process afterwards, hence the child process.
+ * On some shorter series its optimiser diverges instead (reported as 'diverged').
  *
- * @throws nothing: a failed or trapped fit returns `{ ok: false, message }`.
+ * @throws nothing: a failed or trapped fit returns `{ ok: false, failure, message }`.
  */
 import { spawnSync } from 'node:child_process';
 import { createRequire } from 'node:module';
@@ -17,7 +18,15 @@ import { createRequire } from 'node:module';
 /** What the package reported, in R's sign convention. */
 export type NpmArimaFit =
   | { ok: true; ar: number[]; ma: number[]; mean: number; sigma2: number }
-  | { ok: false; message: string };
+  | { ok: false; failure: NpmArimaFailure; message: string };
+
+/**
+ * How a fit failed: 'trap' — the WebAssembly runtime aborted (e.g. "memory access out of bounds",
+ * "null function or function signature mismatch") or the series did not fit into the module's memory
+ * (a RangeError "offset is out of bounds"), which happens on long series; 'diverged' — its
+ * optimiser reported a non-finite objective and printed no coefficients; 'other' — anything else.
+ */
+export type NpmArimaFailure = 'trap' | 'diverged' | 'other';
 
 const packagePath = createRequire(import.meta.url).resolve('arima');
 
@@ -28,7 +37,8 @@ const input = JSON.parse(require('fs').readFileSync(0, 'utf8'));
 try {
   new ARIMA({ p: input.p, d: 0, q: input.q, method: input.method, verbose: true }).train(input.x);
 } catch (error) {
-  process.stdout.write('FAILED ' + error.message + '\\n');
+  const trap = error instanceof RangeError || (typeof WebAssembly !== 'undefined' && error instanceof WebAssembly.RuntimeError);
+  process.stdout.write((trap ? 'TRAP ' : 'FAILED ') + error.message + '\\n');
   process.exit(3);
 }
 `;
@@ -41,7 +51,10 @@ export function fitWithNpmArima(x: ArrayLike<number>, p: number, q: number, meth
     timeout: 60_000,
   });
   const out = `${run.stdout ?? ''}${run.stderr ?? ''}`;
-  if (run.status !== 0) return { ok: false, message: out.trim().split('\n').pop() ?? `exit ${run.status}` };
+  if (run.status !== 0) {
+    const last = out.trim().split('\n').pop() ?? `exit ${run.status}`;
+    return { ok: false, failure: last.startsWith('TRAP ') ? 'trap' : 'other', message: last };
+  }
   const number = (pattern: RegExp) => {
     const match = pattern.exec(out);
     return match ? Number(match[1]) : Number.NaN;
@@ -50,6 +63,9 @@ export function fitWithNpmArima(x: ArrayLike<number>, p: number, q: number, meth
   const ma = Array.from({ length: q }, (_, j) => -number(new RegExp(`^MA${j + 1}\\s+(\\S+)`, 'm')));
   const mean = number(/^MEAN\s+(\S+)/m);
   const sigma2 = number(/^SIGMA\^2\s+(\S+)/m);
-  if ([...ar, ...ma, mean, sigma2].some((v) => !Number.isFinite(v))) return { ok: false, message: `unparsed output: ${out.slice(0, 200)}` };
+  if ([...ar, ...ma, mean, sigma2].some((v) => !Number.isFinite(v))) {
+    const diverged = /returns NaN|exceeds the maximum double/.test(out);
+    return { ok: false, failure: diverged ? 'diverged' : 'other', message: out.trim().split('\n')[0].slice(0, 200) };
+  }
   return { ok: true, ar, ma, mean, sigma2 };
 }

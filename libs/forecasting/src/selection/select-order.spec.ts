@@ -1,11 +1,11 @@
 // Checks of selectOrder.
 // Sources: fixtures/reference/ref/{lh,LakeHuron,USAccDeaths}.json yule_walker_aic_selection
 // (R 4.2.2 `ar(x, method = "yule-walker")`: order_selected and aic_absolute = n·log(v_k) + 2k + 2 with
-// the plain Levinson-Durbin variance); simulation with a known order (seeded, ../arma/testing-random.ts).
+// the plain Levinson-Durbin variance); simulation with a known order (seeded, ../core/simulate-arma.ts).
 import { describe, expect, it } from 'vitest';
 import { cmleAr } from '../ar/cmle';
 import { nlsArma } from '../arma/nls';
-import { seededRandom, simulateArma } from '../arma/testing-random';
+import { simulateArma } from '../core/simulate-arma';
 import { ForecastingError } from '../core/errors';
 import { loadReference, loadSeries, referenceSeries } from '../core/spec-support';
 import { selectOrder } from './select-order';
@@ -29,7 +29,7 @@ describe('selectOrder with Yule-Walker against R ar()', () => {
 });
 
 describe('selectOrder with NLS', () => {
-  const x = simulateArma({ mean: 50, ar: [0.7], ma: [0.4], sigma2: 1 }, 1500, seededRandom(2024));
+  const x = simulateArma({ mean: 50, ar: [0.7], ma: [0.4], sigma2: 1 }, 1500, 2024);
 
   it('finds ARMA(1,1) by BIC on a simulated ARMA(1,1), and returns the whole 3 × 3 table ranked', () => {
     const selection = selectOrder(x, { method: 'nls', maxP: 2, maxQ: 2, criterion: 'bic' });
