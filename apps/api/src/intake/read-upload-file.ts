@@ -7,13 +7,11 @@
  * the file unusable (a formula, a non-number, an impossible date) rejects the whole file with one
  * sentence naming its row and column.
  */
-import { createReadStream } from 'node:fs';
-import { Transform } from 'node:stream';
-import { parse, type Options } from 'csv-parse';
+import { stat } from 'node:fs/promises';
 import { qualityFlag } from '@loadwright/db';
 import type { UploadLayout, UploadUnit } from '@loadwright/contracts';
 import type { CatalogueEntry } from './catalogue-entry';
-import { csvErrorMessage, firstInvalidUtf8 } from './csv/sniff';
+import { csvRecords } from './csv/record-source';
 import { parseValueCell } from './csv/parse-number';
 import { parseTimestamp, type ParsedTimestamp } from './csv/parse-timestamp';
 import { unitConversion } from './csv/units';
@@ -151,49 +149,11 @@ export async function readUploadFile(path: string, layout: UploadLayout, plan: I
     route.intake.readings.push(at.ms, value, line, at.flags);
   };
 
-  const file = createReadStream(path, { highWaterMark: 1 << 20 });
-  const decoder = new TextDecoder(layout.encoding, { fatal: true });
-  let bytesSeen = 0;
-  let linesSeen = 1;
-  const decode = new Transform({
-    readableObjectMode: false,
-    transform(chunk: Buffer, _encoding, done) {
-      try {
-        done(null, decoder.decode(chunk, { stream: true }));
-      } catch {
-        // Where in this chunk the text breaks (a sequence cut at the chunk's start counts from 0).
-        const offset = Math.max(0, firstInvalidUtf8(chunk, false));
-        let row = linesSeen;
-        for (let i = chunk.indexOf(10); i >= 0 && i < offset; i = chunk.indexOf(10, i + 1)) row++;
-        done(new UploadRejection(`Row ${row} is not ${layout.encoding.toUpperCase()} text (byte 0x${chunk[offset]!.toString(16).toUpperCase().padStart(2, '0')} at offset ${bytesSeen + offset}); save the file as CSV UTF-8 and upload it again.`));
-      } finally {
-        bytesSeen += chunk.length;
-        for (let i = chunk.indexOf(10); i >= 0; i = chunk.indexOf(10, i + 1)) linesSeen++;
-      }
-    },
-    flush(done) {
-      try {
-        done(null, decoder.decode());
-      } catch {
-        done(new UploadRejection(`The file ends in the middle of a ${layout.encoding.toUpperCase()} character; save it as CSV UTF-8 and upload it again.`));
-      }
-    },
-  });
-  const parser = parse({
-    delimiter: layout.delimiter,
-    skip_empty_lines: true,
-    from_line: 1,
-    // Each record carries the line it ended on, for messages and findings.
-    on_record: ((record: string[], context: { lines: number }) => ({ cells: record, line: context.lines })) as unknown as Options['on_record'],
-  });
-  file.on('error', (error) => parser.destroy(error));
-  decode.on('error', (error) => parser.destroy(error));
-  file.pipe(decode).pipe(parser);
-
-  const size = Math.max(1, (await import('node:fs/promises').then((fs) => fs.stat(path))).size);
+  const size = Math.max(1, (await stat(path)).size);
+  let bytes = 0;
   let records = 0;
-  try {
-    for await (const { cells, line } of parser as AsyncIterable<{ cells: string[]; line: number }>) {
+  for await (const batch of csvRecords(path, layout, (read) => (bytes = read))) {
+    for (const { cells, line } of batch) {
       if (records++ < headerRows) continue;
       rows++;
       const stamp = stampOf(cells[plan.timestampIndex] ?? '', line);
@@ -217,15 +177,8 @@ export async function readUploadFile(path: string, layout: UploadLayout, plan: I
           if (value !== null) take(routeFor(series, line, columnName(index), unit), stamp, value, line);
         }
       }
-      if (rows % 50_000 === 0) await onProgress?.(file.bytesRead / size, rows);
     }
-  } catch (error) {
-    file.destroy();
-    if (error instanceof UploadRejection) throw error;
-    const cause = (error as { code?: string }).code ? error : (error as { cause?: unknown }).cause;
-    if (cause instanceof UploadRejection) throw cause;
-    if ((cause as { code?: string } | undefined)?.code) throw new UploadRejection(csvErrorMessage(cause, plan.columns));
-    throw error;
+    await onProgress?.(bytes / size, rows);
   }
   await onProgress?.(1, rows);
   return { bySeries, findings, rows, rejected };

@@ -1,7 +1,8 @@
 /**
  * Converting an upload's unit to a series' stored unit. Demand converts by powers of 1000. Energy per
  * interval becomes mean demand over the interval: E kWh over m minutes is E · 60 / m kW (for example
- * 25 kWh in 15 minutes is a mean of 100 kW). Temperature converts between °C and °F.
+ * 25 kWh in 15 minutes is a mean of 100 kW). Temperature converts between °C and °F. Results keep 12
+ * significant digits (binary rounding noise removed; no meter records more).
  */
 import type { UploadUnit } from '@loadwright/contracts';
 
@@ -12,17 +13,12 @@ export function unitConversion(from: UploadUnit, to: string, intervalMinutes: nu
   if (from === 'degC' || from === 'degF') {
     if (to !== 'degC' && to !== 'degF') return `${from} is a temperature unit but the series stores ${to}`;
     if (from === to) return (value) => value;
-    return from === 'degC' ? (value) => value * 1.8 + 32 : (value) => (value - 32) / 1.8;
+    return from === 'degC' ? (value) => Number((value * 1.8 + 32).toPrecision(12)) : (value) => Number(((value - 32) / 1.8).toPrecision(12));
   }
   const target = demandInWatts[to];
   if (target === undefined) return `${from} is a load unit but the series stores temperatures in ${to}`;
-  // Multiply by a whole factor or divide by one, so that 1234 W reads 1.234 kW exactly as written.
   const sourceWatts = from === 'kWh' || from === 'MWh' ? ((from === 'kWh' ? 1e3 : 1e6) * 60) / intervalMinutes : demandInWatts[from]!;
   if (sourceWatts === target) return (value) => value;
-  if (sourceWatts > target) {
-    const factor = sourceWatts / target;
-    return (value) => value * factor;
-  }
-  const divisor = target / sourceWatts;
-  return (value) => value / divisor;
+  // Rounded to 12 significant digits, so that 1234 W reads 1.234 kW as written, not 1.2340000000000002.
+  return (value) => Number(((value * sourceWatts) / target).toPrecision(12));
 }
