@@ -147,25 +147,38 @@ export interface PointRow extends ModelPoint {
   stdError: number;
 }
 
+/** One point row as read: the instant as epoch milliseconds, which parses far faster than a timestamp text. */
+interface RawPointRow extends Record<string, unknown> {
+  version_id: string;
+  ts_ms: number;
+  mean: number;
+  std_error: number;
+  lower_80: number;
+  upper_80: number;
+  lower_95: number;
+  upper_95: number;
+}
+
 /** The points of some versions in time order, grouped by version id. */
 export async function pointsOf(db: Reader, versionIds: number[]): Promise<Map<number, PointRow[]>> {
   const grouped = new Map<number, PointRow[]>(versionIds.map((id) => [id, []]));
   if (versionIds.length === 0) return grouped;
-  const rows = await db
-    .select({
-      versionId: forecastPoints.versionId,
-      ts: forecastPoints.ts,
-      mean: forecastPoints.mean,
-      stdError: forecastPoints.stdError,
-      lower80: forecastPoints.lower80,
-      upper80: forecastPoints.upper80,
-      lower95: forecastPoints.lower95,
-      upper95: forecastPoints.upper95,
-    })
-    .from(forecastPoints)
-    .where(inArray(forecastPoints.versionId, versionIds))
-    .orderBy(asc(forecastPoints.versionId), asc(forecastPoints.ts));
-  for (const { versionId, ...point } of rows) grouped.get(versionId)!.push(point);
+  const { rows } = await db.execute<RawPointRow>(sql`
+    select version_id, (extract(epoch from ts) * 1000)::float8 as ts_ms, mean, std_error, lower_80, upper_80, lower_95, upper_95
+      from ${forecastPoints}
+     where version_id = any(${`{${versionIds.join(',')}}`}::bigint[])
+     order by version_id, ts`);
+  for (const row of rows) {
+    grouped.get(Number(row.version_id))!.push({
+      ts: new Date(row.ts_ms),
+      mean: row.mean,
+      stdError: row.std_error,
+      lower80: row.lower_80,
+      upper80: row.upper_80,
+      lower95: row.lower_95,
+      upper95: row.upper_95,
+    });
+  }
   return grouped;
 }
 
