@@ -7,16 +7,17 @@ import { RouterLink } from '@angular/router';
 import type { OutboxSummary } from '@loadwright/contracts';
 import { of } from 'rxjs';
 import { problemMessage } from '../core/problems/api-problem';
+import { MailFrame } from './mail-frame';
 import { OutboxClient } from './outbox-client';
 import { textRuns } from './text-links';
 
 /**
  * The Outbox (admins, development): the messages the local mail catcher received, and one of them with
- * its plain-text part and its HTML part. The HTML is shown in a sandboxed frame with no scripts.
+ * its plain-text part and its HTML part. The HTML is shown in a sandboxed frame that runs no scripts.
  */
 @Component({
   selector: 'lw-outbox',
-  imports: [DatePipe, RouterLink, MatButtonModule, MatIconModule],
+  imports: [DatePipe, RouterLink, MatButtonModule, MatIconModule, MailFrame],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './outbox.html',
   styleUrl: './outbox.scss',
