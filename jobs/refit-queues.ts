@@ -5,6 +5,7 @@ import type { Logger } from 'pino';
 import { createRefitQueues } from '../apps/api/src/refit-engine/refit-queues';
 import { applyRefitSchedule, keepRefitScheduleCurrent, workRefitNightly } from './refit-nightly.worker';
 import { workRefitSeries } from './refit-series.worker';
+import { startRefitSweeper } from './refit-sweeper';
 
 /** What the refit handlers need from the worker. */
 export interface RefitWorkerContext {
@@ -21,8 +22,10 @@ export async function registerRefitQueues(boss: PgBoss, context: RefitWorkerCont
   const schedule = await applyRefitSchedule(boss, pool);
   context.logger.info(schedule, 'nightly refit scheduled');
   const stopChecks = keepRefitScheduleCurrent(boss, pool, context.logger, schedule);
+  const stopSweeps = startRefitSweeper(pool, context.logger);
   boss.once('stopped', () => {
     stopChecks();
+    stopSweeps();
     void pool.end().catch(() => {});
   });
   await workRefitNightly(boss, pool, context.logger);

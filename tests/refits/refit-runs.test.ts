@@ -11,6 +11,7 @@ import { seedDemo } from '../../libs/db/src/seed/seed-demo';
 import { refitNightlyQueue, refitSeriesQueue } from '../../apps/api/src/refit-engine/refit-queues';
 import { createPeople, signIn, type SignedIn } from '../support/people';
 import { startTestServer, type TestServer } from '../support/server';
+import { sweepOrphanedRefits } from '../../jobs/refit-sweeper';
 import { seriesId, versionsOf, waitFor, waitForRun } from './support';
 
 let server: TestServer;
@@ -295,4 +296,21 @@ describe('temperature forecasts', () => {
     expect(fit.body.diagnostics.warnings.map((w: { code: string }) => w.code)).not.toContain('temperature-fallback');
     expect(fit.body.parameters.regression.names).toEqual(expect.arrayContaining(['heating-degree-hours', 'cooling-degree-hours']));
   }, 90_000);
+});
+
+describe('a series whose job is gone from the queue', () => {
+  it('is marked failed by the sweep so the run finishes', async () => {
+    const id = await seriesId(server.pool, 'zone-north');
+    const { rows } = await server.pool.query(`insert into refit_runs (trigger, series_total, started_at) values ('manual', 1, now()) returning id`);
+    const runId = rows[0].id;
+    // As if its worker died in the last attempt and the queue expired the job: running, no live job.
+    await server.pool.query(`insert into refit_run_series (run_id, series_id, status, attempts, queued_at, started_at) values ($1, $2, 'running', 2, now() - interval '20 minutes', now() - interval '15 minutes')`, [runId, id]);
+    expect(await sweepOrphanedRefits(server.pool)).toBeGreaterThanOrEqual(1);
+    const run = await waitForRun(server.pool, runId, 5_000);
+    expect(run.series_failed).toBe(1);
+    const { rows: series } = await server.pool.query('select status, error from refit_run_series where run_id = $1', [runId]);
+    expect(series[0].status).toBe('failed');
+    expect(series[0].error).toMatch(/worker stopped/);
+    expect(await sweepOrphanedRefits(server.pool)).toBe(0);
+  });
 });

@@ -27,13 +27,13 @@ export type RefitSeriesResult = WriteResult | { written: false; reason: 'failed'
 export async function refitSeries(pool: pg.Pool, runId: number, seriesId: number, attempt: Attempt, autoOptions: AutoOptions = {}): Promise<RefitSeriesResult> {
   const startedMs = performance.now();
   const marked = await pool.query<{ status: string }>(
-    `update refit_run_series set status = case when status = 'done' then status else 'running' end,
-            attempts = attempts + 1, started_at = coalesce(started_at, now())
-      where run_id = $1 and series_id = $2 returning status`,
+    `update refit_run_series set status = 'running', attempts = attempts + 1, started_at = coalesce(started_at, now())
+      where run_id = $1 and series_id = $2 and status in ('queued', 'running')
+      returning status`,
     [runId, seriesId],
   );
-  if (marked.rows.length === 0) return { written: false, reason: 'not-in-run' };
-  if (marked.rows[0]!.status === 'done') return { written: false, reason: 'skipped-done' };
+  // A copy of a job whose series already finished (done, or failed for good) changes nothing.
+  if (marked.rows.length === 0) return { written: false, reason: 'skipped-done' };
   await pool.query('update refit_runs set started_at = now() where id = $1 and started_at is null', [runId]);
   try {
     const at = performance.now();
@@ -54,7 +54,7 @@ export async function refitSeries(pool: pg.Pool, runId: number, seriesId: number
 }
 
 /** Marks the series failed (once) and counts it on the run, finishing the run if it was the last. */
-async function markFailed(pool: pg.Pool, runId: number, seriesId: number, message: string, durationMs: number): Promise<void> {
+export async function markFailed(pool: pg.Pool, runId: number, seriesId: number, message: string, durationMs: number): Promise<void> {
   const client = await pool.connect();
   try {
     await client.query('begin');
