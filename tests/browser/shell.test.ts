@@ -4,10 +4,11 @@
  */
 import { mkdir } from 'node:fs/promises';
 import { resolve } from 'node:path';
-import { healthReportSchema } from '@loadwright/contracts';
+import { healthReportSchema, roleHas } from '@loadwright/contracts';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createPeople, testPassword } from '../support/people';
+import { PRODUCT_SECTIONS } from '../../apps/web/src/app/core/product-sections';
 import { type TestServer, startTestServer } from '../support/server';
 import { blockingViolations, findAccessibilityViolations } from './support/accessibility';
 import { type TestBrowser, launchBrowser } from './support/browser';
@@ -16,8 +17,8 @@ import { watchRequests } from './support/network-guard';
 import { signInThroughPage } from './support/sign-in';
 
 const artifacts = resolve(import.meta.dirname, '../.artifacts');
-/** What a planner's navigation lists: the work sections, no admin ones. */
-const plannerSections = ['Overview', 'Series', 'Uploads', 'Refits', 'Misses'];
+/** What a planner's navigation lists: every section whose permission the planner role holds by the permission table. */
+const plannerSections = PRODUCT_SECTIONS.filter((section) => roleHas('planner', section.permission)).map((section) => section.label);
 
 let browser: TestBrowser;
 
@@ -67,6 +68,7 @@ describe('web shell with the database and the worker running', () => {
     const navigation = page.getByRole('navigation', { name: 'Sections' });
     for (const label of plannerSections) expect(await navigation.getByRole('link', { name: label, exact: true }).isVisible()).toBe(true);
     expect(await navigation.getByRole('link').count()).toBe(plannerSections.length);
+    for (const label of ['People', 'API tokens', 'Audit log', 'Outbox']) expect(plannerSections).not.toContain(label);
     expect(await navigation.getByRole('link', { name: 'Overview' }).getAttribute('aria-current')).toBe('page');
     expect(await page.getByRole('link', { name: /^Your account:\s*Test planner\s*,\s*planner$/ }).isVisible()).toBe(true);
     expect(await page.getByRole('button', { name: 'Sign out' }).isVisible()).toBe(true);

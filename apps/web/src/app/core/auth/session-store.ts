@@ -52,12 +52,15 @@ export class SessionStore {
     return this.http.post<SessionInfo>('/api/auth/sign-in', request).pipe(tap((session) => this.state.set({ status: 'signed-in', session })));
   }
 
-  /** Ends the session on the server, then forgets it here (also when the server had already ended it). */
+  /**
+   * Ends the session on the server, then forgets it here in every case: when the server had already
+   * ended it (401) or cannot be reached, this browser still stops acting as signed in.
+   */
   async signOut(): Promise<void> {
     try {
       await firstValueFrom(this.http.post<void>('/api/auth/sign-out', null));
     } catch (error: unknown) {
-      if (!(error instanceof ApiProblem && error.status === 401)) throw error;
+      if (!(error instanceof ApiProblem)) throw error;
     } finally {
       this.forget();
     }
