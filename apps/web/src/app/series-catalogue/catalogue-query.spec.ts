@@ -16,13 +16,13 @@ describe('catalogueParams', () => {
 
 describe('address bar round trip', () => {
   it('keeps only what differs from the opening state and reads it back', () => {
-    const query = { ...initialCatalogueQuery, under: 'zone-south', kind: 'load' as const, sort: 'name' as const, order: 'desc' as const, pageIndex: 1 };
+    const query = { ...initialCatalogueQuery, under: 'zone-south', kind: 'load' as const, sort: 'name' as const, order: 'desc' as const, pageIndex: 1, pageSize: 10 };
     const url = queryToUrl(query);
-    expect(url).toEqual({ q: null, kind: 'load', level: null, under: 'zone-south', archived: null, sort: 'name', order: 'desc', page: '2' });
+    expect(url).toEqual({ q: null, kind: 'load', level: null, under: 'zone-south', archived: null, sort: 'name', order: 'desc', page: '2', size: '10' });
     expect(queryFromUrl(fromRecord(url))).toEqual(query);
   });
 
   it('falls back to the opening state for values it does not know', () => {
-    expect(queryFromUrl(fromRecord({ kind: 'gas', sort: 'colour', archived: 'maybe', page: '-3' }))).toEqual(initialCatalogueQuery);
+    expect(queryFromUrl(fromRecord({ kind: 'gas', sort: 'colour', archived: 'maybe', page: '-3', size: '500' }))).toEqual(initialCatalogueQuery);
   });
 });

@@ -61,6 +61,7 @@ export function queryToUrl(query: CatalogueQuery): Record<string, string | null>
     sort: differs('sort') ? query.sort : null,
     order: differs('order') ? query.order : null,
     page: query.pageIndex > 0 ? String(query.pageIndex + 1) : null,
+    size: differs('pageSize') ? String(query.pageSize) : null,
   };
 }
 
@@ -68,6 +69,7 @@ export function queryToUrl(query: CatalogueQuery): Record<string, string | null>
 export function queryFromUrl(params: { get(name: string): string | null }): CatalogueQuery {
   const oneOf = <T extends string>(value: string | null, allowed: readonly T[]): T | null => (allowed.includes(value as T) ? (value as T) : null);
   const page = Number(params.get('page'));
+  const size = Number(params.get('size'));
   return {
     ...initialCatalogueQuery,
     text: params.get('q') ?? '',
@@ -78,5 +80,7 @@ export function queryFromUrl(params: { get(name: string): string | null }): Cata
     sort: oneOf(params.get('sort'), seriesSortKeys) ?? initialCatalogueQuery.sort,
     order: oneOf(params.get('order'), ['asc', 'desc'] as const) ?? initialCatalogueQuery.order,
     pageIndex: Number.isInteger(page) && page > 1 ? page - 1 : 0,
+    // The API serves at most 200 rows a page.
+    pageSize: Number.isInteger(size) && size >= 1 && size <= 200 ? size : initialCatalogueQuery.pageSize,
   };
 }

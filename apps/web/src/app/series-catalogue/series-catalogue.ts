@@ -33,7 +33,7 @@ import { SeriesClient } from './series-client';
 import { type SeriesDialogData, SeriesFormDialog } from './series-form-dialog';
 
 /** Table columns that sort on the server, by the sort key the API knows them by. */
-const sortableColumns: Readonly<Record<string, SeriesSortKey>> = { key: 'key', name: 'name', level: 'level', latest: 'updated' };
+const sortableColumns: Readonly<Record<string, SeriesSortKey>> = { key: 'key', name: 'name', level: 'level' };
 
 /** How many series' reading counts are read at once beside a page. */
 const statsConcurrency = 4;

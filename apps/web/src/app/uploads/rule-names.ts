@@ -24,8 +24,14 @@ export const informationalRules: ReadonlySet<ValidationRule> = new Set(['estimat
 /** A finding's rule-specific facts in words, e.g. "intervals 3 · estimated yes". */
 export function detailWords(detail: Record<string, unknown>): string {
   return Object.entries(detail)
-    .map(([key, value]) => `${spaced(key)} ${typeof value === 'boolean' ? (value ? 'yes' : 'no') : typeof value === 'number' ? roundish(value) : String(value)}`)
+    .map(([key, value]) => `${spaced(key)} ${typeof value === 'boolean' ? (value ? 'yes' : 'no') : typeof value === 'number' ? roundish(value) : instantOrText(String(value))}`)
     .join(' · ');
+}
+
+/** An ISO instant in UTC as "2026-12-01 11:00 UTC"; other text as it is. */
+function instantOrText(text: string): string {
+  const instant = /^(\d{4}-\d{2}-\d{2})T(\d{2}:\d{2})(?::00(?:\.0+)?)?Z$/.exec(text);
+  return instant ? `${instant[1]} ${instant[2]} UTC` : text;
 }
 
 /** camelCase or snake_case to plain words. */

@@ -69,6 +69,13 @@ export class UploadFlow {
     });
   }
 
+  /** Heading of the progress card for the upload's status. */
+  protected progressTitle(detail: UploadDetail): string {
+    if (detail.upload.status === 'queued') return 'Waiting for the import to start';
+    if (detail.upload.status === 'done') return 'Import finished';
+    return 'Importing and validating';
+  }
+
   /** True while the import is waiting or running. */
   protected running(detail: UploadDetail): boolean {
     return !isFinished(detail.upload.status) && detail.upload.status !== 'received';
