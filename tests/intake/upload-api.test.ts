@@ -119,5 +119,11 @@ describe('uploads', () => {
     expect(wrong.body.detail).toBe('The mapping names value column "kw", which the file does not have; its columns are "timestamp", "feeder", "load_kw".');
     const listed = await request(server.url).get('/api/uploads').set('Cookie', steward.cookie);
     expect(listed.body.items.find((u: { id: number }) => u.id === posted.body.upload.id).status).toBe('received');
+
+    const discarded = await request(server.url).delete(`/api/uploads/${posted.body.upload.id}`).set('Cookie', steward.cookie).set('X-CSRF-Token', steward.csrf);
+    expect(discarded.status).toBe(204);
+    expect((await request(server.url).get(`/api/uploads/${posted.body.upload.id}`).set('Cookie', steward.cookie)).status).toBe(404);
+    const again = await request(server.url).delete(`/api/uploads/${firstId}`).set('Cookie', steward.cookie).set('X-CSRF-Token', steward.csrf);
+    expect(again.status).toBe(409);
   });
 });

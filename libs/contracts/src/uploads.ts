@@ -11,6 +11,7 @@
  *   3. Poll GET /api/uploads/:id → `UploadDetail` (status, `progress` 0–100, counts, report) until
  *      `status` is `done` or `failed`; `failed` carries one message naming the row and column.
  *   4. GET /api/uploads/:id/report.csv downloads every finding (spreadsheet-safe).
+ *   DELETE /api/uploads/:id discards an upload still awaiting its mapping (204).
  */
 import { z } from 'zod';
 import { timeZoneSchema, timestampsMarks } from './series';

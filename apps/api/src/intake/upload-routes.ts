@@ -1,12 +1,12 @@
 /**
  * The routes under /api/uploads (stewards and admins, permission data.upload): receive a CSV file
- * (streamed to disk with its SHA-256), confirm its mapping (which queues the import job), follow an
- * upload's progress and report, and download its findings as CSV.
+ * (streamed to disk with its SHA-256), confirm its mapping (which queues the import job) or discard
+ * it, follow an upload's progress and report, and download its findings as CSV.
  */
 import { rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import multer from 'multer';
 import { z } from 'zod';
 import {
@@ -164,6 +164,23 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
         }
         await recordAudit(db, { actor, action: 'upload.mapped', targetType: 'upload', targetId: row.id, detail: { layout: body.mapping.layout, unit: body.settings.unit, timeZone: body.settings.timeZone }, ip: clientAddress(req) });
         return (await findUpload(db, row.id))!;
+      },
+    }),
+    defineRoute({
+      method: 'delete',
+      path: '/uploads/:id',
+      access: 'data.upload',
+      tag,
+      summary: 'Discard an upload that is still awaiting its mapping (its stored file is deleted; nothing was imported)',
+      params: idParams,
+      handler: async ({ params, actor, req }) => {
+        const [row] = await db.select({ id: uploads.id, status: uploads.status, path: uploads.storagePath, fileName: uploads.fileName }).from(uploads).where(eq(uploads.id, params.id));
+        if (!row) throw new HttpProblem('notFound', `No upload with id ${params.id}.`);
+        if (row.status !== 'received') throw new HttpProblem('conflict', `Upload ${row.id} is ${row.status}; only an upload awaiting its mapping can be discarded.`);
+        const deleted = await db.delete(uploads).where(and(eq(uploads.id, row.id), eq(uploads.status, 'received'))).returning({ id: uploads.id });
+        if (deleted.length === 0) throw new HttpProblem('conflict', `Upload ${row.id} was confirmed meanwhile.`);
+        if (row.path) await rm(row.path, { force: true });
+        await recordAudit(db, { actor, action: 'upload.discarded', targetType: 'upload', targetId: row.id, detail: { fileName: row.fileName }, ip: clientAddress(req) });
       },
     }),
     defineRoute({
