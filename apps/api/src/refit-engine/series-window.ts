@@ -105,26 +105,56 @@ async function readSeries(db: Queryable, seriesId: number): Promise<RefitSeries>
   };
 }
 
-/** Hourly values of `seriesId` on (fromMs, toMs], NaN where no usable value exists. */
+/**
+ * Hourly values of `seriesId` on (fromMs, toMs], NaN where no usable value exists. The value to use is
+ * chosen in SQL (two columns to parse instead of four): the estimate where validation set one, else a
+ * raw value that no defect flag marks; excluded hours give nothing.
+ */
 async function readHourly(db: Queryable, seriesId: number, fromMs: number, toMs: number): Promise<Float64Array> {
   const hours = Math.round((toMs - fromMs) / HOUR_MS);
   const out = new Float64Array(hours).fill(Number.NaN);
   const { rows } = await db.query({
-    text: `select (extract(epoch from ts) * 1000)::float8, value, estimated, quality
+    text: `select (extract(epoch from ts) * 1000)::float8,
+                  case when quality & $4 <> 0 then null
+                       when quality & $5 <> 0 and estimated is not null then estimated
+                       when value is not null and quality & $6 = 0 then value
+                       else estimated end
              from observations where series_id = $1 and ts > to_timestamp($2::float8 / 1000) and ts <= to_timestamp($3::float8 / 1000)`,
-    values: [seriesId, fromMs, toMs],
+    values: [seriesId, fromMs, toMs, qualityFlag.excluded, qualityFlag.estimated, suspect],
     rowMode: 'array',
   });
-  for (const raw of rows as Array<[number, number | null, number | null, number]>) {
-    const [ts, value, estimated, quality] = raw;
+  for (const [ts, value] of rows as Array<[number, number | null]>) {
+    if (value === null) continue;
     const index = Math.round((ts - fromMs) / HOUR_MS) - 1;
-    if (index < 0 || index >= hours) continue;
-    if (quality & qualityFlag.excluded) continue;
-    if (quality & qualityFlag.estimated && estimated !== null) out[index] = estimated;
-    else if (value !== null && !(quality & suspect)) out[index] = value;
-    else if (estimated !== null) out[index] = estimated;
+    if (index >= 0 && index < hours) out[index] = value;
   }
   return out;
+}
+
+/** Station readings by station and span, kept briefly: in a nightly run every feeder of a station asks for the same hours. */
+const stationCache = new Map<string, { at: number; values: Float64Array }>();
+/** How long a station's readings are reused, in milliseconds. */
+const STATION_CACHE_MS = 120_000;
+
+/**
+ * Hourly readings of a station on (fromMs, toMs], from the cache when the same span was read within two
+ * minutes and the station's newest reading is unchanged (a new forecast upload is seen at once; a
+ * correction of past readings within two minutes).
+ */
+async function readStationHourly(db: Queryable, stationId: number, fromMs: number, toMs: number): Promise<Float64Array> {
+  const { rows } = await db.query({
+    text: 'select (extract(epoch from max(ts)) * 1000)::float8 as newest from observations where series_id = $1',
+    values: [stationId],
+  });
+  const { newest } = rows[0] as { newest: number | null };
+  const key = `${stationId}:${fromMs}:${toMs}:${newest}`;
+  const now = Date.now();
+  const hit = stationCache.get(key);
+  if (hit && now - hit.at < STATION_CACHE_MS) return hit.values.slice();
+  const values = await readHourly(db, stationId, fromMs, toMs);
+  for (const [cached, entry] of stationCache) if (now - entry.at >= STATION_CACHE_MS) stationCache.delete(cached);
+  stationCache.set(key, { at: now, values });
+  return values.slice();
 }
 
 /** The last `days` of hourly values up to the last reading, checked for length, gaps and variation. */
@@ -171,7 +201,7 @@ async function readTemperature(db: Queryable, series: RefitSeries, window: Train
   const n = window.values.length;
   const firstMs = window.timestamps[0];
   const lastMs = window.timestamps[n - 1];
-  const all = await readHourly(db, station.id, firstMs - HOUR_MS, lastMs + horizon * HOUR_MS);
+  const all = await readStationHourly(db, station.id, firstMs - HOUR_MS, lastMs + horizon * HOUR_MS);
   const training = all.slice(0, n);
   const coverage = 1 - countMissing(training) / n;
   if (coverage < MIN_TEMPERATURE_COVERAGE) {
