@@ -230,6 +230,11 @@ describe('an admin invites someone, who signs in through the e-mailed link', () 
     await page.screenshot({ path: resolve(artifacts, 'people.png') });
   });
 
+  it('resends an invite to someone who has not set a password yet', async () => {
+    await page.getByRole('button', { name: `Resend invite to ${newcomer.name}` }).click();
+    await page.getByRole('status').getByText(`A new invite link was sent to ${newcomer.email}.`).waitFor();
+  });
+
   it('asks before deactivating, and does nothing on cancel', async () => {
     await page.getByRole('button', { name: `Deactivate ${account('viewer').displayName}` }).click();
     const confirm = page.getByRole('dialog', { name: `Deactivate ${account('viewer').displayName}?` });
@@ -264,8 +269,10 @@ describe('an admin invites someone, who signs in through the e-mailed link', () 
 
   it('finds the invitation in the Outbox with its plain-text and sandboxed HTML parts', async () => {
     await navigation().getByRole('link', { name: 'Outbox' }).click();
-    const message = page.getByRole('link', { name: new RegExp(`Your Loadwright invitation.*To ${newcomer.email}`) });
-    await message.waitFor();
+    // Newest first: the resent invitation, whose link is the one to follow.
+    const invitations = page.getByRole('link', { name: new RegExp(`Your Loadwright invitation.*To ${newcomer.email}`) });
+    await expect.poll(() => invitations.count()).toBe(2);
+    const message = invitations.first();
     await message.click();
     await page.getByRole('heading', { level: 2, name: 'Your Loadwright invitation' }).waitFor();
     const textPart = page.getByRole('region', { name: 'Plain-text part' });
