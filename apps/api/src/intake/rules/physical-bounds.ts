@@ -23,7 +23,9 @@ export const impossibleLoadFactor = 10;
 export function possibleRange(subject: BoundsSubject, values: Float64Array, length: number): { low: number; high: number } | null {
   if (subject.kind === 'temperature') return subject.unit === 'degF' ? { low: -76, high: 140 } : { low: -60, high: 60 };
   if (length < robustMaxMinReadings) return null;
-  const magnitudes = Float64Array.from(values.subarray(0, length), Math.abs).sort();
+  const magnitudes = new Float64Array(length);
+  for (let i = 0; i < length; i++) magnitudes[i] = Math.abs(values[i]!);
+  magnitudes.sort();
   const robustMax = magnitudes[Math.floor(0.99 * (length - 1))]!;
   if (robustMax === 0) return null;
   return { low: -Infinity, high: impossibleLoadFactor * robustMax };
