@@ -333,3 +333,46 @@ describe('forecast versions once they leave draft', () => {
     expect(rows[0]).toEqual({ v: 0, p: 0, o: 0, r: 0 });
   });
 });
+
+describe('relational queries over the schema', () => {
+  let handle: DbHandle;
+
+  beforeAll(async () => {
+    handle = createDb(await createTestDatabase());
+  });
+
+  afterAll(async () => {
+    await handle?.close();
+  });
+
+  it('walk the hierarchy and the linked temperature station', async () => {
+    const [station] = await handle.db
+      .insert(schema.series)
+      .values({ key: 'WX-1', name: 'Station 1', kind: 'temperature', unit: 'degC', timeZone: 'UTC' })
+      .returning();
+    const [system] = await handle.db
+      .insert(schema.series)
+      .values({ key: 'SYS', name: 'System', kind: 'load', level: 'system', unit: 'MW', timeZone: 'UTC', temperatureSeriesId: station!.id })
+      .returning();
+    await handle.db.insert(schema.series).values([
+      { key: 'Z-1', name: 'Zone 1', kind: 'load', level: 'zone', unit: 'MW', timeZone: 'UTC', parentId: system!.id },
+      { key: 'Z-2', name: 'Zone 2', kind: 'load', level: 'zone', unit: 'MW', timeZone: 'UTC', parentId: system!.id },
+    ]);
+
+    const found = await handle.db.query.series.findFirst({
+      where: (s, { eq }) => eq(s.key, 'SYS'),
+      with: { children: { columns: { key: true } }, temperatureSeries: { columns: { key: true } }, parent: true },
+    });
+
+    expect(found?.children.map((c) => c.key).sort()).toEqual(['Z-1', 'Z-2']);
+    expect(found?.temperatureSeries?.key).toBe('WX-1');
+    expect(found?.parent).toBeNull();
+  });
+
+  it('refuse a temperature station placed in the load hierarchy', async () => {
+    const misplaced = { key: 'WX-2', name: 'Station 2', kind: 'temperature', level: 'feeder', unit: 'degC', timeZone: 'UTC' } as const;
+    expect(await sqlState(() => handle.db.insert(schema.series).values(misplaced))).toBe('23514');
+    const wrongUnit = { key: 'F-9', name: 'Feeder 9', kind: 'load', level: 'feeder', unit: 'degF', timeZone: 'UTC' } as const;
+    expect(await sqlState(() => handle.db.insert(schema.series).values(wrongUnit))).toBe('23514');
+  });
+});
