@@ -8,6 +8,7 @@ const sectionPages: Readonly<Record<string, () => Promise<Type<unknown>>>> = {
   overview: () => import('./overview/overview').then((m) => m.Overview),
   series: () => import('./series-catalogue/series-catalogue').then((m) => m.SeriesCatalogue),
   uploads: () => import('./uploads/uploads').then((m) => m.Uploads),
+  refits: () => import('./refits/refits').then((m) => m.Refits),
   people: () => import('./people/people').then((m) => m.People),
   'api-tokens': () => import('./api-tokens/api-tokens').then((m) => m.ApiTokens),
   'audit-log': () => import('./audit-log/audit-log').then((m) => m.AuditLog),
@@ -15,7 +16,12 @@ const sectionPages: Readonly<Record<string, () => Promise<Type<unknown>>>> = {
 };
 
 /** Extra paths under a section (e.g. one Outbox message), served by the section's own page. */
-const sectionSubpaths: Readonly<Record<string, readonly string[]>> = { outbox: [':id'], uploads: [':id'] };
+const sectionSubpaths: Readonly<Record<string, readonly string[]>> = { outbox: [':id'], uploads: [':id'], series: [':id'] };
+
+/** Extra paths served by a page of their own instead of the section's (e.g. one series), by full path. */
+const subpathPages: Readonly<Record<string, () => Promise<Type<unknown>>>> = {
+  'series/:id': () => import('./series-page/series-page').then((m) => m.SeriesPage),
+};
 
 /**
  * The routes of one section: its page for people holding the section's permission, then, at the same
@@ -26,7 +32,7 @@ function sectionRoutes(section: ProductSection): Routes {
   const loadComponent = page ?? (() => import('./shared/upcoming-section/upcoming-section').then((m) => m.UpcomingSection));
   const paths = [section.path, ...(sectionSubpaths[section.path] ?? []).map((sub) => `${section.path}/${sub}`)];
   return paths.flatMap((path): Route[] => [
-    { path, title: section.label, data: { section }, canMatch: [holds(section.permission)], loadComponent },
+    { path, title: section.label, data: { section }, canMatch: [holds(section.permission)], loadComponent: (section.available && subpathPages[path]) || loadComponent },
     { path, title: 'Not allowed', data: { section }, loadComponent: () => import('./shared/refused/refused').then((m) => m.Refused) },
   ]);
 }

@@ -62,7 +62,7 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     label: 'Refits',
     icon: 'model_training',
     purpose: 'Refit runs with per-series status, errors and durations, and a way to refit now.',
-    available: false,
+    available: true,
     permission: 'data.read',
     group: 'work',
   },

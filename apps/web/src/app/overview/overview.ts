@@ -8,11 +8,13 @@ import { HealthClient } from '../core/health/health-client';
 import { HEALTH_POLL_INTERVAL_MS, pollHealth } from './health-feed';
 import { type HealthReading, databaseLine, queueLine, verdictOf } from './health-reading';
 import { ComponentStatus } from './component-status';
+import { RefitStatus } from './refit-status';
+import { SystemPeak } from './system-peak';
 
-/** The Overview: service health now, polled every 10 seconds while the page is open. */
+/** The Overview: the night's refits and the week's system peak, then service health, each kept live while the page is open. */
 @Component({
   selector: 'lw-overview',
-  imports: [DatePipe, MatButtonModule, MatIconModule, ComponentStatus],
+  imports: [DatePipe, MatButtonModule, MatIconModule, ComponentStatus, RefitStatus, SystemPeak],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './overview.html',
   styleUrl: './overview.scss',

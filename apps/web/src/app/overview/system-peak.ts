@@ -1,0 +1,77 @@
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { HttpClient } from '@angular/common/http';
+import { MatIconModule } from '@angular/material/icon';
+import { RouterLink } from '@angular/router';
+import type { ForecastReview, SeriesPage } from '@loadwright/contracts';
+import { catchError, map, of, switchMap } from 'rxjs';
+import { horizonPeak } from '../series-page/chart-data';
+import { withUnit } from '../series-page/chart-theme';
+import { zoneAbbreviation } from '../series-page/zoned-time';
+
+/** What the card knows. */
+type PeakState = { readonly state: 'loading' } | { readonly state: 'none'; readonly why: string } | { readonly state: 'ready'; readonly review: ForecastReview };
+
+/** The Overview's next-week system peak: the highest hour of the system series' draft and approved forecasts, in local time. */
+@Component({
+  selector: 'lw-system-peak',
+  imports: [MatIconModule, RouterLink],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    <section class="card" aria-labelledby="system-peak-heading">
+      <h3 id="system-peak-heading"><mat-icon aria-hidden="true">trending_up</mat-icon> Next-week system peak</h3>
+      @switch (data().state) {
+        @case ('loading') {
+          <p class="detail">Reading the system forecast…</p>
+        }
+        @case ('none') {
+          <p class="detail">{{ $any(data()).why }}</p>
+        }
+      }
+      @if (review(); as r) {
+        @for (line of lines(); track line.label) {
+          <p class="peak">
+            <span class="label">{{ line.label }}</span>
+            <span class="value">{{ line.value }}</span>
+            <span class="when">{{ line.when }}</span>
+          </p>
+        }
+        <a [routerLink]="['/series', r.series.id]" class="more">Open {{ r.series.name }}</a>
+      }
+    </section>
+  `,
+  styleUrl: './overview-card.scss',
+})
+export class SystemPeak {
+  private readonly http = inject(HttpClient);
+
+  /** The system series' forecast review, read once when the Overview opens. */
+  protected readonly data = toSignal(
+    this.http.get<SeriesPage>('/api/series', { params: { level: 'system', kind: 'load', limit: 1 } }).pipe(
+      switchMap((page) => {
+        const system = page.items[0];
+        if (!system) return of<PeakState>({ state: 'none', why: 'No system series in the catalogue yet.' });
+        return this.http.get<ForecastReview>(`/api/series/${system.id}/forecast`).pipe(map((review): PeakState => ({ state: 'ready', review })));
+      }),
+      catchError(() => of<PeakState>({ state: 'none', why: 'The system forecast could not be read.' })),
+    ),
+    { initialValue: { state: 'loading' } as PeakState },
+  );
+  /** The review, once read. */
+  protected readonly review = computed(() => {
+    const data = this.data();
+    return data.state === 'ready' ? data.review : null;
+  });
+  /** One line per version: its peak value with unit, and local day, time and zone. */
+  protected readonly lines = computed(() => {
+    const review = this.review();
+    if (!review) return [];
+    const zone = review.series.timeZone;
+    const line = (label: string, version: ForecastReview['draft']) => {
+      const peak = horizonPeak(version);
+      return peak ? [{ label, value: withUnit(peak.value, review.series.unit), when: `${peak.date} at ${peak.localTime} ${zoneAbbreviation(peak.ts, zone)}` }] : [];
+    };
+    const found = [...line('Approved', review.approved), ...line('Draft', review.draft)];
+    return found.length ? found : [{ label: 'No forecast yet', value: '—', when: 'The next refit writes a draft.' }];
+  });
+}

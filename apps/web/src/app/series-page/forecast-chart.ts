@@ -1,0 +1,82 @@
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import type { ChartData, ChartDataset, ChartOptions } from 'chart.js';
+import type { ForecastReview } from '@loadwright/contracts';
+import { BaseChartDirective } from 'ng2-charts';
+import { fanChartData, reviewedVersion } from './chart-data';
+import { chartColours, timeChartOptions, unitLabel } from './chart-theme';
+
+/**
+ * The forecast fan chart: actuals so far, the version under review with its 95 % and 80 % bands
+ * (filled, the 80 % band darker, each named in the legend), the approved version as a dashed line,
+ * and the adjusted mean as a dotted line where a planner adjusted the draft.
+ */
+@Component({
+  selector: 'lw-forecast-chart',
+  imports: [BaseChartDirective],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    <div class="chart-box">
+      <canvas baseChart type="line" [data]="chartData()" [options]="options()" role="img" [attr.aria-label]="description()"></canvas>
+    </div>
+  `,
+  styles: `
+    .chart-box {
+      position: relative;
+      height: 380px;
+      padding: 12px;
+      border: 1px solid var(--mat-sys-outline-variant);
+      border-radius: var(--mat-sys-corner-large);
+      background: var(--mat-sys-surface-container-lowest);
+    }
+  `,
+})
+export class ForecastChart {
+  /** Everything the review shows. */
+  readonly review = input.required<ForecastReview>();
+
+  /** Datasets in drawing order; each band is a lower line and an upper line filled down to it. */
+  protected readonly chartData = computed<ChartData<'line'>>(() => {
+    const review = this.review();
+    const fan = fanChartData(review);
+    const name = review.draft ? 'Draft' : 'Approved';
+    const hidden = { pointRadius: 0, borderWidth: 0, pointStyle: false as const };
+    const datasets: ChartDataset<'line'>[] = [
+      { label: '95 % lower', data: fan.lower95, ...hidden, fill: false },
+      { label: `${name}: 95 % interval (light fill)`, data: fan.upper95, ...hidden, fill: '-1', backgroundColor: chartColours.band95, pointStyle: 'rect' },
+      { label: '80 % lower', data: fan.lower80, ...hidden, fill: false },
+      { label: `${name}: 80 % interval (darker fill)`, data: fan.upper80, ...hidden, fill: '-1', backgroundColor: chartColours.band80, pointStyle: 'rect' },
+      { label: `${name}: model mean (solid)`, data: fan.mean, borderColor: chartColours.forecast, borderWidth: 2, pointRadius: 0, pointStyle: 'line' },
+    ];
+    if (fan.hasAdjustments) {
+      datasets.push({ label: `${name}: adjusted mean (dotted)`, data: fan.adjusted, borderColor: chartColours.adjusted, borderWidth: 2.5, borderDash: [2, 3], pointRadius: 0, pointStyle: 'line', spanGaps: false });
+    }
+    if (fan.approved.length) {
+      datasets.push({ label: 'Approved (dashed)', data: fan.approved, borderColor: chartColours.approved, borderWidth: 2, borderDash: [8, 5], pointRadius: 0, pointStyle: 'line' });
+    }
+    datasets.push({ label: 'Actual load', data: fan.actuals, borderColor: chartColours.actual, borderWidth: 2, pointRadius: 0, pointStyle: 'line' });
+    return { datasets };
+  });
+
+  /** Axes in the series' time zone and unit; the bands' lower lines stay out of the legend and tooltips. */
+  protected readonly options = computed<ChartOptions<'line'>>(() => {
+    const series = this.review().series;
+    const base = timeChartOptions(series.timeZone, series.unit, false);
+    const unnamed = (label: string | undefined) => !label || label.endsWith(' lower');
+    return {
+      ...base,
+      plugins: {
+        ...base.plugins,
+        legend: { ...base.plugins!.legend, labels: { ...base.plugins!.legend!.labels, filter: (item) => !unnamed(item.text) } },
+        tooltip: { ...base.plugins!.tooltip, filter: (item) => !unnamed(item.dataset.label) },
+      },
+    };
+  });
+
+  /** A sentence for screen readers; the tables below give the numbers. */
+  protected readonly description = computed(() => {
+    const review = this.review();
+    const version = reviewedVersion(review);
+    if (!version) return 'No forecast yet.';
+    return `Forecast fan chart of ${review.series.name} in ${unitLabel(review.series.unit)}: ${version.state} version with 80 % and 95 % intervals${review.draft && review.approved ? ', the approved version' : ''} and actual load so far. Daily peaks are listed in the table below.`;
+  });
+}

@@ -1,0 +1,74 @@
+import { HttpClient } from '@angular/common/http';
+import { Injectable, inject } from '@angular/core';
+import type {
+  ApprovalResult,
+  CreateAdjustmentRequest,
+  FitSummary,
+  ForecastAdjustment,
+  ForecastReview,
+  ForecastVersionPage,
+  ModelSettings,
+  ModelSettingsRequest,
+  ReadingHistory,
+  SeriesDetail,
+} from '@loadwright/contracts';
+import type { Observable } from 'rxjs';
+
+/** The APIs behind one series' page. Failures arrive as ApiProblem from the problem interceptor. */
+@Injectable({ providedIn: 'root' })
+export class SeriesPageClient {
+  private readonly http = inject(HttpClient);
+
+  /** The series with its place in the hierarchy. */
+  series(id: number): Observable<SeriesDetail> {
+    return this.http.get<SeriesDetail>(`/api/series/${id}`);
+  }
+
+  /** Readings between `from` and `to` (ISO), aggregated by the API over long ranges. */
+  readings(id: number, from: string | null, to: string | null): Observable<ReadingHistory> {
+    const params: Record<string, string> = {};
+    if (from) params['from'] = from;
+    if (to) params['to'] = to;
+    return this.http.get<ReadingHistory>(`/api/series/${id}/readings`, { params });
+  }
+
+  /** Draft, approved, actuals so far and their comparison. */
+  forecast(id: number): Observable<ForecastReview> {
+    return this.http.get<ForecastReview>(`/api/series/${id}/forecast`);
+  }
+
+  /** Version history, newest first. */
+  versions(id: number): Observable<ForecastVersionPage> {
+    return this.http.get<ForecastVersionPage>(`/api/series/${id}/forecast-versions`, { params: { limit: 20 } });
+  }
+
+  /** The newest fit: coefficients, diagnostics and what auto compared. */
+  fit(id: number): Observable<FitSummary> {
+    return this.http.get<FitSummary>(`/api/series/${id}/fit`);
+  }
+
+  /** The series' model settings. */
+  modelSettings(id: number): Observable<ModelSettings> {
+    return this.http.get<ModelSettings>(`/api/series/${id}/model`);
+  }
+
+  /** Replaces the model settings (planners, admins). */
+  saveModelSettings(id: number, settings: ModelSettingsRequest): Observable<ModelSettings> {
+    return this.http.put<ModelSettings>(`/api/series/${id}/model`, settings);
+  }
+
+  /** Adjusts a period of a draft. */
+  addAdjustment(versionId: number, request: CreateAdjustmentRequest): Observable<ForecastAdjustment> {
+    return this.http.post<ForecastAdjustment>(`/api/forecast-versions/${versionId}/adjustments`, request);
+  }
+
+  /** Removes an adjustment from a draft. */
+  removeAdjustment(versionId: number, adjustmentId: number): Observable<void> {
+    return this.http.delete<void>(`/api/forecast-versions/${versionId}/adjustments/${adjustmentId}`);
+  }
+
+  /** Approves a draft; the previously approved version is superseded. */
+  approve(versionId: number): Observable<ApprovalResult> {
+    return this.http.post<ApprovalResult>(`/api/forecast-versions/${versionId}/approve`, null);
+  }
+}
