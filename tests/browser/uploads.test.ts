@@ -103,7 +103,7 @@ describe('a steward uploads a day of feeder readings', () => {
     expect(await page.getByRole('combobox', { name: 'Series key column' }).textContent()).toContain('feeder');
     expect(await page.getByRole('combobox', { name: 'Unit of the values' }).textContent()).toContain('kW (mean demand)');
     expect(await page.getByLabel('Time zone of local times').inputValue()).toBe(demoScenario.organisation.timeZone);
-    expect(await page.getByRole('combobox', { name: 'Repeated hour when clocks fall back' }).textContent()).toContain('Drop readings in the repeated hour');
+    expect(await page.getByRole('combobox', { name: 'Repeated hour when clocks fall back' }).textContent()).toContain('Drop readings in that hour');
     expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
     await page.screenshot({ path: resolve(artifacts, 'upload-preview.png') });
     await page.getByRole('heading', { level: 2, name: 'Column mapping' }).evaluate((heading) => heading.scrollIntoView({ block: 'start' }));

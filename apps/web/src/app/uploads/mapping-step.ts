@@ -32,8 +32,8 @@ const unitWords: Record<(typeof uploadUnits)[number], string> = {
 
 /** Words for the repeated-hour policies. */
 const policyWords: Record<(typeof repeatedHourPolicies)[number], string> = {
-  reject: 'Drop readings in the repeated hour, with a finding',
-  'first-is-daylight': 'First occurrence is daylight time, second is standard time',
+  reject: 'Drop readings in that hour',
+  'first-is-daylight': 'First is daylight, second standard time',
 };
 
 /**
