@@ -20,7 +20,8 @@ declare module 'vitest' {
 
 export default async function setup(project: TestProject) {
   // Browser tests load the production build that the API serves, exactly as `npm start` does.
-  if (isWebBuildStale()) await buildWeb();
+  // LOADWRIGHT_SKIP_WEB_BUILD=1 skips it while working on the server alone (browser tests then use the last build).
+  if (process.env['LOADWRIGHT_SKIP_WEB_BUILD'] !== '1' && isWebBuildStale()) await buildWeb();
   const { adminUrl, startedHere } = await ensurePostgres();
   const template = `lw_test_${Date.now().toString(36)}_${process.pid}`;
   await createDatabase(adminUrl, template);
