@@ -153,7 +153,9 @@ export async function readUploadFile(path: string, layout: UploadLayout, plan: I
   let bytes = 0;
   let records = 0;
   for await (const batch of csvRecords(path, layout, (read) => (bytes = read))) {
-    for (const { cells, line } of batch) {
+    for (let r = 0; r < batch.lines.length; r++) {
+      const cells = batch.cells[r]!;
+      const line = batch.lines[r]!;
       if (records++ < headerRows) continue;
       rows++;
       const stamp = stampOf(cells[plan.timestampIndex] ?? '', line);

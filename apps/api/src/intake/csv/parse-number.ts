@@ -13,6 +13,11 @@ const missingMarkers = new Set(['', 'na', 'n/a', 'nan', 'null']);
 
 /** Reads one value cell. */
 export function parseValueCell(text: string, decimalSeparator: '.' | ',' = '.'): ValueCell {
+  // The common case first, without allocating: a plain number as written.
+  if (decimalSeparator === '.' && numberPattern.test(text)) {
+    const value = Number(text);
+    return Number.isFinite(value) ? { kind: 'number', value } : { kind: 'invalid' };
+  }
   const cell = text.trim();
   if (missingMarkers.has(cell.toLowerCase())) return { kind: 'missing' };
   const normal = decimalSeparator === ',' ? cell.replace(',', '.') : cell;

@@ -12,8 +12,14 @@ import type { UploadLayout } from '@loadwright/contracts';
 import { UploadRejection } from '../upload-rejection';
 import { csvErrorMessage, firstInvalidUtf8 } from './sniff';
 
-/** One record: its cells and the 1-based line it ends on. */
-export interface CsvRecord {
+/** A batch of records: each record's cells, and the 1-based line each ends on (kept apart to spare an object per row). */
+export interface CsvBatch {
+  cells: string[][];
+  lines: number[];
+}
+
+/** One record as csv-parse hands it over. */
+interface CsvRecord {
   cells: string[];
   line: number;
 }
@@ -22,7 +28,7 @@ export interface CsvRecord {
 export type BytesRead = (bytes: number) => void;
 
 /** All records of the file in batches: split directly when the file holds no quote character. */
-export async function* csvRecords(path: string, layout: UploadLayout, onBytes?: BytesRead): AsyncGenerator<CsvRecord[]> {
+export async function* csvRecords(path: string, layout: UploadLayout, onBytes?: BytesRead): AsyncGenerator<CsvBatch> {
   if (await holdsQuote(path)) yield* parsedRecords(path, layout, onBytes);
   else yield* splitRecords(path, layout, onBytes);
 }
@@ -62,14 +68,14 @@ function textDecoder(layout: UploadLayout) {
 }
 
 /** The fast path for files without quotes: split on line breaks and the delimiter. */
-async function* splitRecords(path: string, layout: UploadLayout, onBytes?: BytesRead): AsyncGenerator<CsvRecord[]> {
+async function* splitRecords(path: string, layout: UploadLayout, onBytes?: BytesRead): AsyncGenerator<CsvBatch> {
   const decoder = textDecoder(layout);
   const file = createReadStream(path, { highWaterMark: 1 << 20 });
   let rest = '';
   let line = 0;
   let width = -1;
-  const split = (text: string, final: boolean): CsvRecord[] => {
-    const batch: CsvRecord[] = [];
+  const split = (text: string, final: boolean): CsvBatch => {
+    const batch: CsvBatch = { cells: [], lines: [] };
     let start = 0;
     for (;;) {
       let end = text.indexOf('\n', start);
@@ -84,7 +90,8 @@ async function* splitRecords(path: string, layout: UploadLayout, onBytes?: Bytes
       const cells = raw.split(layout.delimiter);
       if (width < 0) width = cells.length;
       else if (cells.length !== width) throw new UploadRejection(`Row ${line} has ${cells.length} fields where the header has ${width}; check that row for a stray delimiter or a missing cell.`);
-      batch.push({ cells, line });
+      batch.cells.push(cells);
+      batch.lines.push(line);
     }
     rest = text.slice(start);
     return batch;
@@ -101,7 +108,7 @@ async function* splitRecords(path: string, layout: UploadLayout, onBytes?: Bytes
 }
 
 /** The general path: csv-parse over the decoded text, in batches of 2,000 records. */
-async function* parsedRecords(path: string, layout: UploadLayout, onBytes?: BytesRead): AsyncGenerator<CsvRecord[]> {
+async function* parsedRecords(path: string, layout: UploadLayout, onBytes?: BytesRead): AsyncGenerator<CsvBatch> {
   const decoder = textDecoder(layout);
   const file = createReadStream(path, { highWaterMark: 1 << 20 });
   const decode = new Transform({
@@ -130,16 +137,17 @@ async function* parsedRecords(path: string, layout: UploadLayout, onBytes?: Byte
   file.on('error', (error) => parser.destroy(error));
   decode.on('error', (error) => parser.destroy(error));
   file.pipe(decode).pipe(parser);
-  let batch: CsvRecord[] = [];
+  let batch: CsvBatch = { cells: [], lines: [] };
   try {
     for await (const record of parser as AsyncIterable<CsvRecord>) {
-      batch.push(record);
-      if (batch.length === 2000) {
+      batch.cells.push(record.cells);
+      batch.lines.push(record.line);
+      if (batch.lines.length === 2000) {
         yield batch;
-        batch = [];
+        batch = { cells: [], lines: [] };
       }
     }
-    if (batch.length > 0) yield batch;
+    if (batch.lines.length > 0) yield batch;
   } catch (error) {
     if (error instanceof UploadRejection) throw error;
     const cause = (error as { code?: string }).code ? error : (error as { cause?: unknown }).cause;
