@@ -36,6 +36,9 @@ type PeakState = { readonly state: 'loading' } | { readonly state: 'none'; reado
             <span class="when">{{ line.when }}</span>
           </p>
         }
+        @if (!lines().length) {
+          <p class="detail">{{ r.series.name }} has no forecast yet; the next refit writes a draft.</p>
+        }
         <a [routerLink]="['/series', r.series.id]" class="more">Open {{ r.series.name }}</a>
       }
     </section>
@@ -72,6 +75,6 @@ export class SystemPeak {
       return peak ? [{ label, value: withUnit(peak.value, review.series.unit), when: `${peak.date} at ${peak.localTime} ${zoneAbbreviation(peak.ts, zone)}` }] : [];
     };
     const found = [...line('Approved', review.approved), ...line('Draft', review.draft)];
-    return found.length ? found : [{ label: 'No forecast yet', value: '—', when: 'The next refit writes a draft.' }];
+    return found;
   });
 }

@@ -25,7 +25,7 @@ type ScopeKind = RefitScope['kind'];
         <mat-label>What to refit</mat-label>
         <mat-select name="kind" [ngModel]="kind()" (ngModelChange)="chooseKind($event)">
           <mat-option value="all">All active series</mat-option>
-          <mat-option value="subtree">A group: a series and everything below it</mat-option>
+          <mat-option value="subtree">A group (a series and all below it)</mat-option>
           <mat-option value="series">One series</mat-option>
         </mat-select>
       </mat-form-field>

@@ -1,5 +1,6 @@
 import 'chartjs-adapter-date-fns';
 import type { ChartOptions, TooltipItem } from 'chart.js';
+import { localTicks } from './local-ticks';
 
 /** Colours of the charts' lines, from the product palette; each line also differs by dash or width. */
 export const chartColours = {
@@ -12,14 +13,15 @@ export const chartColours = {
   grid: 'rgba(0, 0, 0, 0.08)',
 } as const;
 
-/** "Tue 2 Dec 17:00" in the given IANA time zone. */
-export function zonedLabel(ms: number, timeZone: string, withTime = true): string {
+/** "Tue 2 Dec 17:00" (or "Tue 2 Dec 2026", "Tue 2 Dec", "Dec 2026") in the given IANA time zone. */
+export function zonedLabel(ms: number, timeZone: string, withTime = true, shape: 'full' | 'day' | 'month' = 'full'): string {
+  if (shape === 'month') return new Intl.DateTimeFormat('en-GB', { timeZone, month: 'short', year: 'numeric' }).format(new Date(ms));
   return new Intl.DateTimeFormat('en-GB', {
     timeZone,
     weekday: 'short',
     day: 'numeric',
     month: 'short',
-    ...(withTime ? { hour: '2-digit', minute: '2-digit', hourCycle: 'h23' as const } : { year: 'numeric' as const }),
+    ...(withTime ? { hour: '2-digit', minute: '2-digit', hourCycle: 'h23' as const } : shape === 'day' ? {} : { year: 'numeric' as const }),
   })
     .format(new Date(ms))
     .replace(',', '');
@@ -49,7 +51,12 @@ export function timeChartOptions(timeZone: string, unit: string, daily: boolean)
       x: {
         type: 'time',
         grid: { color: chartColours.grid },
-        ticks: { maxRotation: 0, autoSkipPadding: 16, color: '#3f484a', callback: (value) => zonedLabel(Number(value), timeZone, !daily) },
+        // Ticks at the series' local midnights, labelled in its zone, whatever zone the browser is in.
+        afterBuildTicks: (axis) => {
+          const ticks = localTicks(axis.min, axis.max, timeZone);
+          axis.ticks = ticks.values.map((value) => ({ value, label: ticks.label === 'day' ? zonedLabel(value, timeZone, false, 'day') : zonedLabel(value, timeZone, false, 'month') }));
+        },
+        ticks: { maxRotation: 0, autoSkip: false, color: '#3f484a', callback: (_value, index, ticks) => String(ticks[index]?.label ?? '') },
         title: { display: true, text: `Local time (${timeZone})`, color: '#3f484a' },
       },
       y: {

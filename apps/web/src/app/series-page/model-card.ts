@@ -1,4 +1,4 @@
-import { DecimalPipe } from '@angular/common';
+import { DatePipe, DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { ChartData, ChartOptions } from 'chart.js';
 import { type FitSummary, modelMethodLabels } from '@loadwright/contracts';
@@ -10,7 +10,7 @@ import { coefficientRows } from './coefficients';
 /** The model card: method and orders, coefficients, σ², AIC/BIC, why auto chose it, and residual diagnostics. */
 @Component({
   selector: 'lw-model-card',
-  imports: [BaseChartDirective, DecimalPipe],
+  imports: [BaseChartDirective, DatePipe, DecimalPipe],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './model-card.html',
   styleUrl: './model-card.scss',
