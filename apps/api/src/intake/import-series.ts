@@ -1,11 +1,12 @@
 /**
- * The import core for one series: collapse duplicates, drop off-grid and future readings, look up
- * which missing intervals already hold stored readings, validate and estimate, then merge into
- * `observations` and record findings. Runs inside the caller's transaction.
+ * The import core for one series, in three steps that the upload job can overlap across series:
+ * screen (collapse duplicates, drop off-grid and future readings), look up which missing intervals
+ * already hold stored readings, then validate and store (merge into `observations`, record
+ * findings). `importSeries` runs them in a row inside the caller's transaction.
  */
 import { sql } from 'drizzle-orm';
 import { FindingTally, type Finding } from './findings';
-import { intervalGrid } from './interval-grid';
+import { intervalGrid, type IntervalGrid } from './interval-grid';
 import { collapseDuplicates } from './rules/duplicates';
 import { screenInstants } from './rules/instant-screen';
 import type { SeriesReadings } from './series-readings';
@@ -42,20 +43,50 @@ export interface ImportSeriesResult extends WriteCounts {
   findings: FindingTally;
 }
 
-/** Imports one series' readings (any order, duplicates allowed). */
-export async function importSeries(executor: SqlExecutor, target: SeriesTarget, source: SeriesReadings, options: ImportSeriesOptions): Promise<ImportSeriesResult> {
+/** Readings of one series after screening, with the stored intervals inside their gaps. */
+export interface ScreenedSeries {
+  target: SeriesTarget;
+  grid: IntervalGrid;
+  readings: SeriesReadings;
+  findings: Finding[];
+  rejected: number;
+  stored: Set<number>;
+}
+
+/** Steps 1 and 2: screens the readings and looks up stored intervals inside their gaps. */
+export async function screenSeries(executor: SqlExecutor, target: SeriesTarget, source: SeriesReadings, now: Date = new Date()): Promise<ScreenedSeries> {
   const grid = intervalGrid(target.intervalMinutes, target.timeZone);
   const collapsed = collapseDuplicates(source, target.seriesId);
-  const screened = screenInstants(collapsed.readings, target.seriesId, grid, (options.now ?? new Date()).getTime());
+  const screened = screenInstants(collapsed.readings, target.seriesId, grid, now.getTime());
   const readings = screened.readings;
   const stored = await storedInGaps(executor, target.seriesId, readings, grid.intervalMinutes * 60_000, grid.indexOf);
-  const { rows, findings } = validateSeries(readings, { ...target, grid, stored, maxEstimatedGap: options.maxEstimatedGap });
-  const all: Finding[] = [...collapsed.findings, ...screened.findings, ...findings];
-  const counts = await writeObservations(executor, target.seriesId, options.uploadId, rows, options.onRows);
-  if (options.uploadId !== null) await writeFindings(executor, options.uploadId, all);
+  return { target, grid, readings, findings: [...collapsed.findings, ...screened.findings], rejected: source.length - readings.length, stored };
+}
+
+/** Step 3, the pure part: validates and estimates (no database). */
+export function validateScreened(screened: ScreenedSeries, maxEstimatedGap?: number) {
+  const { rows, findings } = validateSeries(screened.readings, { ...screened.target, grid: screened.grid, stored: screened.stored, maxEstimatedGap });
+  return { rows, findings: [...screened.findings, ...findings], rejected: screened.rejected };
+}
+
+/** Step 3, the writing part: merges the rows and stores the findings; returns counts and the tally. */
+export async function storeSeries(
+  executor: SqlExecutor,
+  seriesId: number,
+  validated: ReturnType<typeof validateScreened>,
+  options: Pick<ImportSeriesOptions, 'uploadId' | 'onRows'>,
+): Promise<ImportSeriesResult> {
+  const counts = await writeObservations(executor, seriesId, options.uploadId, validated.rows, options.onRows);
+  if (options.uploadId !== null) await writeFindings(executor, options.uploadId, validated.findings);
   const tally = new FindingTally();
-  for (const finding of all) tally.add(finding);
-  return { ...counts, rejected: source.length - readings.length, findings: tally };
+  for (const finding of validated.findings) tally.add(finding);
+  return { ...counts, rejected: validated.rejected, findings: tally };
+}
+
+/** Imports one series' readings (any order, duplicates allowed): the three steps in a row. */
+export async function importSeries(executor: SqlExecutor, target: SeriesTarget, source: SeriesReadings, options: ImportSeriesOptions): Promise<ImportSeriesResult> {
+  const screened = await screenSeries(executor, target, source, options.now);
+  return storeSeries(executor, target.seriesId, validateScreened(screened, options.maxEstimatedGap), options);
 }
 
 /**

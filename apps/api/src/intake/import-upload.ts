@@ -13,7 +13,7 @@ import type { Pool } from 'pg';
 import { sniffFile } from './csv/sniff';
 import { FindingTally } from './findings';
 import { planImport } from './import-plan';
-import { importSeries } from './import-series';
+import { screenSeries, storeSeries, validateScreened, type ScreenedSeries } from './import-series';
 import { loadCatalogue } from './load-catalogue';
 import { readUploadFile } from './read-upload-file';
 import { UploadRejection } from './upload-rejection';
@@ -66,21 +66,31 @@ export async function importUpload(deps: ImportUploadDeps, uploadId: number): Pr
     const totals = { inserted: 0, unchanged: 0, revised: 0, rejected: file.rejected };
     let written = 0;
     await db.transaction(async (tx) => {
-      for (const { series, readings: columns } of file.bySeries.values()) {
-        const before = written;
-        const result = await importSeries(tx, { ...series, seriesId: series.id }, columns, {
-          uploadId,
-          now: deps.now,
-          maxEstimatedGap: settings.estimateShortGaps === false ? 0 : 3,
-          onRows: (rows) => progress(readShare + ((1 - readShare) * Math.min(readings, before + rows)) / readings, file.rows),
-        });
-        written += columns.length;
-        totals.inserted += result.inserted;
-        totals.unchanged += result.unchanged;
-        totals.revised += result.revised;
-        totals.rejected += result.rejected;
-        tally.merge(result.findings);
+      // Screen every series first (quick queries), then validate each series in JavaScript while
+      // the previous one is being written, so the CPU work overlaps the database's.
+      const screened: ScreenedSeries[] = [];
+      for (const [id, { series, readings: columns }] of file.bySeries) {
+        screened.push(await screenSeries(tx, { ...series, seriesId: series.id }, columns, deps.now));
+        file.bySeries.delete(id); // the screened copy replaces the raw columns
       }
+      let writing: Promise<void> = Promise.resolve();
+      for (const one of screened) {
+        const validated = validateScreened(one, settings.estimateShortGaps === false ? 0 : 3);
+        await writing;
+        const before = written;
+        writing = storeSeries(tx, one.target.seriesId, validated, {
+          uploadId,
+          onRows: (rows) => progress(readShare + ((1 - readShare) * Math.min(readings, before + rows)) / readings, file.rows),
+        }).then((result) => {
+          totals.inserted += result.inserted;
+          totals.unchanged += result.unchanged;
+          totals.revised += result.revised;
+          totals.rejected += result.rejected;
+          tally.merge(result.findings);
+        });
+        written += validated.rows.length;
+      }
+      await writing;
       await writeFindings(tx, uploadId, file.findings);
       await tx
         .update(uploads)
