@@ -179,9 +179,13 @@ describe('a steward uploads a day of feeder readings', () => {
   });
 
   it('shows the server\'s message for a binary file renamed .csv, and stores nothing from it', async () => {
-    const file = join(folder, 'meter-export.csv');
-    await writeFile(file, Buffer.from([0x4c, 0x57, 0x01, 0x00, 0xff, 0x13, 0x37, 0x00, 0x42]));
-    await picker().setInputFiles(file);
+    // Dropped this time, as a file dragged from the desktop would be.
+    const dataTransfer = await page.evaluateHandle((bytes) => {
+      const transfer = new DataTransfer();
+      transfer.items.add(new File([new Uint8Array(bytes)], 'meter-export.csv', { type: 'text/csv' }));
+      return transfer;
+    }, [0x4c, 0x57, 0x01, 0x00, 0xff, 0x13, 0x37, 0x00, 0x42]);
+    await page.getByRole('region', { name: 'Drop a CSV file here' }).dispatchEvent('drop', { dataTransfer });
     const alert = page.getByRole('alert').filter({ hasText: 'was not taken in' });
     await alert.waitFor({ timeout: 15_000 });
     expect(await alert.textContent()).toContain('meter-export.csv was not taken in');
@@ -198,6 +202,34 @@ describe('a steward uploads a day of feeder readings', () => {
     const status = page.getByRole('status').filter({ hasText: `Already imported as upload ${uploadId}` });
     await status.waitFor({ timeout: 15_000 });
     expect(await status.getByRole('link', { name: `Open upload ${uploadId}` }).getAttribute('href')).toBe(`/uploads/${uploadId}`);
+  });
+});
+
+describe('a large file on a slow connection', () => {
+  it('shows how much of the file has gone, then the server\'s answer', async () => {
+    const cdp = await page.context().newCDPSession(page);
+    await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 20, downloadThroughput: -1, uploadThroughput: 96 * 1024 });
+    const file = join(folder, 'readings-one-column.csv');
+    // 300 kB of one column: Loadwright refuses it for its single column once it has arrived.
+    await writeFile(file, `reading\n${'1234.5\n'.repeat(43_000)}`);
+    await picker().setInputFiles(file);
+    const seen = await page.waitForFunction(
+      () => {
+        const bar = document.querySelector('mat-progress-bar[aria-label="File transfer"]');
+        const value = Number(bar?.getAttribute('aria-valuenow'));
+        return value > 0 && value < 100 ? value : null;
+      },
+      undefined,
+      { timeout: 15_000, polling: 50 },
+    );
+    expect(await seen.jsonValue()).toBeGreaterThan(0);
+    expect(await page.getByRole('status').filter({ hasText: 'Sending…' }).textContent()).toMatch(/readings-one-column\.csv\s*Sending… \d+ % of 294 kB/);
+    await page.screenshot({ path: resolve(artifacts, 'upload-transfer.png') });
+    const alert = page.getByRole('alert').filter({ hasText: 'readings-one-column.csv was not taken in' });
+    await alert.waitFor({ timeout: 30_000 });
+    expect(await alert.textContent()).toContain('Row 1 has a single column');
+    await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
+    await cdp.detach();
   });
 });
 

@@ -1,12 +1,16 @@
-import { HttpClient, type HttpEvent } from '@angular/common/http';
-import { Injectable, inject } from '@angular/core';
+import { HttpBackend, HttpClient, type HttpEvent, HttpXhrBackend, provideHttpClient, withInterceptors, withXsrfConfiguration } from '@angular/common/http';
+import { EnvironmentInjector, Injectable, createEnvironmentInjector, inject } from '@angular/core';
 import type { ConfirmUploadRequest, Upload, UploadDetail, UploadPage, UploadReceipt } from '@loadwright/contracts';
 import type { Observable } from 'rxjs';
+import { sessionExpiryInterceptor } from '../core/auth/session-expiry-interceptor';
+import { problemInterceptor } from '../core/problems/problem-interceptor';
 
 /** The uploads API (stewards and admins). Failures arrive as ApiProblem from the problem interceptor. */
 @Injectable({ providedIn: 'root' })
 export class UploadsClient {
   private readonly http = inject(HttpClient);
+  /** Sends files: the app's HttpClient uses fetch, which cannot report how much of a request body has gone. */
+  private readonly transfers = xhrHttpClient(inject(EnvironmentInjector));
 
   /** The newest uploads first. */
   list(limit = 20): Observable<UploadPage> {
@@ -22,7 +26,7 @@ export class UploadsClient {
   send(file: File): Observable<HttpEvent<UploadReceipt>> {
     const body = new FormData();
     body.append('file', file, file.name);
-    return this.http.post<UploadReceipt>('/api/uploads', body, { reportProgress: true, observe: 'events' });
+    return this.transfers.post<UploadReceipt>('/api/uploads', body, { reportProgress: true, observe: 'events' });
   }
 
   /** Confirms the mapping and settings; the import job is queued. */
@@ -34,4 +38,24 @@ export class UploadsClient {
   reportCsvUrl(id: number): string {
     return `/api/uploads/${id}/report.csv`;
   }
+}
+
+/**
+ * An HttpClient that sends with XMLHttpRequest, whose upload events give the transfer's progress,
+ * through the same CSRF header and interceptors as the app's own client (see app.config.ts).
+ */
+function xhrHttpClient(parent: EnvironmentInjector): HttpClient {
+  const injector = createEnvironmentInjector(
+    [
+      provideHttpClient(
+        withXsrfConfiguration({ cookieName: 'lw_csrf', headerName: 'X-CSRF-Token' }),
+        withInterceptors([sessionExpiryInterceptor, problemInterceptor]),
+      ),
+      // Listed last so it wins over the fetch backend the parent provides.
+      { provide: HttpBackend, useExisting: HttpXhrBackend },
+    ],
+    parent,
+    'file transfers',
+  );
+  return injector.get(HttpClient);
 }
