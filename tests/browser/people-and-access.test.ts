@@ -419,3 +419,23 @@ describe('API tokens and the audit log', () => {
     expect(requests.offMachine).toEqual([]);
   });
 });
+
+describe('repeated sign-in failures', () => {
+  it('lock the account for a while, and the page says how long, even for the right password', async () => {
+    await signOutBrowser();
+    await page.goto(`${server.url}/sign-in`, { waitUntil: 'networkidle' });
+    await page.getByLabel('E-mail address').fill(account('viewer').email);
+    const attempt = async (typed: string) => {
+      await page.getByLabel('Password', { exact: true }).fill(typed);
+      const answer = page.waitForResponse((response) => response.url().endsWith('/api/auth/sign-in'));
+      await page.getByRole('button', { name: 'Sign in', exact: true }).click();
+      return (await answer).status();
+    };
+    // Five failures per account within 15 minutes lock it (apps/api/src/auth/sign-in-throttle.ts).
+    for (let failure = 1; failure <= 5; failure += 1) expect(await attempt(`wrong-guess-${failure}`)).toBe(401);
+    expect(await attempt('wrong-guess-6')).toBe(429);
+    await page.getByRole('alert').getByText('Too many failed sign-ins. Try again in 15 minutes, or reset your password.').waitFor();
+    expect(await attempt(password)).toBe(429);
+    expect(new URL(page.url()).pathname).toBe('/sign-in');
+  });
+});
