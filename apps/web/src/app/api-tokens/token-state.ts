@@ -2,8 +2,11 @@ import type { ApiToken } from '@loadwright/contracts';
 
 /** Whether a token still works, in words, with an icon that never carries meaning alone. */
 export interface TokenState {
+  /** Machine-readable state, also the CSS class that colours the icon. */
   readonly kind: 'live' | 'expired' | 'revoked';
+  /** The state in words, as the page shows it. */
   readonly label: string;
+  /** Material Symbols ligature shown beside the words. */
   readonly icon: string;
 }
 

@@ -9,8 +9,9 @@ export interface AuditFilter {
   readonly action?: string;
   /** Only what this person did. */
   readonly actorUserId?: number;
-  /** Earliest and latest time, ISO 8601. */
+  /** Earliest time, ISO 8601. */
   readonly from?: string;
+  /** Latest time, ISO 8601. */
   readonly to?: string;
 }
 

@@ -39,10 +39,13 @@ export class AuditLog {
   protected readonly loading = signal(false);
   /** Why the log could not be read. */
   protected readonly problem = signal<string | null>(null);
-  /** Readable names for the template. */
+  /** Readable name of an action code, for the template. */
   protected readonly actionName = actionName;
+  /** Readable name of whoever acted, for the template. */
   protected readonly actorName = actorName;
+  /** An entry's detail as short pairs, for the template. */
   protected readonly detailSummary = detailSummary;
+  /** What an entry acted on, for the template. */
   protected readonly targetName = targetName;
 
   /** The filter in force for the pages shown. */

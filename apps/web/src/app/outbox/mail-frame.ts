@@ -27,6 +27,7 @@ export class MailFrame {
   /** Accessible name of the frame. */
   readonly title = input.required<string>();
 
+  /** The frame element, to reach its document once loaded. */
   private readonly frame = viewChild.required<ElementRef<HTMLIFrameElement>>('frame');
   private readonly sanitizer = inject(DomSanitizer);
 

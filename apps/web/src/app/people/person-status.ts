@@ -2,8 +2,11 @@ import type { Person } from '@loadwright/contracts';
 
 /** A person's standing, in the words the People page uses, with an icon that never carries meaning alone. */
 export interface PersonStatus {
+  /** Machine-readable state, also the CSS class that colours the icon. */
   readonly kind: 'active' | 'invite-pending' | 'deactivated';
+  /** The state in words, as the page shows it. */
   readonly label: string;
+  /** Material Symbols ligature shown beside the words. */
   readonly icon: string;
 }
 

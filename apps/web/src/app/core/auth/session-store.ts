@@ -17,6 +17,7 @@ export type SessionState =
 @Injectable({ providedIn: 'root' })
 export class SessionStore {
   private readonly http = inject(HttpClient);
+  /** The one writable copy of the state; everything else derives from it. */
   private readonly state = signal<SessionState>({ status: 'unknown' });
 
   /** The current state; 'unknown' only until {@link restore} has answered. */
