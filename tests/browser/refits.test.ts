@@ -27,6 +27,8 @@ const northFeeders = demoScenario.feeders.filter((feeder) => feeder.zoneKey === 
 let browser: TestBrowser;
 let server: TestServer;
 let page: Page;
+/** Uncaught errors in the page (a chart that throws draws nothing). */
+const pageErrors: string[] = [];
 
 beforeAll(async () => {
   await mkdir(artifacts, { recursive: true });
@@ -34,6 +36,11 @@ beforeAll(async () => {
   await seedDemo(server.databaseUrl);
   browser = await launchBrowser();
   page = await browser.context.newPage();
+  page.on('pageerror', (error) => pageErrors.push(error.message));
+  page.on('console', (message) => {
+    // A signed-out first load answers 401 on the session check by design; anything else is a fault.
+    if (message.type() === 'error' && !message.text().startsWith('Failed to load resource')) pageErrors.push(message.text());
+  });
 }, 180_000);
 
 afterAll(async () => {
@@ -45,6 +52,17 @@ afterAll(async () => {
 /** Fails with the list when axe finds serious or critical problems. */
 async function expectAccessible(): Promise<void> {
   expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
+}
+
+/** True when the chart's canvas has drawn something: enough non-transparent pixels. */
+async function chartDrawn(selector: string): Promise<boolean> {
+  return page.locator(selector).first().evaluate((canvas) => {
+    const { width, height } = canvas as HTMLCanvasElement;
+    const pixels = (canvas as HTMLCanvasElement).getContext('2d')!.getImageData(0, 0, width, height).data;
+    let painted = 0;
+    for (let i = 3; i < pixels.length; i += 4) if (pixels[i]! > 0) painted++;
+    return painted > (width * height) / 50;
+  });
 }
 
 /** Reads JSON through the page's own session. */
@@ -114,7 +132,12 @@ describe('a planner refits a zone and approves a feeder', () => {
     await page.getByText('Draft peak this week').waitFor();
     await page.getByRole('heading', { name: 'Model', exact: true }).waitFor();
     await expect.poll(() => page.locator('lw-model-card').textContent()).toMatch(/Ljung-Box over \d+ lags: Q = [\d.,]+, df = \d+, p-value =/);
-    await page.locator('lw-forecast-chart canvas').scrollIntoViewIfNeeded();
+    await page.waitForTimeout(500);
+    expect(pageErrors).toEqual([]);
+    await expect.poll(() => chartDrawn('lw-forecast-chart canvas')).toBe(true);
+    await expect.poll(() => chartDrawn('lw-history-chart canvas')).toBe(true);
+    await expect.poll(() => chartDrawn('lw-model-card canvas')).toBe(true);
+    expect(pageErrors).toEqual([]);
     await page.evaluate(() => window.scrollTo(0, 0));
     await page.screenshot({ path: resolve(artifacts, 'series-forecast.png') });
     await page.locator('#model-section-heading').evaluate((heading) => heading.scrollIntoView({ block: 'start' }));

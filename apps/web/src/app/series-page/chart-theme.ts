@@ -50,6 +50,8 @@ export function timeChartOptions(timeZone: string, unit: string, daily: boolean)
     scales: {
       x: {
         type: 'time',
+        // The unit only seeds Chart.js' own ticks, which afterBuildTicks replaces with local midnights.
+        time: { unit: 'day' },
         grid: { color: chartColours.grid },
         // Ticks at the series' local midnights, labelled in its zone, whatever zone the browser is in.
         afterBuildTicks: (axis) => {

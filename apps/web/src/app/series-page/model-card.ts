@@ -78,7 +78,7 @@ export class ModelCard {
   /** The first lags outside the band, listed. */
   protected readonly outsideText = computed(() => {
     const lags = this.lagsOutside().map((entry) => entry.lag);
-    return lags.slice(0, 8).join(', ') + (lags.length > 8 ? ' …' : '');
+    return lags.slice(0, 8).join(', ') + (lags.length > 8 ? ` and ${lags.length - 8} more` : '');
   });
 
   protected readonly clock = clockText;
