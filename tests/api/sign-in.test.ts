@@ -54,6 +54,15 @@ describe('sign-in', () => {
     expect(unknown.headers['content-type']).toMatch(/application\/problem\+json/);
   });
 
+  it('records failed sign-ins in the audit log as coming from a visitor, with the e-mail tried', async () => {
+    const admin = await signIn(server.url, people.admin.email);
+    const page = await request(server.url).get('/api/audit?action=session.sign_in_failed').set('Cookie', admin.cookie);
+    expect(page.status).toBe(200);
+    const entry = page.body.entries.find((e: { detail: { email?: string } }) => e.detail.email === 'nobody@test.example');
+    expect(entry.actor).toEqual({ kind: 'visitor', id: null, name: null });
+    expect(entry.ip).toMatch(/127\.0\.0\.1/);
+  });
+
   it('locks an account after five failures and says nothing about which part was wrong', async () => {
     const email = people.steward.email;
     for (let i = 0; i < 5; i++) {

@@ -4,7 +4,8 @@ import { z } from 'zod';
 export const auditEntrySchema = z.object({
   id: z.number().int(),
   at: z.iso.datetime(),
-  actor: z.object({ kind: z.enum(['user', 'token', 'system']), id: z.number().int().nullable(), name: z.string().nullable() }),
+  /** `visitor`: someone not signed in (a failed sign-in, a redeemed link); `system`: the product itself (e.g. the nightly refit). */
+  actor: z.object({ kind: z.enum(['user', 'token', 'visitor', 'system']), id: z.number().int().nullable(), name: z.string().nullable() }),
   action: z.string(),
   targetType: z.string().nullable(),
   targetId: z.string().nullable(),

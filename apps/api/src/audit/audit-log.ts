@@ -20,7 +20,8 @@ export async function recordAudit(db: Pick<Database, 'insert'>, entry: AuditEntr
     action: entry.action,
     targetType: entry.targetType ?? null,
     targetId: entry.targetId === undefined ? null : String(entry.targetId),
-    detail: entry.detail ?? {},
+    // No actor column can name an unidentified caller, so the entry says it came from a visitor.
+    detail: entry.actor.kind === 'anonymous' ? { ...entry.detail, visitor: true } : (entry.detail ?? {}),
     ip: entry.ip ?? null,
   });
 }

@@ -38,7 +38,7 @@ export function auditRoutes({ db }: AppContext): RouteDefinition[] {
             ? { kind: 'user' as const, id: entry.actorUserId, name: userName }
             : entry.actorTokenId !== null
               ? { kind: 'token' as const, id: entry.actorTokenId, name: tokenName }
-              : { kind: 'system' as const, id: null, name: null },
+              : { kind: entry.detail['visitor'] === true ? ('visitor' as const) : ('system' as const), id: null, name: null },
           action: entry.action,
           targetType: entry.targetType,
           targetId: entry.targetId,

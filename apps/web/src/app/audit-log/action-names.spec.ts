@@ -18,7 +18,8 @@ describe('actorName', () => {
     expect(actorName({ kind: 'user', id: 3, name: 'Ines Calloway' })).toBe('Ines Calloway');
     expect(actorName({ kind: 'user', id: null, name: null })).toBe('Someone not signed in');
     expect(actorName({ kind: 'token', id: 7, name: 'Dispatch pull' })).toBe('API token Dispatch pull');
-    expect(actorName({ kind: 'system', id: null, name: null })).toBe('Not signed in');
+    expect(actorName({ kind: 'visitor', id: null, name: null })).toBe('Not signed in');
+    expect(actorName({ kind: 'system', id: null, name: null })).toBe('Loadwright (automatic)');
   });
 });
 

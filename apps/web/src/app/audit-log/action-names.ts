@@ -42,7 +42,8 @@ export function actionName(action: string): string {
 
 /** Who did it, in words: a person's name, a token's name, or nobody signed in (a failed sign-in, a link redeemed, the system). */
 export function actorName(actor: AuditEntry['actor']): string {
-  if (actor.kind === 'system') return 'Not signed in';
+  if (actor.kind === 'visitor') return 'Not signed in';
+  if (actor.kind === 'system') return 'Loadwright (automatic)';
   if (actor.kind === 'token') return `API token ${actor.name ?? `#${actor.id}`}`;
   return actor.name ?? (actor.id === null ? 'Someone not signed in' : `Person #${actor.id}`);
 }
