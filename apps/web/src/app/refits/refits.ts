@@ -7,11 +7,18 @@ import { RouterLink } from '@angular/router';
 import type { RefitRunDetail, RefitRunSummary } from '@loadwright/contracts';
 import { type Observable, Subject, map, of, switchMap } from 'rxjs';
 import { SessionStore } from '../core/auth/session-store';
+import { methodName } from '../series-page/chart-data';
 import { clockText } from './clock-text';
 import { REFIT_POLL_TIMING, latestValue, pollWhileActive } from './live-polling';
 import { RefitNow } from './refit-now';
 import { RefitsClient } from './refits-client';
 import { countsSentence, durationText, finishedPercent, outcomeText, scopeText } from './run-progress';
+
+/** A run's summary, from its detail. */
+function summaryOf(detail: RefitRunDetail): RefitRunSummary {
+  const { series: _series, ...summary } = detail;
+  return summary;
+}
 
 /** What the Refits page reads on every poll. */
 interface RefitsView {
@@ -65,6 +72,7 @@ export class Refits {
   protected readonly percent = finishedPercent;
   protected readonly countsText = countsSentence;
   protected readonly outcome = outcomeText;
+  protected readonly methodOf = methodName;
 
   /** What a run covered, in words. */
   protected scopeOf(run: RefitRunSummary): string {
@@ -89,7 +97,8 @@ export class Refits {
       switchMap(({ runs }) => {
         const id = this.chosenRunId() ?? runs[0]?.id ?? null;
         const detail: Observable<RefitRunDetail | null> = id === null ? of(null) : this.client.detail(id);
-        return detail.pipe(map((found) => ({ runs, detail: found })));
+        // The detail is read after the list: its counts are the newer ones, so the chosen row shows them too.
+        return detail.pipe(map((found) => ({ runs: runs.map((run) => (found && run.id === found.id ? summaryOf(found) : run)), detail: found })));
       }),
     );
   }
