@@ -58,7 +58,11 @@ export function fitSeriesModel(inputs: RefitInputs, holidays: HolidaySpec | null
   if (window.bridgedHours > 0) warnings.push({ code: 'bridged-hours', message: `${window.bridgedHours} missing or excluded hours of the training window were bridged by straight lines` });
   const diagnostics: FitDiagnostics = {
     ...residualChecks(chosen.model),
-    temperature: temperature.usable ? { used: true, reason: `degree-hours from ${temperature.station.name}` } : { used: false, reason: temperature.reason },
+    temperature: !temperature.usable
+      ? { used: false, reason: temperature.reason }
+      : chosen.model.spec.temperature
+        ? { used: true, reason: `degree-hours from ${temperature.station.name}` }
+        : { used: false, reason: 'the chosen model (seasonal naive) uses no regressors' },
     warnings,
   };
   const diagnoseMs = performance.now() - at;
