@@ -188,6 +188,28 @@ describe('a planner refits a zone and approves a feeder', () => {
     await expectAccessible();
   });
 
+  it('reviews the rest of the zone side by side and approves it together', async () => {
+    await page.getByRole('navigation', { name: 'Place in the hierarchy' }).getByRole('link', { name: north.name }).click();
+    await page.getByRole('heading', { level: 1, name: north.name }).waitFor();
+    await page.getByRole('button', { name: "Review the group's drafts" }).click();
+    const zoneId = Number(new URL(page.url()).pathname.split('/').at(-1));
+    const csrf = (await page.context().cookies()).find((cookie) => cookie.name === 'lw_csrf')!.value;
+    const preview = (await (await page.request.post(`${server.url}/api/forecast-approvals/preview`, { data: { parentId: zoneId }, headers: { 'X-CSRF-Token': csrf } })).json()) as { versionIds: number[] };
+    // The feeder approved above has no draft left; the zone and its other feeders wait.
+    expect(preview.versionIds).toHaveLength(4);
+    await page.getByRole('button', { name: 'Approve 4 drafts' }).waitFor();
+    await page.locator('lw-group-approval').evaluate((panel) => panel.scrollIntoView({ block: 'start' }));
+    await page.screenshot({ path: resolve(artifacts, 'group-approval.png') });
+    await page.getByRole('button', { name: 'Approve 4 drafts' }).click();
+    await page.getByRole('dialog').getByRole('button', { name: 'Approve 4 drafts' }).click();
+    await page.getByText('Approved 4 drafts of the group together.').waitFor();
+    for (const id of preview.versionIds) {
+      const version = await api<{ version: { state: string } }>(`/api/forecast-versions/${id}`);
+      expect(version.version.state).toBe('approved');
+    }
+    await expectAccessible();
+  });
+
   it('shows the run and the next-week system peak on the Overview', async () => {
     // Refit the system series too (through the API, as a second planner action), so it has a draft.
     const systemId = (await api<{ items: { id: number }[] }>('/api/series?level=system&kind=load')).items[0]!.id;

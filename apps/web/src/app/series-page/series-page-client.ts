@@ -1,6 +1,7 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import type {
+  ApprovalPreview,
   ApprovalResult,
   CreateAdjustmentRequest,
   FitSummary,
@@ -65,6 +66,16 @@ export class SeriesPageClient {
   /** Removes an adjustment from a draft. */
   removeAdjustment(versionId: number, adjustmentId: number): Observable<void> {
     return this.http.delete<void>(`/api/forecast-versions/${versionId}/adjustments/${adjustmentId}`);
+  }
+
+  /** What approving every draft of a group (a series and all below it) would change. */
+  previewApproval(parentId: number): Observable<ApprovalPreview> {
+    return this.http.post<ApprovalPreview>('/api/forecast-approvals/preview', { parentId });
+  }
+
+  /** Approves these drafts together, all or none. */
+  approveMany(versionIds: readonly number[]): Observable<ApprovalResult> {
+    return this.http.post<ApprovalResult>('/api/forecast-approvals', { versionIds });
   }
 
   /** Approves a draft; the previously approved version is superseded. */

@@ -6,7 +6,7 @@ import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
-import { type FitSummary, type ForecastReview, type ForecastVersionPage, type ModelSettings, type SeriesDetail, forecastExportPath, modelMethodLabels } from '@loadwright/contracts';
+import { type ApprovalResult, type FitSummary, type ForecastReview, type ForecastVersionPage, type ModelSettings, type SeriesDetail, forecastExportPath, modelMethodLabels } from '@loadwright/contracts';
 import { provideCharts, withDefaultRegisterables } from 'ng2-charts';
 import { type Observable, Subject, catchError, combineLatest, filter, forkJoin, map, of, startWith, switchMap } from 'rxjs';
 import { SessionStore } from '../core/auth/session-store';
@@ -16,6 +16,7 @@ import { AdjustmentsPanel } from './adjustments-panel';
 import { horizonPeak, methodName, peakRows, peakShiftText, reviewedVersion } from './chart-data';
 import { unitLabel, withUnit } from './chart-theme';
 import { ForecastChart } from './forecast-chart';
+import { GroupApproval } from './group-approval';
 import { HistoryChart } from './history-chart';
 import { ModelCard } from './model-card';
 import { ModelSettingsDialog, type ModelSettingsDialogData } from './model-settings-dialog';
@@ -41,7 +42,7 @@ const optional = <T,>(source: Observable<T>): Observable<T | null> => source.pip
 /** One series: history, forecast fan chart with 80/95 % bands, peaks, adjustments, approval, export, model card, versions. */
 @Component({
   selector: 'lw-series-page',
-  imports: [DecimalPipe, RouterLink, MatButtonModule, MatButtonToggleModule, MatIconModule, AdjustmentsPanel, ForecastChart, HistoryChart, ModelCard],
+  imports: [DecimalPipe, RouterLink, MatButtonModule, MatButtonToggleModule, MatIconModule, AdjustmentsPanel, ForecastChart, GroupApproval, HistoryChart, ModelCard],
   providers: [provideCharts(withDefaultRegisterables(), { defaults: { font: { family: "'Source Sans 3', system-ui, sans-serif", size: 13 } } })],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './series-page.html',
@@ -171,6 +172,12 @@ export class SeriesPage {
         this.outcome.set(`Model settings saved: ${modelMethodLabels[saved.method]}. They apply from the next refit.`);
         this.reload();
       });
+  }
+
+  /** The group's drafts were approved. */
+  protected groupApproved(result: ApprovalResult): void {
+    this.outcome.set(`Approved ${result.approved.length} drafts of the group together.`);
+    this.reload();
   }
 
   /** An adjustment was added or removed. */
