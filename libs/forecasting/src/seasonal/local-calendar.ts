@@ -26,6 +26,7 @@ function formatterFor(timeZone: string): Intl.DateTimeFormat {
         month: '2-digit',
         day: '2-digit',
         hour: '2-digit',
+        minute: '2-digit',
       });
     } catch {
       throw new ForecastingError('invalid-argument', 'localCalendar', `unknown IANA time zone "${timeZone}" (e.g. "America/Chicago")`);
@@ -50,29 +51,67 @@ function formatterFor(timeZone: string): Intl.DateTimeFormat {
  */
 export function localCalendar(timestamps: ArrayLike<number>, timeZone: string): LocalCalendar {
   assertFinite('localCalendar', timestamps, 'timestamps');
-  const formatter = formatterFor(timeZone);
+  const offsetAt = offsetFinder(timeZone);
   const n = timestamps.length;
   const hourOfDay = new Uint8Array(n);
   const dayOfWeek = new Uint8Array(n);
   const hourOfWeek = new Uint16Array(n);
   const localDate = new Array<string>(n);
+  const dates = new Map<number, string>();
   for (let i = 0; i < n; i++) {
+    const local = timestamps[i] + offsetAt(timestamps[i]);
+    const days = Math.floor(local / dayMs);
+    const hour = Math.floor((local - days * dayMs) / hourMs);
+    // 1970-01-01 was a Thursday, ISO weekday 3 with Monday = 0.
+    const weekday = (((days + 3) % 7) + 7) % 7;
+    let date = dates.get(days);
+    if (date === undefined) {
+      date = new Date(days * dayMs).toISOString().slice(0, 10);
+      dates.set(days, date);
+    }
+    hourOfDay[i] = hour;
+    dayOfWeek[i] = weekday;
+    hourOfWeek[i] = weekday * 24 + hour;
+    localDate[i] = date;
+  }
+  return { hourOfDay, dayOfWeek, hourOfWeek, localDate };
+}
+
+const minuteMs = 60_000;
+const hourMs = 3_600_000;
+const dayMs = 86_400_000;
+
+/**
+ * The zone's UTC offset at an instant, asking Intl (the slow part) about twice per UTC day: when the
+ * offsets at a day's first and last minute agree, no clock change falls inside it (zones change at
+ * most once a day), and every instant of the day shares that offset.
+ */
+function offsetFinder(timeZone: string): (t: number) => number {
+  const formatter = formatterFor(timeZone);
+  const exact = (t: number): number => {
     let year = 0;
     let month = 0;
     let day = 0;
     let hour = 0;
-    for (const part of formatter.formatToParts(timestamps[i])) {
+    let minute = 0;
+    for (const part of formatter.formatToParts(t)) {
       if (part.type === 'year') year = Number(part.value);
       else if (part.type === 'month') month = Number(part.value);
       else if (part.type === 'day') day = Number(part.value);
       else if (part.type === 'hour') hour = Number(part.value);
+      else if (part.type === 'minute') minute = Number(part.value);
     }
-    // getUTCDay: Sunday = 0; shift so that Monday = 0.
-    const weekday = (new Date(Date.UTC(year, month - 1, day)).getUTCDay() + 6) % 7;
-    hourOfDay[i] = hour;
-    dayOfWeek[i] = weekday;
-    hourOfWeek[i] = weekday * 24 + hour;
-    localDate[i] = `${String(year).padStart(4, '0')}-${String(month).padStart(2, '0')}-${String(day).padStart(2, '0')}`;
-  }
-  return { hourOfDay, dayOfWeek, hourOfWeek, localDate };
+    return Date.UTC(year, month - 1, day, hour, minute) - Math.floor(t / minuteMs) * minuteMs;
+  };
+  const steadyByDay = new Map<number, number | null>();
+  return (t) => {
+    const utcDay = Math.floor(t / dayMs);
+    let steady = steadyByDay.get(utcDay);
+    if (steady === undefined) {
+      const first = exact(utcDay * dayMs);
+      steady = first === exact(utcDay * dayMs + dayMs - minuteMs) ? first : null;
+      steadyByDay.set(utcDay, steady);
+    }
+    return steady ?? exact(t);
+  };
 }
