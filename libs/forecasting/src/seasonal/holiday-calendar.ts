@@ -23,30 +23,39 @@ const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/;
  */
 export function holidayDates(spec: HolidaySpec, years: Iterable<number>): Set<string> {
   const fn = 'holidayDates';
-  const catalogue = new Holidays();
-  const countries = catalogue.getCountries() ?? {};
-  if (!(spec.country in countries)) {
-    throw new ForecastingError('invalid-argument', fn, `unknown country "${spec.country}": use an ISO 3166-1 alpha-2 code such as "US"`);
-  }
-  if (spec.region !== undefined) {
-    const regions = catalogue.getStates(spec.country) ?? {};
-    if (!(spec.region in regions)) {
-      throw new ForecastingError('invalid-argument', fn, `unknown region "${spec.region}" for ${spec.country}; known: ${Object.keys(regions).join(', ') || 'none'}`);
-    }
-  }
-  const calendar = spec.region === undefined ? new Holidays(spec.country) : new Holidays(spec.country, spec.region);
   const dates = new Set<string>();
-  for (const year of years) {
-    for (const holiday of calendar.getHolidays(year) || []) {
-      if (holiday.type === 'public') dates.add(holiday.date.slice(0, 10));
-    }
-  }
+  for (const year of years) for (const date of publicHolidays(fn, spec.country, spec.region, year)) dates.add(date);
   for (const extra of spec.extraDates) {
     if (!ISO_DATE.test(extra) || Number.isNaN(Date.parse(`${extra}T00:00:00Z`))) {
       throw new ForecastingError('invalid-argument', fn, `extra date "${extra}" is not a date in YYYY-MM-DD form`);
     }
     dates.add(extra);
   }
+  return dates;
+}
+
+// The package's rules never change within a process, and building its calendars is slow (a refit asks once per fit).
+const publicHolidayCache = new Map<string, readonly string[]>();
+
+/** The `date-holidays` public days of one country/region and year, computed once per process. */
+function publicHolidays(fn: string, country: string, region: string | undefined, year: number): readonly string[] {
+  const key = `${country}|${region ?? ''}|${year}`;
+  const cached = publicHolidayCache.get(key);
+  if (cached) return cached;
+  const catalogue = new Holidays();
+  const countries = catalogue.getCountries() ?? {};
+  if (!(country in countries)) {
+    throw new ForecastingError('invalid-argument', fn, `unknown country "${country}": use an ISO 3166-1 alpha-2 code such as "US"`);
+  }
+  if (region !== undefined) {
+    const regions = catalogue.getStates(country) ?? {};
+    if (!(region in regions)) {
+      throw new ForecastingError('invalid-argument', fn, `unknown region "${region}" for ${country}; known: ${Object.keys(regions).join(', ') || 'none'}`);
+    }
+  }
+  const calendar = region === undefined ? new Holidays(country) : new Holidays(country, region);
+  const dates = (calendar.getHolidays(year) || []).filter((holiday) => holiday.type === 'public').map((holiday) => holiday.date.slice(0, 10));
+  publicHolidayCache.set(key, dates);
   return dates;
 }
 
