@@ -93,6 +93,11 @@ describe('a manual run for one series', () => {
     expect(fit.body.selection.candidates.filter((c: { chosen: boolean }) => c.chosen)).toHaveLength(1);
     expect(fit.body.selection.reason.length).toBeGreaterThan(20);
     expect(fit.body.selection.backtest).toEqual({ origins: 3, horizon: 24 });
+    // Every estimated model reports its standard errors next to its estimates (seasonal naive estimates nothing).
+    if (fit.body.method !== 'seasonal-naive') {
+      expect(fit.body.parameters.standardErrors.ar).toHaveLength(fit.body.arOrder);
+      for (const se of fit.body.parameters.standardErrors.ar.filter((v: number | null) => v !== null)) expect(se).toBeGreaterThan(0);
+    }
     expect(fit.body.diagnostics.residualAcf).toHaveLength(48);
     expect(fit.body.diagnostics.ljungBox.pValue).toBeGreaterThanOrEqual(0);
     // The demo's weather station has no readings past the last actual: no temperature forecast.

@@ -45,7 +45,7 @@ export async function writeModelSettings(db: Pick<Database, 'insert'>, seriesId:
 /** The newest fit of `seriesId`, or null. */
 export async function readLatestFit(pool: pg.Pool, seriesId: number): Promise<FitSummary | null> {
   const { rows } = await pool.query(
-    `select id, series_id, method, ar_order, ma_order, parameters, sigma2, aic, bic, data_start, data_end, observation_count, duration_ms, created_at, diagnostics, selection
+    `select id, series_id, method, ar_order, ma_order, parameters, standard_errors, sigma2, aic, bic, data_start, data_end, observation_count, duration_ms, created_at, diagnostics, selection
        from fits where series_id = $1 order by created_at desc, id desc limit 1`,
     [seriesId],
   );
@@ -57,7 +57,8 @@ export async function readLatestFit(pool: pg.Pool, seriesId: number): Promise<Fi
     method: contractMethod(row['method']) as FitSummary['method'],
     arOrder: row['ar_order'],
     maOrder: row['ma_order'],
-    parameters: row['parameters'],
+    // Standard errors live in their own column; the model card reads them beside the estimates.
+    parameters: row['standard_errors'] ? { ...row['parameters'], standardErrors: row['standard_errors'] } : row['parameters'],
     sigma2: row['sigma2'],
     aic: row['aic'],
     bic: row['bic'],
