@@ -8,7 +8,8 @@
  * `npm run bench -- refit` runs N = 100 and 1,000 with 1 and 2 workers and extrapolates to 10,000.
  * REFIT_BENCH_SERIES=100,1000,10000 and REFIT_BENCH_WORKERS=1,2 choose other sizes (10,000 needs about
  * 9 GB of disk and a few minutes of loading); REFIT_BENCH_CONCURRENCY sets each worker's WORKER_CONCURRENCY
- * (default 2; jobs wait on the database about half the time, so more per worker fill the cores);
+ * (default 6, the product's default; jobs wait on the database about half the time, so 2 per worker
+ * leave the cores half idle);
  * REFIT_BENCH_KEEP=1 keeps the database.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
@@ -66,7 +67,7 @@ async function loadFleet(pool: pg.Pool, count: number): Promise<number[]> {
 function startWorker(databaseUrl: string, name: string): Promise<ChildProcess> {
   const child = spawn(process.execPath, ['--import', 'tsx', 'jobs/worker.ts'], {
     cwd: repoRoot,
-    env: { ...process.env, DATABASE_URL: databaseUrl, WORKER_CONCURRENCY: process.env['REFIT_BENCH_CONCURRENCY'] ?? '2', LOG_LEVEL: 'info', WORKER_NAME: name },
+    env: { ...process.env, DATABASE_URL: databaseUrl, WORKER_CONCURRENCY: process.env['REFIT_BENCH_CONCURRENCY'] ?? '6', LOG_LEVEL: 'info', WORKER_NAME: name },
     stdio: ['ignore', 'pipe', 'inherit'],
   });
   return new Promise((done, fail) => {

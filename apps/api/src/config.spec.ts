@@ -4,7 +4,7 @@ import { ConfigError, loadConfig } from './config';
 describe('loadConfig', () => {
   it('applies defaults to an empty environment', () => {
     const config = loadConfig({});
-    expect(config).toMatchObject({ HOST: '127.0.0.1', PORT: 4280, WORKER_CONCURRENCY: 2, WORKER_PROCESSES: 1, LOG_LEVEL: 'info' });
+    expect(config).toMatchObject({ HOST: '127.0.0.1', PORT: 4280, WORKER_CONCURRENCY: 6, WORKER_PROCESSES: 1, LOG_LEVEL: 'info' });
     expect(config.DATABASE_URL).toBeUndefined();
   });
 
