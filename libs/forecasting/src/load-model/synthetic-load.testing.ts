@@ -2,23 +2,12 @@
  * Test-only: seeded synthetic hourly load with known parts (hour-of-week profile, degree-hour response,
  * AR(2) noise) for the load-model specs. Not exported from the library.
  */
+import { mulberry32 } from '../core/random';
 import { localCalendar } from '../seasonal/local-calendar';
-
-/** A deterministic uniform(0, 1) generator (mulberry32, public-domain algorithm by Tommy Ettinger). */
-export function seededUniform(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** Standard normal draws by Box-Muller from a seeded uniform. */
 export function seededNormal(seed: number): () => number {
-  const uniform = seededUniform(seed);
+  const uniform = mulberry32(seed);
   return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
 }
 

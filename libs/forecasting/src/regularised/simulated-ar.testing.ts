@@ -1,20 +1,9 @@
 /** Seeded AR simulation shared by the regularised specs (mulberry32 uniforms, Box-Muller normals). */
-
-/** A deterministic uniform(0, 1) generator (mulberry32, public-domain algorithm by Tommy Ettinger). */
-export function seededUniform(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { mulberry32 } from '../core/random';
 
 /** Simulates x_t = mean + Σ coefficients[lag]·(x_{t−lag} − mean) + e_t, e_t ~ N(0, 1), after a burn-in of 500. */
 export function simulateSparseAr(coefficients: Record<number, number>, n: number, seed: number, mean = 0): Float64Array {
-  const uniform = seededUniform(seed);
+  const uniform = mulberry32(seed);
   const normal = () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
   const burn = 500;
   const total = new Float64Array(n + burn);
