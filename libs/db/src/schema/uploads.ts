@@ -11,6 +11,7 @@ import {
   text,
   uniqueIndex,
 } from 'drizzle-orm/pg-core';
+import { validationRules } from '../../../contracts/src/uploads';
 import { apiTokens } from './api-tokens';
 import { users } from './people';
 import { series } from './series';
@@ -76,23 +77,8 @@ export const uploads = pgTable(
   ],
 );
 
-/** The validation rules whose findings an import records. */
-export const validationRule = pgEnum('validation_rule', [
-  'gap',
-  'spike',
-  'flat_line',
-  'negative',
-  'impossible',
-  'duplicate_equal',
-  'duplicate_conflict',
-  'off_grid',
-  'future',
-  'dst_repeated_hour',
-  'dst_missing_hour',
-  'unparseable',
-  'unknown_series',
-  'estimated',
-]);
+/** The validation rules whose findings an import records (the list lives in the shared contracts). */
+export const validationRule = pgEnum('validation_rule', validationRules);
 
 /** One thing validation found in an upload, tied to a reading where there is one. */
 export const uploadFindings = pgTable(
