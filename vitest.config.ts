@@ -1,16 +1,15 @@
+import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { defineConfig } from 'vitest/config';
 
 const here = (path: string) => fileURLToPath(new URL(path, import.meta.url));
 
+/** The `@loadwright/*` aliases, read from tsconfig.json so that the two never disagree. */
+const tsconfig = JSON.parse(readFileSync(here('tsconfig.json'), 'utf8')) as { compilerOptions: { paths: Record<string, string[]> } };
+const alias = Object.fromEntries(Object.entries(tsconfig.compilerOptions.paths).map(([name, [target]]) => [name, here(target!)]));
+
 export default defineConfig({
-  resolve: {
-    alias: {
-      '@loadwright/forecasting': here('libs/forecasting/src/index.ts'),
-      '@loadwright/db': here('libs/db/src/index.ts'),
-      '@loadwright/contracts': here('libs/contracts/src/index.ts'),
-    },
-  },
+  resolve: { alias },
   test: {
     projects: [
       {

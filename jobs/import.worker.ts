@@ -8,8 +8,8 @@ import { eq } from 'drizzle-orm';
 import { createDb, uploads } from '@loadwright/db';
 import type PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
-import { createImportQueue, importQueue, type ImportUploadJob } from '../apps/api/src/intake/import-queue';
-import { importUpload } from '../apps/api/src/intake/import-upload';
+import { createImportQueue, importQueue, type ImportUploadJob } from '@loadwright/intake';
+import { importUpload } from '@loadwright/intake';
 
 /** Creates the queue and starts its handler; its connections close when pg-boss stops. */
 export async function registerImportQueue(boss: PgBoss, context: { logger: Logger; databaseUrl: string }): Promise<void> {

@@ -6,8 +6,8 @@
 import type PgBoss from 'pg-boss';
 import type pg from 'pg';
 import type { Logger } from 'pino';
-import { createJobInserter, refitNightlyQueue } from '../apps/api/src/refit-engine/refit-queues';
-import { RefitScopeError, startRefitRun } from '../apps/api/src/refit-engine/start-run';
+import { createJobInserter, refitNightlyQueue } from '@loadwright/refits';
+import { RefitScopeError, startRefitRun } from '@loadwright/refits';
 
 /** The schedule as registered: cron expression and time zone. */
 export interface RefitSchedule {

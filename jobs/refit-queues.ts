@@ -2,7 +2,7 @@
 import pg from 'pg';
 import type PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
-import { createRefitQueues } from '../apps/api/src/refit-engine/refit-queues';
+import { createRefitQueues } from '@loadwright/refits';
 import { applyRefitSchedule, keepRefitScheduleCurrent, workRefitNightly } from './refit-nightly.worker';
 import { workRefitSeries } from './refit-series.worker';
 import { startRefitSweeper } from './refit-sweeper';

@@ -6,8 +6,8 @@
 import type PgBoss from 'pg-boss';
 import type pg from 'pg';
 import type { Logger } from 'pino';
-import { refitSeriesQueue, type RefitSeriesJob } from '../apps/api/src/refit-engine/refit-queues';
-import { refitSeries } from '../apps/api/src/refit-engine/refit-series';
+import { refitSeriesQueue, type RefitSeriesJob } from '@loadwright/refits';
+import { refitSeries } from '@loadwright/refits';
 
 /** Starts the handler on `boss` with `concurrency` jobs per batch. */
 export async function workRefitSeries(boss: PgBoss, pool: pg.Pool, logger: Logger, concurrency: number): Promise<void> {

@@ -6,8 +6,8 @@
  */
 import type pg from 'pg';
 import type { Logger } from 'pino';
-import { refitSeriesQueue } from '../apps/api/src/refit-engine/refit-queues';
-import { markFailed } from '../apps/api/src/refit-engine/refit-series';
+import { refitSeriesQueue } from '@loadwright/refits';
+import { markFailed } from '@loadwright/refits';
 
 /** Rows of unfinished runs that have no live job left, older than a minute. */
 export async function sweepOrphanedRefits(pool: pg.Pool): Promise<number> {

@@ -4,8 +4,8 @@
  * to exactly one of them.
  */
 import { pino } from 'pino';
-import { ConfigError, loadConfig } from '../apps/api/src/config';
-import { stopWithParent } from '../apps/api/src/process/exit-with-parent';
+import { ConfigError, loadConfig } from '@loadwright/runtime';
+import { stopWithParent } from '@loadwright/runtime';
 import { createBoss } from './boss';
 import { registerQueues } from './queues';
 

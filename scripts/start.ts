@@ -6,13 +6,13 @@
  */
 import { resolve } from 'node:path';
 import { migrate } from '@loadwright/db';
-import { ConfigError, loadConfig } from '../apps/api/src/config';
+import { ConfigError, loadConfig } from '@loadwright/runtime';
 import { firstExit, startTypeScript, stopAll, type NamedChild } from './child-processes';
 import { AlreadyRunningError, acquireInstanceLock } from './instance-lock';
 import { defaultLocation, ensurePostgres, localDataDir, stopPostgres } from './postgres';
 import { buildWeb, isWebBuildStale } from './web-build';
 import { seedDemoIfEmpty, demoAccountsText } from './demo-seed';
-import { startMailCatcher, type MailCatcher } from '../apps/api/src/mail/mail-catcher';
+import { startMailCatcher, type MailCatcher } from '@loadwright/mail';
 import { ensureSessionSecret } from './session-secret';
 
 async function main(): Promise<number> {

@@ -15,10 +15,10 @@ import { once } from 'node:events';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parseArgs } from 'node:util';
-import { createDb, series, uploads } from '../../libs/db/src/index';
+import { createDb, series, uploads } from '../../libs/db/src';
 import { migrate } from '../../libs/db/src/migrate';
 import { createDatabase, dropDatabase, ensurePostgres } from '../../scripts/postgres';
-import { importUpload } from '../../apps/api/src/intake/import-upload';
+import { importUpload } from '@loadwright/intake';
 import { insertObservations } from '../../libs/db/src/seed/insert-observations';
 
 const { values: args } = parseArgs({ options: { rows: { type: 'string', default: '1000000' }, mode: { type: 'string', default: 'import' } } });

@@ -19,8 +19,8 @@ import { resolve } from 'node:path';
 import pg from 'pg';
 import { migrate } from '../../libs/db/src/migrate';
 import { createDatabase, dropDatabase, ensurePostgres } from '../../scripts/postgres';
-import { createJobInserter } from '../../apps/api/src/refit-engine/refit-queues';
-import { startRefitRun } from '../../apps/api/src/refit-engine/start-run';
+import { createJobInserter } from '@loadwright/refits';
+import { startRefitRun } from '@loadwright/refits';
 import type { Benchmark, BenchReport } from '../support/harness';
 import { feederLoad, stationTemperatures } from './synthetic-fleet';
 

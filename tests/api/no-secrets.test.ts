@@ -5,7 +5,7 @@
  */
 import request from 'supertest';
 import { afterAll, beforeAll, expect, it } from 'vitest';
-import { listCaughtMail } from '../../apps/api/src/mail/outbox-store';
+import { listCaughtMail } from '@loadwright/mail';
 import { createPeople, signIn, testPassword } from '../support/people';
 import { startTestServer, type TestServer } from '../support/server';
 

@@ -3,7 +3,7 @@ import { eq } from 'drizzle-orm';
 import { loginThrottles, sessions } from '@loadwright/db';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { listCaughtMail } from '../../apps/api/src/mail/outbox-store';
+import { listCaughtMail } from '@loadwright/mail';
 import { createPeople, signIn, testPassword } from '../support/people';
 import { startTestServer, type TestServer } from '../support/server';
 

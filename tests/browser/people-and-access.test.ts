@@ -8,7 +8,7 @@ import { resolve } from 'node:path';
 import type { Role } from '@loadwright/contracts';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { recordAudit } from '../../apps/api/src/audit/audit-log';
+import { recordAudit } from '@loadwright/audit';
 import { demoScenario } from '../../fixtures/demo/scenario';
 import { seedDemo } from '../../libs/db/src/seed/seed-demo';
 import { signIn } from '../support/people';

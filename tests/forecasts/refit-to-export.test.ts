@@ -6,8 +6,8 @@ import { forecastReviewSchema } from '@loadwright/contracts';
 import { parse } from 'csv-parse/sync';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { refitSeries } from '../../apps/api/src/refit-engine/refit-series';
-import { startRefitRun } from '../../apps/api/src/refit-engine/start-run';
+import { refitSeries } from '@loadwright/refits';
+import { startRefitRun } from '@loadwright/refits';
 import { asBrowser, startForecastServer, type ForecastTestContext } from './support/forecast-server';
 
 let t: ForecastTestContext;

@@ -7,7 +7,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { generateDemo, seriesValues, type DemoData } from '../../fixtures/demo/generate';
 import { demoScenario } from '../../fixtures/demo/scenario';
-import { offsetMsAt } from '../../apps/api/src/intake/time-zone-offset';
+import { offsetMsAt } from '@loadwright/intake';
 import { insertDemoCatalogue } from '../../libs/db/src/seed/insert-demo-catalogue';
 import { createPeople, signIn, type SignedIn } from '../support/people';
 import { startTestServer, type TestServer } from '../support/server';

@@ -1,7 +1,7 @@
 /** The import core on a real database: inserts, idempotent repeats, revisions, estimates and findings. */
 import { createDb, series, uploads, type Database } from '@loadwright/db';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { importReadings } from '../../apps/api/src/intake/import-readings';
+import { importReadings } from '@loadwright/intake';
 import { createTestDatabase } from '../support/database';
 
 let handle: ReturnType<typeof createDb>;

@@ -8,7 +8,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createBoss } from '../../jobs/boss';
 import { seedDemo } from '../../libs/db/src/seed/seed-demo';
-import { refitNightlyQueue, refitSeriesQueue } from '../../apps/api/src/refit-engine/refit-queues';
+import { refitNightlyQueue, refitSeriesQueue } from '@loadwright/refits';
 import { createPeople, signIn, type SignedIn } from '../support/people';
 import { startTestServer, type TestServer } from '../support/server';
 import { sweepOrphanedRefits } from '../../jobs/refit-sweeper';

@@ -2,7 +2,7 @@
 import type { Database } from '@loadwright/db';
 import type { Pool } from 'pg';
 import type { Logger } from 'pino';
-import type { Mailer } from './mail/mailer';
+import type { Mailer } from '@loadwright/mail';
 
 export interface AppContext {
   db: Database;

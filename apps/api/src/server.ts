@@ -4,9 +4,9 @@ import { resolve } from 'node:path';
 import { createDb } from '@loadwright/db';
 import { pino } from 'pino';
 import { createApp } from './app';
-import { ConfigError, loadConfig, type Config } from './config';
-import { createMailer } from './mail/mailer';
-import { stopWithParent } from './process/exit-with-parent';
+import { ConfigError, loadConfig, type Config } from '@loadwright/runtime';
+import { createMailer } from '@loadwright/mail';
+import { stopWithParent } from '@loadwright/runtime';
 
 const repoRoot = resolve(import.meta.dirname, '../../..');
 

@@ -10,9 +10,9 @@ import {
 } from '@loadwright/contracts';
 import { users } from '@loadwright/db';
 import type { AppContext } from '../app-context';
-import { recordAudit } from '../audit/audit-log';
-import { HttpProblem } from '../errors/http-problem';
-import { passwordResetMessage } from '../mail/templates';
+import { recordAudit } from '@loadwright/audit';
+import { HttpProblem } from '@loadwright/problems';
+import { passwordResetMessage } from '@loadwright/mail';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
 import { clientAddress } from './client-address';
 import { issueLink, issuedRecently, linkLifetimes, redeemLink } from './one-time-links';

@@ -1,8 +1,8 @@
 /** The access decision for one request: pure, so the access-matrix test and the router share it. */
 import { roleHas, scopeHas } from '@loadwright/contracts';
-import { HttpProblem } from '../errors/http-problem';
+import { HttpProblem } from '@loadwright/problems';
 import type { Access } from '../http/route-table';
-import type { Actor } from './actor';
+import type { Actor } from '@loadwright/audit';
 
 /** Throws 401 when nobody is identified for a protected route, 403 when the caller lacks the permission. */
 export function authorize(access: Access, actor: Actor): void {

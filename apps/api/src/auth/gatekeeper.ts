@@ -6,9 +6,9 @@
 import { and, eq, gt, isNull, sql } from 'drizzle-orm';
 import type { Request, Response } from 'express';
 import { apiTokens, sessions, users, type Database } from '@loadwright/db';
-import { HttpProblem } from '../errors/http-problem';
+import { HttpProblem } from '@loadwright/problems';
 import type { Gatekeeper } from '../http/mount-routes';
-import type { Actor } from './actor';
+import type { Actor } from '@loadwright/audit';
 import { hashApiToken } from './api-token-secret';
 import { isValidCsrfToken, csrfHeaderName } from './csrf';
 import { sessionTokenTtlSeconds, verifySessionToken } from './session-token';

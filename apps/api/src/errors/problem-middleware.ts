@@ -4,7 +4,7 @@
  */
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
-import { HttpProblem } from './http-problem';
+import { HttpProblem } from '@loadwright/problems';
 
 const problemContentType = 'application/problem+json';
 

@@ -13,11 +13,11 @@ import { exportIntervalConvention, type ExportedPoint, type ExportedSeries, type
 import { forecastVersions, type Database } from '@loadwright/db';
 import { and, eq, inArray } from 'drizzle-orm';
 import type { Response } from 'express';
-import { adjustPoints } from './adjustment-layer';
+import { adjustPoints } from '@loadwright/forecasts';
 import { csvLine, numberCell, textCell } from './csv-cells';
-import { adjustmentsOf, pointsOf } from './forecast-repository';
-import { localIso } from './local-time';
-import { resolveSeriesScope } from './series-scope';
+import { adjustmentsOf, pointsOf } from '@loadwright/forecasts';
+import { localIso } from '@loadwright/forecasts';
+import { resolveSeriesScope } from '@loadwright/forecasts';
 
 /** Versions whose points are read and written per round trip. */
 const versionsPerBatch = 100;

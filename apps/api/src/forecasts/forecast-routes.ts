@@ -19,11 +19,11 @@ import { z } from 'zod';
 import type { AppContext } from '../app-context';
 import { clientAddress } from '../auth/client-address';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
-import { addAdjustment, removeAdjustment } from './forecast-adjustments';
-import { previewApprovals } from './approval-preview';
-import { approveVersions } from './forecast-approvals';
+import { addAdjustment, removeAdjustment } from '@loadwright/forecasts';
+import { previewApprovals } from '@loadwright/forecasts';
+import { approveVersions } from '@loadwright/forecasts';
 import { streamForecastCsv, streamForecastJson } from './forecast-export';
-import { reviewForecast, versionDetail, versionPage } from './forecast-review';
+import { reviewForecast, versionDetail, versionPage } from '@loadwright/forecasts';
 
 const idParams = z.object({ id: z.coerce.number().int().positive() });
 const adjustmentParams = idParams.extend({ adjustmentId: z.coerce.number().int().positive() });

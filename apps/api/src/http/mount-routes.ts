@@ -5,9 +5,9 @@
  */
 import { Router, type Request, type Response } from 'express';
 import { z } from 'zod';
-import type { Actor } from '../auth/actor';
+import type { Actor } from '@loadwright/audit';
 import { authorize } from '../auth/authorize';
-import { HttpProblem } from '../errors/http-problem';
+import { HttpProblem } from '@loadwright/problems';
 import type { RouteDefinition } from './route-table';
 
 /** How the router learns who is calling and whether a write carries its CSRF token. */

@@ -7,7 +7,7 @@
 import type { Permission } from '@loadwright/contracts';
 import type { Request, Response } from 'express';
 import type { z } from 'zod';
-import type { Actor } from '../auth/actor';
+import type { Actor } from '@loadwright/audit';
 
 /** Who may call a route: anyone (`public`) or holders of one permission. */
 export type Access = 'public' | Permission;

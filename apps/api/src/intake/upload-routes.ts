@@ -23,19 +23,19 @@ import {
 import { uploads } from '@loadwright/db';
 import type { Request, Response } from 'express';
 import type { AppContext } from '../app-context';
-import type { Actor } from '../auth/actor';
+import type { Actor } from '@loadwright/audit';
 import { clientAddress } from '../auth/client-address';
-import { recordAudit } from '../audit/audit-log';
-import { HttpProblem } from '../errors/http-problem';
+import { recordAudit } from '@loadwright/audit';
+import { HttpProblem } from '@loadwright/problems';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
 import { csvLine, csvNumber, csvText } from './csv-cell';
-import { sniffFile } from './csv/sniff';
+import { sniffFile } from '@loadwright/intake';
 import { hashingDiskStorage, type StoredFile } from './hashing-disk-storage';
-import { planImport } from './import-plan';
-import { enqueueImport, importQueueReady } from './import-queue';
-import { loadCatalogue } from './load-catalogue';
-import { proposeMapping } from './propose-mapping';
-import { allFindings, findUpload, listUploads, uploadReport, uploadWithContent } from './upload-store';
+import { planImport } from '@loadwright/intake';
+import { enqueueImport, importQueueReady } from '@loadwright/intake';
+import { loadCatalogue } from '@loadwright/intake';
+import { proposeMapping } from '@loadwright/intake';
+import { allFindings, findUpload, listUploads, uploadReport, uploadWithContent } from '@loadwright/intake';
 
 const tag = 'Uploads';
 const idParams = z.object({ id: z.coerce.number().int().positive() });

@@ -15,12 +15,12 @@ import {
 } from '@loadwright/contracts';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
-import { recordAudit } from '../audit/audit-log';
+import { recordAudit } from '@loadwright/audit';
 import { clientAddress } from '../auth/client-address';
-import { HttpProblem } from '../errors/http-problem';
+import { HttpProblem } from '@loadwright/problems';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
-import { readHolidayPlace, seedHolidayYears } from '../refit-engine/holiday-calendar';
-import { NoModelError, readLatestFit, readModelSettings, writeModelSettings } from './model-settings-service';
+import { readHolidayPlace, seedHolidayYears } from '@loadwright/refits';
+import { NoModelError, readLatestFit, readModelSettings, writeModelSettings } from '@loadwright/refits';
 
 const idParams = z.object({ id: z.coerce.number().int().positive() });
 

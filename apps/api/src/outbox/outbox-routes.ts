@@ -2,9 +2,9 @@
 import { outboxMessageSchema, outboxSummarySchema } from '@loadwright/contracts';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
-import { HttpProblem } from '../errors/http-problem';
+import { HttpProblem } from '@loadwright/problems';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
-import { listCaughtMail, readCaughtMail } from '../mail/outbox-store';
+import { listCaughtMail, readCaughtMail } from '@loadwright/mail';
 
 /** The routes under /api/outbox. */
 export function outboxRoutes({ outboxFolder }: AppContext): RouteDefinition[] {

@@ -4,14 +4,14 @@ import { inviteRequestSchema, messageResponseSchema, personSchema, updatePersonR
 import { users } from '@loadwright/db';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
-import type { Actor } from '../auth/actor';
-import { recordAudit } from '../audit/audit-log';
+import type { Actor } from '@loadwright/audit';
+import { recordAudit } from '@loadwright/audit';
 import { clientAddress } from '../auth/client-address';
 import { issueLink, linkLifetimes } from '../auth/one-time-links';
 import { revokeSessionsOf } from '../auth/session-service';
-import { HttpProblem } from '../errors/http-problem';
+import { HttpProblem } from '@loadwright/problems';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
-import { inviteMessage } from '../mail/templates';
+import { inviteMessage } from '@loadwright/mail';
 
 const idParams = z.object({ id: z.coerce.number().int().positive() });
 

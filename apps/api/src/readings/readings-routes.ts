@@ -17,14 +17,14 @@ import type { Series } from '@loadwright/db';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
 import { clientAddress } from '../auth/client-address';
-import { HttpProblem } from '../errors/http-problem';
+import { HttpProblem } from '@loadwright/problems';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
-import { findSeriesByRef } from '../series/series-repository';
-import { greenButtonReadings } from './green-button/green-button-readings';
-import { GreenButtonFormatError, greenButtonUnits, parseGreenButton } from './green-button/parse-green-button';
-import { readingHistory } from './history-service';
-import { importBatch, sha256Hex } from './import-service';
-import { pushedIntervalReadings } from './push-readings';
+import { findSeriesByRef } from '@loadwright/series';
+import { greenButtonReadings } from '@loadwright/readings';
+import { GreenButtonFormatError, greenButtonUnits, parseGreenButton } from '@loadwright/readings';
+import { readingHistory } from '@loadwright/readings';
+import { importBatch, sha256Hex } from '@loadwright/readings';
+import { pushedIntervalReadings } from '@loadwright/readings';
 
 const seriesParams = z.object({ series: z.string().trim().min(1).max(64) });
 

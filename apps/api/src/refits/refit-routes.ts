@@ -2,13 +2,13 @@
 import { currentRefitSchema, refitRunDetailSchema, refitRunListQuerySchema, refitRunListSchema, refitRunSummarySchema, startRefitRequestSchema } from '@loadwright/contracts';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
-import { recordAudit } from '../audit/audit-log';
+import { recordAudit } from '@loadwright/audit';
 import { clientAddress } from '../auth/client-address';
-import { HttpProblem } from '../errors/http-problem';
+import { HttpProblem } from '@loadwright/problems';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
-import { createJobInserter, refitQueueReady } from '../refit-engine/refit-queues';
-import { RefitScopeError, startRefitRun } from '../refit-engine/start-run';
-import { currentRun, listRuns, runDetail } from './refit-status';
+import { createJobInserter, refitQueueReady } from '@loadwright/refits';
+import { RefitScopeError, startRefitRun } from '@loadwright/refits';
+import { currentRun, listRuns, runDetail } from '@loadwright/refits';
 
 /** The routes under /api/refits. */
 export function refitRoutes({ db, pool }: AppContext): RouteDefinition[] {

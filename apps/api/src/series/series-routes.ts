@@ -9,10 +9,10 @@ import {
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
 import { clientAddress } from '../auth/client-address';
-import { HttpProblem } from '../errors/http-problem';
+import { HttpProblem } from '@loadwright/problems';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
-import { findSeriesByRef } from './series-repository';
-import { archiveSeries, createSeries, getSeriesDetail, listSeries, restoreSeries, updateSeries } from './series-service';
+import { findSeriesByRef } from '@loadwright/series';
+import { archiveSeries, createSeries, getSeriesDetail, listSeries, restoreSeries, updateSeries } from '@loadwright/series';
 
 const idParams = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) });
 

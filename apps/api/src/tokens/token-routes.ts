@@ -6,8 +6,8 @@ import { z } from 'zod';
 import type { AppContext } from '../app-context';
 import { newApiTokenSecret } from '../auth/api-token-secret';
 import { clientAddress } from '../auth/client-address';
-import { recordAudit } from '../audit/audit-log';
-import { HttpProblem } from '../errors/http-problem';
+import { recordAudit } from '@loadwright/audit';
+import { HttpProblem } from '@loadwright/problems';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
 
 const iso = (date: Date | null) => date?.toISOString() ?? null;

@@ -13,7 +13,7 @@ import {
   type ReadingResolution,
 } from '@loadwright/contracts';
 import type { Database, Series } from '@loadwright/db';
-import { HttpProblem } from '../errors/http-problem';
+import { HttpProblem } from '@loadwright/problems';
 import { bucketsInRange, latestReadingMs, qualityCounts, readingsInRange } from './history-repository';
 
 const dayMs = 86_400_000;

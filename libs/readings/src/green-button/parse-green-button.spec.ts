@@ -3,7 +3,7 @@ import { resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { GreenButtonFormatError, parseGreenButton } from './parse-green-button';
 
-const fixture = (name: string) => readFileSync(resolve(import.meta.dirname, '../../../../../fixtures/green-button', name), 'utf8');
+const fixture = (name: string) => readFileSync(resolve(import.meta.dirname, '../../../../fixtures/green-button', name), 'utf8');
 const iso = (seconds: number) => new Date(seconds * 1000).toISOString();
 
 describe('parseGreenButton', () => {

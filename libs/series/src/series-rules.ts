@@ -4,7 +4,7 @@
  * child below its parent. Each broken rule becomes one `{pointer, detail}` so the form can show them all.
  */
 import { seriesLevelDepth, type SeriesKind, type SeriesLevel } from '@loadwright/contracts';
-import { HttpProblem } from '../errors/http-problem';
+import { HttpProblem } from '@loadwright/problems';
 import { childLevels, findSeriesById, findSeriesByKey, type Executor } from './series-repository';
 
 /** The fields of a series that the rules look at, as they would be after the change. */

@@ -5,9 +5,9 @@
 import type { CreateAdjustmentRequest, ForecastAdjustment } from '@loadwright/contracts';
 import { forecastAdjustments, forecastPoints, forecastVersions, users, type Database } from '@loadwright/db';
 import { and, eq, gte, lt, sql } from 'drizzle-orm';
-import type { Actor } from '../auth/actor';
-import { recordAudit } from '../audit/audit-log';
-import { HttpProblem } from '../errors/http-problem';
+import type { Actor } from '@loadwright/audit';
+import { recordAudit } from '@loadwright/audit';
+import { HttpProblem } from '@loadwright/problems';
 import { sqlState, versionNotDraftState } from './database-errors';
 
 /** Who did it and from where, for the audit log. */

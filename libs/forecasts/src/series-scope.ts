@@ -1,6 +1,6 @@
 /** Which series a preview or an export covers: listed ones, a node and its descendants, or all. */
 import type { ForecastSeries } from '@loadwright/contracts';
-import { HttpProblem } from '../errors/http-problem';
+import { HttpProblem } from '@loadwright/problems';
 import { findSeries, seriesInScope, type Reader } from './forecast-repository';
 
 /** The series in scope, and a short name for the scope (for file names). */

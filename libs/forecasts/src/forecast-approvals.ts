@@ -11,8 +11,8 @@
 import type { ApprovalResult } from '@loadwright/contracts';
 import { forecastVersions, type Database } from '@loadwright/db';
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
-import { recordAudit } from '../audit/audit-log';
-import { HttpProblem } from '../errors/http-problem';
+import { recordAudit } from '@loadwright/audit';
+import { HttpProblem } from '@loadwright/problems';
 import type { Caller } from './forecast-adjustments';
 
 /** Why a listed version could not be approved. */

@@ -1,6 +1,6 @@
 /** Appends to the audit log: who did what, to what, when and from where. */
 import { auditLog, type Database } from '@loadwright/db';
-import type { Actor } from '../auth/actor';
+import type { Actor } from './actor';
 
 /** One audit entry; `detail` must never hold a password, hash or token. */
 export interface AuditEntry {

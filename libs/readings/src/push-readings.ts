@@ -6,7 +6,7 @@
  */
 import type { PushReadingsRequest, SeriesUnit } from '@loadwright/contracts';
 import type { Series } from '@loadwright/db';
-import { HttpProblem } from '../errors/http-problem';
+import { HttpProblem } from '@loadwright/problems';
 import type { IntervalReading } from './import-service';
 import { canConvert, unitConverter } from './unit-conversion';
 

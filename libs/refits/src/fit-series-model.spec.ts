@@ -1,6 +1,6 @@
 import type { ModelSettingsRequest } from '@loadwright/contracts';
 import { describe, expect, it } from 'vitest';
-import { feederLoad, stationTemperatures } from '../../../../bench/refit/synthetic-fleet';
+import { feederLoad, stationTemperatures } from '../../../bench/refit/synthetic-fleet';
 import { fitSeriesModel } from './fit-series-model';
 import { defaultModelSettings } from './model-settings';
 import type { RefitInputs } from './series-window';

@@ -3,7 +3,7 @@
  * numbers and local daily peaks, the actuals so far over the same window, and how the two differ.
  */
 import type { ForecastReview, ForecastSeries, ForecastVersion, ForecastVersionDetail, ForecastVersionPage, ForecastVersionSummary, ForecastVersionsQuery } from '@loadwright/contracts';
-import { HttpProblem } from '../errors/http-problem';
+import { HttpProblem } from '@loadwright/problems';
 import { adjustPoints } from './adjustment-layer';
 import { dailyPeaks, type TimedValue } from './daily-peaks';
 import { actualsBetween, adjustmentsOf, currentVersions, findSeries, pointsOf, versionHistory, versionsById, type AdjustmentRow, type PointRow, type Reader, type VersionRow } from './forecast-repository';

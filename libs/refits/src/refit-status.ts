@@ -1,7 +1,7 @@
 /** Refit runs as the status API shows them: summaries with counts, and per-series detail. */
 import type { RefitRunDetail, RefitRunSummary, RefitScope } from '@loadwright/contracts';
 import type pg from 'pg';
-import { contractMethod } from '../refit-engine/model-settings';
+import { contractMethod } from './model-settings';
 
 /** A refit_runs row with its requester's name. */
 interface RunRow {

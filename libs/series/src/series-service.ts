@@ -12,9 +12,9 @@ import {
   type UpdateSeriesRequest,
 } from '@loadwright/contracts';
 import type { Database, NewSeries, Series } from '@loadwright/db';
-import type { Actor } from '../auth/actor';
-import { recordAudit } from '../audit/audit-log';
-import { HttpProblem } from '../errors/http-problem';
+import type { Actor } from '@loadwright/audit';
+import { recordAudit } from '@loadwright/audit';
+import { HttpProblem } from '@loadwright/problems';
 import {
   countChildren,
   countLinkedLoads,

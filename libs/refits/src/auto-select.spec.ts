@@ -1,6 +1,6 @@
 import { fitLoadModel, forecastLoadModel, type LoadSeriesData } from '@loadwright/forecasting';
 import { describe, expect, it } from 'vitest';
-import { feederLoad, stationTemperatures } from '../../../../bench/refit/synthetic-fleet';
+import { feederLoad, stationTemperatures } from '../../../bench/refit/synthetic-fleet';
 import { autoSelect, backtestMean } from './auto-select';
 import { extendModel, modelAtOrigin } from './reanchor';
 import type { ModelDesign } from './model-plan';

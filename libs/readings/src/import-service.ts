@@ -8,10 +8,10 @@ import { createHash } from 'node:crypto';
 import { and, eq, ne } from 'drizzle-orm';
 import type { ImportResult, SeriesUnit, TimestampsMark, UploadMapping, UploadSettings } from '@loadwright/contracts';
 import { uploads, type Database, type Series, type UploadSource } from '@loadwright/db';
-import type { Actor } from '../auth/actor';
-import { recordAudit } from '../audit/audit-log';
-import type { Finding } from '../intake/findings';
-import { importReadings } from '../intake/import-readings';
+import type { Actor } from '@loadwright/audit';
+import { recordAudit } from '@loadwright/audit';
+import type { Finding } from '@loadwright/intake';
+import { importReadings } from '@loadwright/intake';
 
 /** One reading as the intake core takes it: the UTC interval start and the value in the series' unit. */
 export interface IntervalReading {

@@ -1,6 +1,6 @@
 import { fitLoadModel, forecastLoadModel, type LoadModelSpec, type LoadSeriesData, type FittedLoadModel } from '@loadwright/forecasting';
 import { describe, expect, it } from 'vitest';
-import { feederLoad, stationTemperatures } from '../../../../bench/refit/synthetic-fleet';
+import { feederLoad, stationTemperatures } from '../../../bench/refit/synthetic-fleet';
 import { extendModel, modelAtOrigin } from './reanchor';
 
 const startMs = Date.UTC(2025, 0, 6);

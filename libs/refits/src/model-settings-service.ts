@@ -4,7 +4,7 @@ import { fitDiagnosticsSchema, fitSelectionSchema } from '@loadwright/contracts'
 import { modelSpecs, type Database } from '@loadwright/db';
 import { eq } from 'drizzle-orm';
 import type pg from 'pg';
-import { contractMethod, defaultModelSettings, rowValuesFromSettings, settingsFromRow, type ModelSpecRow } from '../refit-engine/model-settings';
+import { contractMethod, defaultModelSettings, rowValuesFromSettings, settingsFromRow, type ModelSpecRow } from './model-settings';
 
 /** A series that has no model settings because it is not a load series, or does not exist. */
 export class NoModelError extends Error {

@@ -1,0 +1,3 @@
+/** @loadwright/audit: the public surface of the library. */
+export * from './actor';
+export * from './audit-log';

@@ -1,0 +1,11 @@
+/** @loadwright/intake: the public surface of the library. */
+export * from './csv/sniff';
+export * from './findings';
+export * from './import-plan';
+export * from './import-queue';
+export * from './import-readings';
+export * from './import-upload';
+export * from './load-catalogue';
+export * from './propose-mapping';
+export * from './time-zone-offset';
+export * from './upload-store';

@@ -1,0 +1,2 @@
+/** @loadwright/problems: the public surface of the library. */
+export * from './http-problem';

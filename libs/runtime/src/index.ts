@@ -1,0 +1,3 @@
+/** @loadwright/runtime: the public surface of the library. */
+export * from './config';
+export * from './exit-with-parent';
