@@ -16,7 +16,15 @@ export default defineConfig({
         extends: true,
         test: {
           name: 'unit',
-          include: ['libs/**/*.spec.ts', 'apps/api/**/*.spec.ts', 'apps/cli/**/*.spec.ts', 'apps/web/src/**/*.spec.ts', 'jobs/**/*.spec.ts', 'fixtures/**/*.spec.ts', 'scripts/**/*.spec.ts'],
+          include: [
+            'libs/**/*.spec.ts',
+            'apps/api/**/*.spec.ts',
+            'apps/cli/**/*.spec.ts',
+            'apps/web/src/**/*.spec.ts',
+            'jobs/**/*.spec.ts',
+            'fixtures/**/*.spec.ts',
+            'scripts/**/*.spec.ts',
+          ],
         },
       },
       {

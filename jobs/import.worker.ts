@@ -22,7 +22,11 @@ export async function registerImportQueue(boss: PgBoss, context: { logger: Logge
     const { uploadId } = job.data;
     try {
       const outcome = await importUpload({ db, pool }, uploadId);
-      if (outcome.status === 'done') logger.info({ uploadId, rows: outcome.rows, inserted: outcome.inserted, revised: outcome.revised, findings: outcome.findings.total }, 'upload imported');
+      if (outcome.status === 'done')
+        logger.info(
+          { uploadId, rows: outcome.rows, inserted: outcome.inserted, revised: outcome.revised, findings: outcome.findings.total },
+          'upload imported',
+        );
       else logger.info({ uploadId, outcome }, 'upload import ended without data');
     } catch (error) {
       const message = error instanceof Error ? error.message : String(error);
@@ -30,7 +34,15 @@ export async function registerImportQueue(boss: PgBoss, context: { logger: Logge
       const last = job.retryCount >= job.retryLimit;
       await db
         .update(uploads)
-        .set(last ? { status: 'failed', error: `The import failed on our side (${message}); nothing was stored. Upload the file again.`, finishedAt: new Date() } : { status: 'queued', progress: 0 })
+        .set(
+          last
+            ? {
+                status: 'failed',
+                error: `The import failed on our side (${message}); nothing was stored. Upload the file again.`,
+                finishedAt: new Date(),
+              }
+            : { status: 'queued', progress: 0 },
+        )
         .where(eq(uploads.id, uploadId));
       throw error;
     }

@@ -16,7 +16,13 @@ export interface RefitWorkerContext {
 
 /** Creates the queues, applies the schedule and starts both handlers; stops the pool with the boss. */
 export async function registerRefitQueues(boss: PgBoss, context: RefitWorkerContext): Promise<void> {
-  const pool = new pg.Pool({ connectionString: context.databaseUrl, max: context.concurrency + 2, application_name: 'loadwright-refit', idleTimeoutMillis: 5_000, allowExitOnIdle: true });
+  const pool = new pg.Pool({
+    connectionString: context.databaseUrl,
+    max: context.concurrency + 2,
+    application_name: 'loadwright-refit',
+    idleTimeoutMillis: 5_000,
+    allowExitOnIdle: true,
+  });
   pool.on('error', (error) => context.logger.warn({ err: error }, 'refit database connection lost'));
   await createRefitQueues(boss);
   const schedule = await applyRefitSchedule(boss, pool);

@@ -19,7 +19,14 @@ export async function sweepOrphanedRefits(pool: pg.Pool): Promise<number> {
       limit 1000`,
     [refitSeriesQueue],
   );
-  for (const row of rows) await markFailed(pool, row.run_id, row.series_id, 'the refit job ended without finishing (a worker stopped during its last attempt)', 0);
+  for (const row of rows)
+    await markFailed(
+      pool,
+      row.run_id,
+      row.series_id,
+      'the refit job ended without finishing (a worker stopped during its last attempt)',
+      0,
+    );
   return rows.length;
 }
 

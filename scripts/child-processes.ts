@@ -13,7 +13,11 @@ export interface NamedChild {
 /** Runs a TypeScript entry point with tsx so the PID we hold is the program's own (not a wrapper's). */
 export function startTypeScript(name: string, entry: string, env: NodeJS.ProcessEnv): NamedChild {
   // Standard input stays an open pipe: when this process dies, even by SIGKILL, the child sees it close and stops.
-  const child = spawn(process.execPath, ['--import', 'tsx', resolve(repoRoot, entry)], { cwd: repoRoot, env: { ...env, LOADWRIGHT_SUPERVISED: '1' }, stdio: ['pipe', 'inherit', 'inherit'] });
+  const child = spawn(process.execPath, ['--import', 'tsx', resolve(repoRoot, entry)], {
+    cwd: repoRoot,
+    env: { ...env, LOADWRIGHT_SUPERVISED: '1' },
+    stdio: ['pipe', 'inherit', 'inherit'],
+  });
   return { name, process: child };
 }
 

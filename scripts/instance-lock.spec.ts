@@ -11,7 +11,8 @@ describe('acquireInstanceLock', () => {
     const path = lockIn();
     // The parent process of this test is alive, so it stands in for a running `npm start`.
     writeFileSync(path, JSON.stringify({ pid: process.ppid, url: 'http://127.0.0.1:4280', startedAt: '2026-12-01T06:00:00.000Z' }));
-    const attempt = () => acquireInstanceLock(path, { pid: process.pid, url: 'http://127.0.0.1:4280', startedAt: new Date().toISOString() });
+    const attempt = () =>
+      acquireInstanceLock(path, { pid: process.pid, url: 'http://127.0.0.1:4280', startedAt: new Date().toISOString() });
     expect(attempt).toThrow(AlreadyRunningError);
     expect(attempt).toThrow(/already running from this folder \(process \d+.*at http:\/\/127\.0\.0\.1:4280/);
   });

@@ -16,7 +16,9 @@ export interface InstanceInfo {
 export class AlreadyRunningError extends Error {
   override readonly name = 'AlreadyRunningError';
   constructor(readonly holder: InstanceInfo) {
-    super(`Loadwright is already running from this folder (process ${holder.pid}, started ${holder.startedAt}) at ${holder.url}.\nOpen that address, or stop it first with Ctrl-C in its terminal (or: kill ${holder.pid}).`);
+    super(
+      `Loadwright is already running from this folder (process ${holder.pid}, started ${holder.startedAt}) at ${holder.url}.\nOpen that address, or stop it first with Ctrl-C in its terminal (or: kill ${holder.pid}).`,
+    );
   }
 }
 

@@ -54,7 +54,9 @@ function ensureServerInstalled(location: PostgresLocation): void {
   if (existsSync(resolve(location.binDir, 'pg_ctl'))) return;
   const command = 'apt-get install -y postgresql';
   if (!isRoot) {
-    throw new Error(`PostgreSQL 15 server binaries are missing from ${location.binDir}. Install them with: sudo apt-get update && sudo ${command}`);
+    throw new Error(
+      `PostgreSQL 15 server binaries are missing from ${location.binDir}. Install them with: sudo apt-get update && sudo ${command}`,
+    );
   }
   console.log(`PostgreSQL server missing: running apt-get update && ${command}`);
   for (const args of [['update'], ['install', '-y', 'postgresql']]) {
@@ -77,7 +79,10 @@ async function ensureCluster(location: PostgresLocation): Promise<void> {
     await pgTool(location, 'initdb', ['-D', location.dataDir, '-U', 'postgres', '--auth=trust', '-E', 'UTF8', '--locale=C.UTF-8']);
   } catch (error) {
     const denied = /Permission denied/.test(String((error as { stderr?: string }).stderr ?? (error as Error).message));
-    if (denied && isRoot) throw new Error(`The postgres OS user cannot reach ${location.dataDir}. Make its parent folders searchable (chmod o+x on each) or set LOADWRIGHT_DATA_DIR to a folder under one that is.`);
+    if (denied && isRoot)
+      throw new Error(
+        `The postgres OS user cannot reach ${location.dataDir}. Make its parent folders searchable (chmod o+x on each) or set LOADWRIGHT_DATA_DIR to a folder under one that is.`,
+      );
     throw error;
   }
 }
@@ -113,7 +118,9 @@ export async function startPostgres(location = defaultLocation()): Promise<{ sta
   if (await isReady(location)) {
     const dir = await servedDataDir(location);
     if (resolve(dir) !== resolve(location.dataDir)) {
-      throw new Error(`Port ${location.port} is taken by another PostgreSQL (data directory ${dir}). Set LOADWRIGHT_PG_PORT to a free port or DATABASE_URL to use that server.`);
+      throw new Error(
+        `Port ${location.port} is taken by another PostgreSQL (data directory ${dir}). Set LOADWRIGHT_PG_PORT to a free port or DATABASE_URL to use that server.`,
+      );
     }
     return { started: false };
   }
@@ -172,7 +179,9 @@ function assertIdentifier(name: string): void {
  * The database the product uses: DATABASE_URL when set (a team's own server: nothing is started),
  * otherwise the `loadwright` database on the project's own server, started if needed.
  */
-export async function ensurePostgres(env: NodeJS.ProcessEnv = process.env): Promise<{ url: string; adminUrl: string; startedHere: boolean }> {
+export async function ensurePostgres(
+  env: NodeJS.ProcessEnv = process.env,
+): Promise<{ url: string; adminUrl: string; startedHere: boolean }> {
   const external = env['DATABASE_URL'];
   if (external) {
     const admin = new URL(external);
@@ -181,7 +190,11 @@ export async function ensurePostgres(env: NodeJS.ProcessEnv = process.env): Prom
   }
   const location = defaultLocation(env);
   const { started } = await startPostgres(location);
-  console.log(started ? `  PostgreSQL started on 127.0.0.1:${location.port}` : `  PostgreSQL already running on 127.0.0.1:${location.port}: reusing it`);
+  console.log(
+    started
+      ? `  PostgreSQL started on 127.0.0.1:${location.port}`
+      : `  PostgreSQL already running on 127.0.0.1:${location.port}: reusing it`,
+  );
   const adminUrl = localUrl(location, 'postgres');
   await createDatabase(adminUrl, 'loadwright');
   return { url: localUrl(location, 'loadwright'), adminUrl, startedHere: started };

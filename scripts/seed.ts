@@ -16,7 +16,9 @@ try {
   } else {
     const { generateMs, hashMs, writeMs } = result.timings;
     console.log(`Seeded ${demoScenario.organisation.name}: ${result.observations.toLocaleString('en-US')} readings.`);
-    console.log(`  generated in ${generateMs.toFixed(0)} ms, passwords hashed in ${hashMs.toFixed(0)} ms, written in ${writeMs.toFixed(0)} ms`);
+    console.log(
+      `  generated in ${generateMs.toFixed(0)} ms, passwords hashed in ${hashMs.toFixed(0)} ms, written in ${writeMs.toFixed(0)} ms`,
+    );
   }
 } finally {
   // Leave the server as we found it: stop it only if this command started it.

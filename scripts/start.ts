@@ -19,7 +19,11 @@ async function main(): Promise<number> {
   const config = loadConfig();
   const url = `http://${config.HOST === '0.0.0.0' ? '127.0.0.1' : config.HOST}:${config.PORT}`;
   const dataDir = localDataDir();
-  const releaseLock = acquireInstanceLock(resolve(dataDir, 'instance.json'), { pid: process.pid, url, startedAt: new Date().toISOString() });
+  const releaseLock = acquireInstanceLock(resolve(dataDir, 'instance.json'), {
+    pid: process.pid,
+    url,
+    startedAt: new Date().toISOString(),
+  });
   const children: NamedChild[] = [];
   let startedPostgres = false;
   let catcher: MailCatcher | undefined;
@@ -62,7 +66,8 @@ async function main(): Promise<number> {
       console.log(`  Mail goes to the local catcher (${catcher.smtpUrl}); admins read it on the Outbox page.`);
     }
     children.push(startTypeScript('API', 'apps/api/src/server.ts', env));
-    for (let i = 1; i <= config.WORKER_PROCESSES; i++) children.push(startTypeScript(`worker ${i}`, 'jobs/worker.ts', { ...env, WORKER_NAME: `worker-${i}` }));
+    for (let i = 1; i <= config.WORKER_PROCESSES; i++)
+      children.push(startTypeScript(`worker ${i}`, 'jobs/worker.ts', { ...env, WORKER_NAME: `worker-${i}` }));
     console.log(`\nLoadwright is running at ${url}\n\n${demoAccountsText()}\nPress Ctrl-C to stop.\n`);
     const exited = await firstExit(children);
     if (!stopping) {

@@ -34,6 +34,8 @@ export function buildWeb(): Promise<void> {
       env: { ...process.env, NG_CLI_ANALYTICS: 'false' },
     });
     child.once('error', fail);
-    child.once('exit', (code) => (code === 0 ? done() : fail(new Error(`The web build failed (exit code ${code}); its messages are above.`))));
+    child.once('exit', (code) =>
+      code === 0 ? done() : fail(new Error(`The web build failed (exit code ${code}); its messages are above.`)),
+    );
   });
 }

@@ -53,10 +53,8 @@ const revisionsDdl = `create table observation_revisions (
   primary key (series_id, ts, revision))`;
 
 const singleCurrentReads = {
-  seriesRange:
-    'select ts, value, estimated, quality from observations where series_id = $1 and ts >= $2 and ts < $3 order by ts',
-  hourAcross:
-    'select s.id, o.value, o.estimated, o.quality from series s join observations o on o.series_id = s.id and o.ts = $1',
+  seriesRange: 'select ts, value, estimated, quality from observations where series_id = $1 and ts >= $2 and ts < $3 order by ts',
+  hourAcross: 'select s.id, o.value, o.estimated, o.quality from series s join observations o on o.series_id = s.id and o.ts = $1',
 };
 
 /** The candidates. `plain` is the layout the migrations create. */
@@ -64,11 +62,7 @@ const designs: Record<string, Design> = {
   plain: {
     name: 'plain',
     description: 'one table, PK (series_id, ts), current revision only (history in a side table)',
-    ddl: [
-      ...catalogueDdl,
-      `create table observations (${currentColumns}, primary key (series_id, ts))`,
-      revisionsDdl,
-    ],
+    ddl: [...catalogueDdl, `create table observations (${currentColumns}, primary key (series_id, ts))`, revisionsDdl],
     ...singleCurrentReads,
   },
   nofk: {
@@ -119,10 +113,7 @@ const designs: Record<string, Design> = {
   monthly: {
     name: 'monthly',
     description: 'same columns and PK, range-partitioned by month of ts',
-    ddl: [
-      ...catalogueDdl,
-      `create table observations (${currentColumns}, primary key (series_id, ts)) partition by range (ts)`,
-    ],
+    ddl: [...catalogueDdl, `create table observations (${currentColumns}, primary key (series_id, ts)) partition by range (ts)`],
     ...singleCurrentReads,
   },
   revkey: {
@@ -170,10 +161,20 @@ function reading(seriesId: number, hour: number): number {
  * upload (perfectly clustered) and hourly pushes (fully interleaved).
  */
 async function copyLoad(url: string): Promise<{ rows: number; seconds: number }> {
-  const child = spawn(args.psql, [url, '-v', 'ON_ERROR_STOP=1', '-q', '-c',
-    '\\copy observations (ts, value, series_id, upload_id, quality, revision) from stdin with (format text)'], {
-    stdio: ['pipe', 'inherit', 'inherit'],
-  });
+  const child = spawn(
+    args.psql,
+    [
+      url,
+      '-v',
+      'ON_ERROR_STOP=1',
+      '-q',
+      '-c',
+      '\\copy observations (ts, value, series_id, upload_id, quality, revision) from stdin with (format text)',
+    ],
+    {
+      stdio: ['pipe', 'inherit', 'inherit'],
+    },
+  );
   const began = performance.now();
   let rows = 0;
   const blockHours = 30 * 24;
@@ -341,7 +342,9 @@ function monthlyPartitions(): string[] {
   for (let m = 0; m < Math.ceil((days * 2) / 28) + 1; m++) {
     const from = new Date(Date.UTC(first.getUTCFullYear(), first.getUTCMonth() + m, 1));
     const to = new Date(Date.UTC(first.getUTCFullYear(), first.getUTCMonth() + m + 1, 1));
-    ddl.push(`create table observations_m${m} partition of observations for values from ('${from.toISOString()}') to ('${to.toISOString()}')`);
+    ddl.push(
+      `create table observations_m${m} partition of observations for values from ('${from.toISOString()}') to ('${to.toISOString()}')`,
+    );
   }
   return ddl;
 }
@@ -367,23 +370,11 @@ async function benchDesign(design: Design) {
     await client.query('vacuum analyze observations');
     const stored = await sizes(client);
     const fromTs = new Date(end - 365 * 24 * hourMs);
-    const seriesRange = await timeQuery(
-      client,
-      design.seriesRange,
-      (i) => [1 + ((i * 7919) % seriesCount), fromTs, new Date(end)],
-      20,
-    );
-    const hourAcross = await timeQuery(
-      client,
-      design.hourAcross,
-      (i) => [new Date(start + ((i * 7_349) % hours) * hourMs)],
-      20,
-    );
+    const seriesRange = await timeQuery(client, design.seriesRange, (i) => [1 + ((i * 7919) % seriesCount), fromTs, new Date(end)], 20);
+    const hourAcross = await timeQuery(client, design.hourAcross, (i) => [new Date(start + ((i * 7_349) % hours) * hourMs)], 20);
     const insert = await unnestInsert(client);
     const merged = design.ddl.includes(revisionsDdl) ? await stagedMerge(url.toString()) : undefined;
-    const revisions = merged
-      ? Number((await client.query('select count(*) as n from observation_revisions')).rows[0].n)
-      : undefined;
+    const revisions = merged ? Number((await client.query('select count(*) as n from observation_revisions')).rows[0].n) : undefined;
     return {
       design: design.name,
       description: design.description,
@@ -403,7 +394,7 @@ async function benchDesign(design: Design) {
         indexes: stored.indexes,
         tablePerRow: round(stored.table / stored.rows),
         indexesPerRow: round(stored.indexes / stored.rows),
-        extrapolatedGiBAt175M: round(((stored.table + stored.indexes) / stored.rows) * 175_200_000 / 2 ** 30),
+        extrapolatedGiBAt175M: round((((stored.table + stored.indexes) / stored.rows) * 175_200_000) / 2 ** 30),
       },
       seriesLast365DaysMs: seriesRange,
       oneHourAllSeriesMs: hourAcross,

@@ -74,10 +74,15 @@ function findRscript(): string | null {
 function runR(rscript: string, scriptPath: string, csvPath: string): RRound {
   const run = spawnSync(rscript, ['--vanilla', scriptPath, csvPath, String(R_REPETITIONS)], { encoding: 'utf8', timeout: 300_000 });
   if (run.status !== 0) throw new Error(`Rscript failed: ${run.stderr}`);
-  const lines = new Map(run.stdout.trim().split('\n').map((line) => {
-    const [key, ...rest] = line.trim().split(/\s+/);
-    return [key, rest] as const;
-  }));
+  const lines = new Map(
+    run.stdout
+      .trim()
+      .split('\n')
+      .map((line) => {
+        const [key, ...rest] = line.trim().split(/\s+/);
+        return [key, rest] as const;
+      }),
+  );
   const numbers = (key: string) => (lines.get(key) ?? []).map(Number);
   return {
     version: (lines.get('version') ?? []).join(' '),
@@ -140,17 +145,18 @@ function measure(x: number[], csvPath: string): BenchReport {
     yuleWalker48: summarise(ours.yw),
     leastSquares24: summarise(ours.ls),
   };
-  const r = rRounds.length > 0
-    ? {
-        version: rRounds[0].version,
-        css: summarise(rRounds.flatMap((round) => round.cssMs)),
-        yw: summarise(rRounds.flatMap((round) => round.ywMs)),
-        ols: summarise(rRounds.flatMap((round) => round.olsMs)),
-        coef: rRounds[0].coef,
-        cssValue: rRounds[0].css,
-        convergence: rRounds[0].convergence,
-      }
-    : null;
+  const r =
+    rRounds.length > 0
+      ? {
+          version: rRounds[0].version,
+          css: summarise(rRounds.flatMap((round) => round.cssMs)),
+          yw: summarise(rRounds.flatMap((round) => round.ywMs)),
+          ols: summarise(rRounds.flatMap((round) => round.olsMs)),
+          coef: rRounds[0].coef,
+          cssValue: rRounds[0].css,
+          convergence: rRounds[0].convergence,
+        }
+      : null;
 
   const rows: BenchReport['rows'] = [
     {
@@ -161,7 +167,14 @@ function measure(x: number[], csvPath: string): BenchReport {
       R_min_ms: r?.css.minMs ?? null,
       R_over_ours: r ? r.css.medianMs / timing.nls.medianMs : null,
     },
-    { task: '  of which Hannan-Rissanen start', ours_median_ms: timing.hannanRissanen.medianMs, ours_min_ms: timing.hannanRissanen.minMs, R_median_ms: null, R_min_ms: null, R_over_ours: null },
+    {
+      task: '  of which Hannan-Rissanen start',
+      ours_median_ms: timing.hannanRissanen.medianMs,
+      ours_min_ms: timing.hannanRissanen.minMs,
+      R_median_ms: null,
+      R_min_ms: null,
+      R_over_ours: null,
+    },
     {
       task: 'Yule-Walker AR(48)',
       ours_median_ms: timing.yuleWalker48.medianMs,
@@ -191,17 +204,26 @@ function measure(x: number[], csvPath: string): BenchReport {
     });
     // R's CSS recomputed by our recursion at R's coefficients, so both sums come from one formula.
     const [ar1, ar2, ma1, mean] = r.coef;
-    const rCss = cssSumOfSquares(series, Float64Array.from([ar1, ar2, ma1, mean]), { p: 2, q: 1, includeMean: true }, new Float64Array(series.length));
+    const rCss = cssSumOfSquares(
+      series,
+      Float64Array.from([ar1, ar2, ma1, mean]),
+      { p: 2, q: 1, includeMean: true },
+      new Float64Array(series.length),
+    );
     checks.push({
       name: 'CSS no larger than R’s',
       passed: fit.css <= rCss * (1 + 1e-10),
       detail: `ours ${fit.css.toPrecision(12)}, R ${rCss.toPrecision(12)} (R's own sum ${r.cssValue.toPrecision(12)}), relative difference ${((fit.css - rCss) / rCss).toExponential(2)}`,
     });
-    notes.push(`R: ${r.version}; optim convergence code ${r.convergence}; R coefficients ${r.coef.map((v) => v.toPrecision(8)).join(', ')}`);
+    notes.push(
+      `R: ${r.version}; optim convergence code ${r.convergence}; R coefficients ${r.coef.map((v) => v.toPrecision(8)).join(', ')}`,
+    );
   } else {
     notes.push('Rscript not found (install r-base-core): the R side and the speed ratio are skipped');
   }
-  notes.push(`ours: φ = ${fit.ar.map((v) => v.toPrecision(8)).join(', ')}, θ = ${fit.ma[0].toPrecision(8)}, μ = ${fit.mean.toPrecision(10)}, ${fit.iterations} iterations`);
+  notes.push(
+    `ours: φ = ${fit.ar.map((v) => v.toPrecision(8)).join(', ')}, θ = ${fit.ma[0].toPrecision(8)}, μ = ${fit.mean.toPrecision(10)}, ${fit.iterations} iterations`,
+  );
   checks.push({
     name: 'Yule-Walker AR(48) under 1 ms (goal)',
     passed: timing.yuleWalker48.medianMs < 1,

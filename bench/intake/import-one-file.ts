@@ -21,7 +21,9 @@ import { createDatabase, dropDatabase, ensurePostgres } from '../../scripts/post
 import { importUpload } from '@loadwright/intake';
 import { insertObservations } from '../../libs/db/src/seed/insert-observations';
 
-const { values: args } = parseArgs({ options: { rows: { type: 'string', default: '1000000' }, mode: { type: 'string', default: 'import' } } });
+const { values: args } = parseArgs({
+  options: { rows: { type: 'string', default: '1000000' }, mode: { type: 'string', default: 'import' } },
+});
 const rows = Number(args.rows);
 const seriesCount = 12;
 const hourMs = 3_600_000;
@@ -78,9 +80,19 @@ const path = join(tmpdir(), `lw-bench-intake-${process.pid}.csv`);
 try {
   await migrate(url.toString());
   const { db, pool, close } = createDb(url.toString(), { max: 3 });
-  await db.insert(series).values(
-    Array.from({ length: seriesCount }, (_, i) => ({ key: `fdr-${i + 1}`, name: `Feeder ${i + 1}`, kind: 'load' as const, level: 'feeder' as const, unit: 'kW' as const, intervalMinutes: 60, timeZone: 'America/Chicago' })),
-  );
+  await db
+    .insert(series)
+    .values(
+      Array.from({ length: seriesCount }, (_, i) => ({
+        key: `fdr-${i + 1}`,
+        name: `Feeder ${i + 1}`,
+        kind: 'load' as const,
+        level: 'feeder' as const,
+        unit: 'kW' as const,
+        intervalMinutes: 60,
+        timeZone: 'America/Chicago',
+      })),
+    );
   const fileRows = await writeFile(path);
   const bytes = (await stat(path)).size;
   const [upload] = await db
@@ -92,7 +104,14 @@ try {
       status: 'queued',
       storagePath: path,
       mapping: { layout: 'long', timestampColumn: 'timestamp', valueColumn: 'value_kw', seriesKeyColumn: 'series', seriesKey: null },
-      settings: { unit: 'kW', timeZone: 'America/Chicago', timestampsMark: 'start', repeatedHourPolicy: 'reject', decimalSeparator: '.', estimateShortGaps: true },
+      settings: {
+        unit: 'kW',
+        timeZone: 'America/Chicago',
+        timestampsMark: 'start',
+        repeatedHourPolicy: 'reject',
+        decimalSeparator: '.',
+        estimateShortGaps: true,
+      },
     })
     .returning({ id: uploads.id });
 
@@ -112,18 +131,20 @@ try {
   if (outcome.status !== 'done') throw new Error(`import ended ${outcome.status}: ${JSON.stringify(outcome)}`);
   const stored = Number((await pool.query('select count(*) as n from observations')).rows[0].n);
   await close();
-  console.log(JSON.stringify({
-    rows: fileRows,
-    fileBytes: bytes,
-    seconds,
-    rowsPerSecond: Math.round(outcome.rows / seconds),
-    stored,
-    findings: outcome.findings.total,
-    baselineRssMiB: Math.round(baselineRss / 1048576),
-    peakRssMiB: Math.round(peakRss / 1048576),
-    rssGrowthMiB: Math.round((peakRss - baselineRss) / 1048576),
-    peakHeapMiB: Math.round(peakHeap / 1048576),
-  }));
+  console.log(
+    JSON.stringify({
+      rows: fileRows,
+      fileBytes: bytes,
+      seconds,
+      rowsPerSecond: Math.round(outcome.rows / seconds),
+      stored,
+      findings: outcome.findings.total,
+      baselineRssMiB: Math.round(baselineRss / 1048576),
+      peakRssMiB: Math.round(peakRss / 1048576),
+      rssGrowthMiB: Math.round((peakRss - baselineRss) / 1048576),
+      peakHeapMiB: Math.round(peakHeap / 1048576),
+    }),
+  );
 } finally {
   await rm(path, { force: true });
   await dropDatabase(adminUrl, name);

@@ -29,14 +29,18 @@ interface RunResult {
 }
 
 function runChild(rows: number, mode: 'import' | 'reference'): RunResult {
-  const output = execFileSync(process.execPath, ['--import', 'tsx', '--expose-gc', script, '--rows', String(rows), '--mode', mode], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'inherit'] });
+  const output = execFileSync(process.execPath, ['--import', 'tsx', '--expose-gc', script, '--rows', String(rows), '--mode', mode], {
+    encoding: 'utf8',
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
   return JSON.parse(output.trim().split('\n').pop()!) as RunResult;
 }
 
 /** The benchmark. */
 export const bench: Benchmark = {
   name: 'intake-import',
-  description: 'CSV upload import end to end (12 series, 250k and 1M rows): rows/s and peak RSS, against the plain insert of the same readings',
+  description:
+    'CSV upload import end to end (12 series, 250k and 1M rows): rows/s and peak RSS, against the plain insert of the same readings',
   run(): BenchReport {
     const small = runChild(250_000, 'import');
     const large = runChild(1_000_000, 'import');
@@ -61,9 +65,21 @@ export const bench: Benchmark = {
         'The gap to the reference is the reading, conversion and validation of the file in JavaScript before the transaction (parsing and garbage collection dominate a CPU profile); the database side runs at about the reference rate.',
       ],
       checks: [
-        { name: 'every row stored', passed: large.stored === 1_000_000 && small.stored === 250_000, detail: `${small.stored} and ${large.stored} observations` },
-        { name: 'at least 100,000 rows/s end to end at 1M rows', passed: large.rowsPerSecond >= 100_000, detail: `${large.rowsPerSecond} rows/s` },
-        { name: 'memory flat in the file size (RSS growth at 1M under 2× that at 250k)', passed: growthRatio < 2, detail: `${growthRatio.toFixed(2)}×` },
+        {
+          name: 'every row stored',
+          passed: large.stored === 1_000_000 && small.stored === 250_000,
+          detail: `${small.stored} and ${large.stored} observations`,
+        },
+        {
+          name: 'at least 100,000 rows/s end to end at 1M rows',
+          passed: large.rowsPerSecond >= 100_000,
+          detail: `${large.rowsPerSecond} rows/s`,
+        },
+        {
+          name: 'memory flat in the file size (RSS growth at 1M under 2× that at 250k)',
+          passed: growthRatio < 2,
+          detail: `${growthRatio.toFixed(2)}×`,
+        },
       ],
       data: { small, large, reference },
     };

@@ -34,17 +34,31 @@ const GOAL_SECONDS = 15 * 60;
 /** Sizes from the environment, e.g. "100,1000". */
 function sizes(name: string, fallback: number[]): number[] {
   const raw = process.env[name];
-  return raw ? raw.split(',').map(Number).filter((n) => Number.isInteger(n) && n > 0) : fallback;
+  return raw
+    ? raw
+        .split(',')
+        .map(Number)
+        .filter((n) => Number.isInteger(n) && n > 0)
+    : fallback;
 }
 
 /** Loads the station and `count` feeders; returns the feeder ids in creation order. */
 async function loadFleet(pool: pg.Pool, count: number): Promise<number[]> {
   const startMs = Date.UTC(2025, 11, 1);
-  await pool.query(`insert into organisation (name, time_zone, holiday_country, holiday_region) values ('Benchmark co-op', 'America/Chicago', 'US', 'TX')`);
-  const station = (await pool.query(`insert into series (key, name, kind, unit, time_zone) values ('wx', 'Benchmark station', 'temperature', 'degF', 'America/Chicago') returning id`)).rows[0].id;
+  await pool.query(
+    `insert into organisation (name, time_zone, holiday_country, holiday_region) values ('Benchmark co-op', 'America/Chicago', 'US', 'TX')`,
+  );
+  const station = (
+    await pool.query(
+      `insert into series (key, name, kind, unit, time_zone) values ('wx', 'Benchmark station', 'temperature', 'degF', 'America/Chicago') returning id`,
+    )
+  ).rows[0].id;
   const temperature = stationTemperatures(startMs, HOURS + FORECAST_HOURS);
   const insert = (id: number, values: Float64Array) =>
-    pool.query('insert into observations (series_id, ts, value) select $1, to_timestamp($2::float8 / 1000 + (i - 1) * 3600), v from unnest($3::float8[]) with ordinality as u(v, i)', [id, startMs, Array.from(values)]);
+    pool.query(
+      'insert into observations (series_id, ts, value) select $1, to_timestamp($2::float8 / 1000 + (i - 1) * 3600), v from unnest($3::float8[]) with ordinality as u(v, i)',
+      [id, startMs, Array.from(values)],
+    );
   await insert(station, temperature);
   const ids: number[] = [];
   const batch = 8;
@@ -67,7 +81,13 @@ async function loadFleet(pool: pg.Pool, count: number): Promise<number[]> {
 function startWorker(databaseUrl: string, name: string): Promise<ChildProcess> {
   const child = spawn(process.execPath, ['--import', 'tsx', 'jobs/worker.ts'], {
     cwd: repoRoot,
-    env: { ...process.env, DATABASE_URL: databaseUrl, WORKER_CONCURRENCY: process.env['REFIT_BENCH_CONCURRENCY'] ?? '6', LOG_LEVEL: 'info', WORKER_NAME: name },
+    env: {
+      ...process.env,
+      DATABASE_URL: databaseUrl,
+      WORKER_CONCURRENCY: process.env['REFIT_BENCH_CONCURRENCY'] ?? '6',
+      LOG_LEVEL: 'info',
+      WORKER_NAME: name,
+    },
     stdio: ['ignore', 'pipe', 'inherit'],
   });
   return new Promise((done, fail) => {
@@ -121,7 +141,11 @@ async function timeRun(pool: pg.Pool, databaseUrl: string, ids: number[], worker
   try {
     const workerCpuBefore = children.map((child) => cpuSecondsOf(child.pid!));
     const backendsBefore = await backendCpuSeconds(pool, database);
-    const started = await startRefitRun(pool, createJobInserter(), { trigger: 'manual', scope: { kind: 'series', seriesIds: ids }, requestedById: null });
+    const started = await startRefitRun(pool, createJobInserter(), {
+      trigger: 'manual',
+      scope: { kind: 'series', seriesIds: ids },
+      requestedById: null,
+    });
     const runId = started!.runId;
     for (;;) {
       const { rows } = await pool.query('select finished_at from refit_runs where id = $1', [runId]);
@@ -139,8 +163,14 @@ async function timeRun(pool: pg.Pool, databaseUrl: string, ids: number[], worker
          from refit_runs r join refit_run_series s on s.run_id = r.id where r.id = $1 group by r.id`,
       [runId],
     );
-    const errors = await pool.query('select error, count(*)::int as n from refit_run_series where run_id = $1 and status = $2 group by error limit 3', [runId, 'failed']);
-    const methods = await pool.query(`select f.method, count(*)::int as n from refit_run_series s join fits f on f.id = s.fit_id where s.run_id = $1 group by f.method order by n desc`, [runId]);
+    const errors = await pool.query(
+      'select error, count(*)::int as n from refit_run_series where run_id = $1 and status = $2 group by error limit 3',
+      [runId, 'failed'],
+    );
+    const methods = await pool.query(
+      `select f.method, count(*)::int as n from refit_run_series s join fits f on f.id = s.fit_id where s.run_id = $1 group by f.method order by n desc`,
+      [runId],
+    );
     return { runId, ...rows[0], workerCpu, databaseCpu, errors: errors.rows, methods: methods.rows };
   } finally {
     await stopWorkers(children);
@@ -150,7 +180,8 @@ async function timeRun(pool: pg.Pool, databaseUrl: string, ids: number[], worker
 /** See the file comment. */
 export const bench: Benchmark = {
   name: 'nightly-refit',
-  description: 'Nightly refit end to end (read, auto fit, diagnose, forecast 168 h, write) for N series × 1 year with 1 and 2 worker processes',
+  description:
+    'Nightly refit end to end (read, auto fit, diagnose, forecast 168 h, write) for N series × 1 year with 1 and 2 worker processes',
   async run(): Promise<BenchReport> {
     const seriesCounts = sizes('REFIT_BENCH_SERIES', [100, 1000]);
     const workerCounts = sizes('REFIT_BENCH_WORKERS', [1, 2]);
@@ -199,7 +230,9 @@ export const bench: Benchmark = {
           });
           console.log(`  progress: ${JSON.stringify(rows.at(-1))}`);
           if (r.errors.length) notes.push(`N=${n} W=${workers} failures: ${JSON.stringify(r.errors)}`);
-          notes.push(`N=${n} W=${workers} methods chosen: ${r.methods.map((m: { method: string; n: number }) => `${m.method} ${m.n}`).join(', ')}`);
+          notes.push(
+            `N=${n} W=${workers} methods chosen: ${r.methods.map((m: { method: string; n: number }) => `${m.method} ${m.n}`).join(', ')}`,
+          );
         }
       }
     } finally {
@@ -215,9 +248,15 @@ export const bench: Benchmark = {
         ? `${GOAL_SERIES} series measured directly`
         : `${GOAL_SERIES} series not loaded (about 9 GB): extrapolated linearly from N = ${Math.max(...seriesCounts)}, since each series is an independent job`,
     );
-    notes.push(`"on 2 free cores" = (worker CPU + database server CPU per series) × ${GOAL_SERIES} / 2 cores: the run time when the two cores do nothing else; "wall-extrapolated" scales the measured wall time, which other work on the machine inflates (see load avg)`);
-    notes.push('fit cpu ms = CPU time of the fit alone (process.cpuUsage around the synchronous fit), which a busy machine does not inflate the way it inflates wall times');
-    notes.push('job ms = from taking the job to committing the version; read/fit/diag/fcst/write are per-series means from phase_ms; load avg is the 1-minute load before the run (other work shares the 2 cores)');
+    notes.push(
+      `"on 2 free cores" = (worker CPU + database server CPU per series) × ${GOAL_SERIES} / 2 cores: the run time when the two cores do nothing else; "wall-extrapolated" scales the measured wall time, which other work on the machine inflates (see load avg)`,
+    );
+    notes.push(
+      'fit cpu ms = CPU time of the fit alone (process.cpuUsage around the synchronous fit), which a busy machine does not inflate the way it inflates wall times',
+    );
+    notes.push(
+      'job ms = from taking the job to committing the version; read/fit/diag/fcst/write are per-series means from phase_ms; load avg is the 1-minute load before the run (other work shares the 2 cores)',
+    );
     return {
       rows,
       notes,

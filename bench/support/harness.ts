@@ -62,9 +62,13 @@ export function formatTable(rows: Array<Record<string, string | number | null>>)
     value === null || value === undefined ? '–' : typeof value === 'number' ? formatNumber(value) : value;
   const cells = rows.map((row) => columns.map((column) => cell(row[column])));
   const widths = columns.map((column, i) => Math.max(column.length, ...cells.map((line) => line[i].length)));
-  const numeric = columns.map((column) => rows.every((row) => row[column] === null || row[column] === undefined || typeof row[column] === 'number'));
+  const numeric = columns.map((column) =>
+    rows.every((row) => row[column] === null || row[column] === undefined || typeof row[column] === 'number'),
+  );
   const pad = (text: string, i: number) => (numeric[i] ? text.padStart(widths[i]) : text.padEnd(widths[i]));
-  return [columns.map(pad).join('  '), widths.map((w) => '-'.repeat(w)).join('  '), ...cells.map((line) => line.map(pad).join('  '))].join('\n');
+  return [columns.map(pad).join('  '), widths.map((w) => '-'.repeat(w)).join('  '), ...cells.map((line) => line.map(pad).join('  '))].join(
+    '\n',
+  );
 }
 
 /** Four significant digits, or exponent form for very small or large values. */

@@ -29,7 +29,15 @@ beforeAll(async () => {
   spentPeople = await createPeople(server.db, '-spent');
   for (const kind of ['read', 'read-write', 'revoked'] as const) {
     const { token, prefix, hash } = newApiTokenSecret();
-    await server.db.insert(apiTokens).values({ name: kind, prefix, secretHash: hash, scope: kind === 'revoked' ? 'read-write' : kind, revokedAt: kind === 'revoked' ? new Date() : null });
+    await server.db
+      .insert(apiTokens)
+      .values({
+        name: kind,
+        prefix,
+        secretHash: hash,
+        scope: kind === 'revoked' ? 'read-write' : kind,
+        revokedAt: kind === 'revoked' ? new Date() : null,
+      });
     tokens[kind] = token;
   }
 });
@@ -44,7 +52,10 @@ const callers: Caller[] = [
   ...roles.map((role) => ({ kind: 'role' as const, role })),
   { kind: 'token', scope: 'read' },
   { kind: 'token', scope: 'read-write' },
-  ...(['no session', 'expired session', 'revoked session', 'revoked token', 'forged session'] as const).map((name) => ({ kind: 'refused' as const, name })),
+  ...(['no session', 'expired session', 'revoked session', 'revoked token', 'forged session'] as const).map((name) => ({
+    kind: 'refused' as const,
+    name,
+  })),
 ];
 
 function callerName(caller: Caller): string {
@@ -74,12 +85,20 @@ async function present(caller: Caller): Promise<Record<string, string>> {
     case 'revoked token':
       return { Authorization: `Bearer ${tokens.revoked}` };
     case 'forged session': {
-      const forged = await new SignJWT({ sid: randomUUID() }).setProtectedHeader({ alg: 'HS256' }).setSubject(String(people.admin.id)).setIssuer('loadwright').setAudience('loadwright-web').setExpirationTime('10m').sign(new TextEncoder().encode('not the server key, but 32+ bytes long'));
+      const forged = await new SignJWT({ sid: randomUUID() })
+        .setProtectedHeader({ alg: 'HS256' })
+        .setSubject(String(people.admin.id))
+        .setIssuer('loadwright')
+        .setAudience('loadwright-web')
+        .setExpirationTime('10m')
+        .sign(new TextEncoder().encode('not the server key, but 32+ bytes long'));
       return { Cookie: `lw_session=${forged}` };
     }
     case 'expired session': {
       const browser = await signIn(server.url, spentPeople.admin.email);
-      await server.pool.query(`UPDATE sessions SET expires_at = now() - interval '1 second' WHERE user_id = $1 AND revoked_at IS NULL`, [spentPeople.admin.id]);
+      await server.pool.query(`UPDATE sessions SET expires_at = now() - interval '1 second' WHERE user_id = $1 AND revoked_at IS NULL`, [
+        spentPeople.admin.id,
+      ]);
       return asBrowser(browser);
     }
     case 'revoked session': {
@@ -119,7 +138,10 @@ describe('routes', () => {
     expect(response.status).toBe(200);
     expect(response.body.openapi).toBe('3.1.0');
     for (const route of server.routes) {
-      expect(response.body.paths[openApiPath(route.path)]?.[route.method], `${route.method} ${route.path} missing from OpenAPI`).toBeDefined();
+      expect(
+        response.body.paths[openApiPath(route.path)]?.[route.method],
+        `${route.method} ${route.path} missing from OpenAPI`,
+      ).toBeDefined();
     }
   });
 });
@@ -131,12 +153,18 @@ describe('access matrix', () => {
     for (const route of server.routes) {
       for (const caller of callers) {
         const headers = await present(caller);
-        const response = await request(server.url)[route.method](concretePath(route.path)).set(headers).send(route.body ? {} : undefined);
+        const response = await request(server.url)
+          [route.method](concretePath(route.path))
+          .set(headers)
+          .send(route.body ? {} : undefined);
         const allowed = expectedAllowed(route, caller);
         const refusal = caller.kind === 'refused' ? 401 : 403; // nobody identified: 401; identified but not permitted: 403
         const ok = allowed ? response.status !== 401 && response.status !== 403 : response.status === refusal;
         if (route.path === '/auth/sign-out' && caller.kind === 'role') browsers.delete(caller.role);
-        if (!ok) mismatches.push(`${route.method.toUpperCase()} ${route.path} as ${callerName(caller)}: got ${response.status}, expected ${allowed ? 'allowed' : refusal}`);
+        if (!ok)
+          mismatches.push(
+            `${route.method.toUpperCase()} ${route.path} as ${callerName(caller)}: got ${response.status}, expected ${allowed ? 'allowed' : refusal}`,
+          );
         cells++;
       }
     }

@@ -39,7 +39,9 @@ it('keeps passwords, hashes and tokens out of responses and logs', async () => {
   keep(await request(server.url).get('/api/tokens').set(auth));
   keep(await request(server.url).get('/api/health').set('Authorization', `Bearer ${tokenSecret}`));
 
-  keep(await request(server.url).post('/api/people').set(auth).send({ email: 'invitee@test.example', displayName: 'Invitee', role: 'viewer' }));
+  keep(
+    await request(server.url).post('/api/people').set(auth).send({ email: 'invitee@test.example', displayName: 'Invitee', role: 'viewer' }),
+  );
   keep(await request(server.url).get('/api/people').set(auth));
   let mail = listCaughtMail(server.outboxFolder);
   for (let i = 0; i < 50 && mail.length === 0; i++) {
@@ -48,9 +50,18 @@ it('keeps passwords, hashes and tokens out of responses and logs', async () => {
   }
   const linkSecret = decodeURIComponent(/token=([^\s"&]+)/.exec(mail[0]!.text)![1]!);
   const newPassword = 'invitee chose this long one';
-  keep(await request(server.url).post(`/api/auth/set-password?token=${encodeURIComponent(linkSecret)}`).send({ token: linkSecret, newPassword }));
+  keep(
+    await request(server.url)
+      .post(`/api/auth/set-password?token=${encodeURIComponent(linkSecret)}`)
+      .send({ token: linkSecret, newPassword }),
+  );
   secrets.push(linkSecret, newPassword);
-  keep(await request(server.url).post('/api/auth/password').set(auth).send({ currentPassword: testPassword, newPassword: 'admin rotated password 9' }));
+  keep(
+    await request(server.url)
+      .post('/api/auth/password')
+      .set(auth)
+      .send({ currentPassword: testPassword, newPassword: 'admin rotated password 9' }),
+  );
   secrets.push('admin rotated password 9');
   keep(await request(server.url).get('/api/audit').set(auth));
   keep(await request(server.url).get('/api/outbox').set(auth));
@@ -59,6 +70,7 @@ it('keeps passwords, hashes and tokens out of responses and logs', async () => {
   const hashes = rows.map((r) => r.password_hash);
   const everything = [...bodies, ...logLines].join('\n');
   expect(logLines.length).toBeGreaterThan(5);
-  for (const secret of [...secrets, tokenSecret, ...hashes]) expect(everything.includes(secret), `leaked: ${secret.slice(0, 12)}…`).toBe(false);
+  for (const secret of [...secrets, tokenSecret, ...hashes])
+    expect(everything.includes(secret), `leaked: ${secret.slice(0, 12)}…`).toBe(false);
   expect(everything).not.toMatch(/\$argon2id\$/);
 });

@@ -41,7 +41,9 @@ describe('sign-in', () => {
   });
 
   it('accepts the e-mail in any letter case', async () => {
-    const response = await request(server.url).post('/api/auth/sign-in').send({ email: people.viewer.email.toUpperCase(), password: testPassword });
+    const response = await request(server.url)
+      .post('/api/auth/sign-in')
+      .send({ email: people.viewer.email.toUpperCase(), password: testPassword });
     expect(response.status).toBe(200);
   });
 
@@ -66,7 +68,9 @@ describe('sign-in', () => {
   it('locks an account after five failures and says nothing about which part was wrong', async () => {
     const email = people.steward.email;
     for (let i = 0; i < 5; i++) {
-      const response = await request(server.url).post('/api/auth/sign-in').send({ email, password: `wrong ${i}` });
+      const response = await request(server.url)
+        .post('/api/auth/sign-in')
+        .send({ email, password: `wrong ${i}` });
       expect(response.status).toBe(401);
     }
     const locked = await request(server.url).post('/api/auth/sign-in').send({ email, password: testPassword });
@@ -80,19 +84,32 @@ describe('sign-in', () => {
 
   it('refuses a write without the CSRF token, and accepts it with the token', async () => {
     const browser = await signIn(server.url, people.admin.email);
-    const without = await request(server.url).post('/api/tokens').set('Cookie', browser.cookie).send({ name: 'Dispatch', scope: 'read', expiresInDays: 30 });
+    const without = await request(server.url)
+      .post('/api/tokens')
+      .set('Cookie', browser.cookie)
+      .send({ name: 'Dispatch', scope: 'read', expiresInDays: 30 });
     expect(without.status).toBe(403);
     expect(without.body.detail).toMatch(/CSRF/);
-    const forged = await request(server.url).post('/api/tokens').set('Cookie', browser.cookie).set('X-CSRF-Token', 'forged-value').send({ name: 'Dispatch', scope: 'read', expiresInDays: 30 });
+    const forged = await request(server.url)
+      .post('/api/tokens')
+      .set('Cookie', browser.cookie)
+      .set('X-CSRF-Token', 'forged-value')
+      .send({ name: 'Dispatch', scope: 'read', expiresInDays: 30 });
     expect(forged.status).toBe(403);
-    const withToken = await request(server.url).post('/api/tokens').set('Cookie', browser.cookie).set('X-CSRF-Token', browser.csrf).send({ name: 'Dispatch', scope: 'read', expiresInDays: 30 });
+    const withToken = await request(server.url)
+      .post('/api/tokens')
+      .set('Cookie', browser.cookie)
+      .set('X-CSRF-Token', browser.csrf)
+      .send({ name: 'Dispatch', scope: 'read', expiresInDays: 30 });
     expect(withToken.status).toBe(201);
   });
 
   it('ends the session at once on sign-out', async () => {
     const browser = await signIn(server.url, people.viewer.email);
     expect((await request(server.url).get('/api/auth/session').set('Cookie', browser.cookie)).status).toBe(200);
-    expect((await request(server.url).post('/api/auth/sign-out').set('Cookie', browser.cookie).set('X-CSRF-Token', browser.csrf)).status).toBe(204);
+    expect(
+      (await request(server.url).post('/api/auth/sign-out').set('Cookie', browser.cookie).set('X-CSRF-Token', browser.csrf)).status,
+    ).toBe(204);
     expect((await request(server.url).get('/api/auth/session').set('Cookie', browser.cookie)).status).toBe(401);
   });
 
@@ -100,23 +117,42 @@ describe('sign-in', () => {
     const others = await createPeople(server.db, '-roles');
     const admin = await signIn(server.url, people.admin.email);
     const viewer = await signIn(server.url, others.viewer.email);
-    const promote = await request(server.url).patch(`/api/people/${others.viewer.id}`).set('Cookie', admin.cookie).set('X-CSRF-Token', admin.csrf).send({ role: 'planner' });
+    const promote = await request(server.url)
+      .patch(`/api/people/${others.viewer.id}`)
+      .set('Cookie', admin.cookie)
+      .set('X-CSRF-Token', admin.csrf)
+      .send({ role: 'planner' });
     expect(promote.status).toBe(200);
     expect((await request(server.url).get('/api/auth/session').set('Cookie', viewer.cookie)).status).toBe(401);
     const again = await signIn(server.url, others.viewer.email);
     expect((await request(server.url).get('/api/auth/session').set('Cookie', again.cookie)).body.user.role).toBe('planner');
-    await request(server.url).patch(`/api/people/${others.viewer.id}`).set('Cookie', admin.cookie).set('X-CSRF-Token', admin.csrf).send({ active: false }).expect(200);
+    await request(server.url)
+      .patch(`/api/people/${others.viewer.id}`)
+      .set('Cookie', admin.cookie)
+      .set('X-CSRF-Token', admin.csrf)
+      .send({ active: false })
+      .expect(200);
     expect((await request(server.url).get('/api/auth/session').set('Cookie', again.cookie)).status).toBe(401);
-    expect((await request(server.url).post('/api/auth/sign-in').send({ email: others.viewer.email, password: testPassword })).status).toBe(401);
+    expect((await request(server.url).post('/api/auth/sign-in').send({ email: others.viewer.email, password: testPassword })).status).toBe(
+      401,
+    );
   });
 
   it('keeps the last active admin', async () => {
     await server.pool.query(`UPDATE users SET active = false WHERE role = 'admin' AND id <> $1`, [people.admin.id]);
     const admin = await signIn(server.url, people.admin.email);
-    const response = await request(server.url).patch(`/api/people/${people.admin.id}`).set('Cookie', admin.cookie).set('X-CSRF-Token', admin.csrf).send({ role: 'viewer' });
+    const response = await request(server.url)
+      .patch(`/api/people/${people.admin.id}`)
+      .set('Cookie', admin.cookie)
+      .set('X-CSRF-Token', admin.csrf)
+      .send({ role: 'viewer' });
     expect(response.status).toBe(409);
     expect(response.body.detail).toMatch(/last active admin/);
-    const deactivate = await request(server.url).patch(`/api/people/${people.admin.id}`).set('Cookie', admin.cookie).set('X-CSRF-Token', admin.csrf).send({ active: false });
+    const deactivate = await request(server.url)
+      .patch(`/api/people/${people.admin.id}`)
+      .set('Cookie', admin.cookie)
+      .set('X-CSRF-Token', admin.csrf)
+      .send({ active: false });
     expect(deactivate.status).toBe(409);
   });
 });
@@ -124,7 +160,11 @@ describe('sign-in', () => {
 describe('invites and password resets', () => {
   it('invites by e-mail with a single-use link that sets the password', async () => {
     const admin = await signIn(server.url, people.admin.email);
-    const invite = await request(server.url).post('/api/people').set('Cookie', admin.cookie).set('X-CSRF-Token', admin.csrf).send({ email: 'new.planner@test.example', displayName: 'New Planner', role: 'planner' });
+    const invite = await request(server.url)
+      .post('/api/people')
+      .set('Cookie', admin.cookie)
+      .set('X-CSRF-Token', admin.csrf)
+      .send({ email: 'new.planner@test.example', displayName: 'New Planner', role: 'planner' });
     expect(invite.status).toBe(201);
     expect(invite.body.invitePending).toBe(true);
     const mail = await mailTo('new.planner@test.example', 'invitation');
@@ -133,7 +173,9 @@ describe('invites and password resets', () => {
     const token = decodeURIComponent(/token=([^\s"&]+)/.exec(mail.text)![1]!);
     const newPassword = 'a fresh long password 42';
     expect((await request(server.url).post('/api/auth/set-password').send({ token, newPassword })).status).toBe(200);
-    expect((await request(server.url).post('/api/auth/sign-in').send({ email: 'new.planner@test.example', password: newPassword })).status).toBe(200);
+    expect(
+      (await request(server.url).post('/api/auth/sign-in').send({ email: 'new.planner@test.example', password: newPassword })).status,
+    ).toBe(200);
     const reuse = await request(server.url).post('/api/auth/set-password').send({ token, newPassword: 'another long password' });
     expect(reuse.status).toBe(400);
     expect(reuse.body.detail).toMatch(/expired or was already used/);
@@ -150,14 +192,22 @@ describe('invites and password resets', () => {
     expect(expired.status).toBe(400);
   });
 
-  it('changes one\'s own password and ends the other sessions', async () => {
+  it("changes one's own password and ends the other sessions", async () => {
     const others = await createPeople(server.db, '-pw');
     const first = await signIn(server.url, others.steward.email);
     const second = await signIn(server.url, others.steward.email);
-    const wrong = await request(server.url).post('/api/auth/password').set('Cookie', first.cookie).set('X-CSRF-Token', first.csrf).send({ currentPassword: 'nope', newPassword: 'brand new password 1' });
+    const wrong = await request(server.url)
+      .post('/api/auth/password')
+      .set('Cookie', first.cookie)
+      .set('X-CSRF-Token', first.csrf)
+      .send({ currentPassword: 'nope', newPassword: 'brand new password 1' });
     expect(wrong.status).toBe(400);
     expect(wrong.body.errors[0].pointer).toBe('/currentPassword');
-    const ok = await request(server.url).post('/api/auth/password').set('Cookie', first.cookie).set('X-CSRF-Token', first.csrf).send({ currentPassword: testPassword, newPassword: 'brand new password 1' });
+    const ok = await request(server.url)
+      .post('/api/auth/password')
+      .set('Cookie', first.cookie)
+      .set('X-CSRF-Token', first.csrf)
+      .send({ currentPassword: testPassword, newPassword: 'brand new password 1' });
     expect(ok.status).toBe(200);
     expect((await request(server.url).get('/api/auth/session').set('Cookie', first.cookie)).status).toBe(200);
     expect((await request(server.url).get('/api/auth/session').set('Cookie', second.cookie)).status).toBe(401);

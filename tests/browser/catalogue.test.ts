@@ -22,7 +22,12 @@ const artifacts = resolve(import.meta.dirname, '../.artifacts');
 const password = demoScenario.demoPassword;
 const account = (role: Role) => demoScenario.accounts.find((candidate) => candidate.role === role)!;
 /** Every series the demo seeds: system, zones, feeders and weather stations. */
-const allKeys = [demoScenario.system.key, ...demoScenario.zones.map((z) => z.key), ...demoScenario.feeders.map((f) => f.key), ...demoScenario.stations.map((s) => s.key)];
+const allKeys = [
+  demoScenario.system.key,
+  ...demoScenario.zones.map((z) => z.key),
+  ...demoScenario.feeders.map((f) => f.key),
+  ...demoScenario.stations.map((s) => s.key),
+];
 const north = demoScenario.zones.find((z) => z.key === 'zone-north')!;
 const northFeeders = demoScenario.feeders.filter((f) => f.zoneKey === north.key).map((f) => f.key);
 /** The feeder another system pushes a negative reading to, just after the demo history ends. */
@@ -60,7 +65,9 @@ const shownKeys = async () => (await page.locator('td.mat-column-key a').allText
 
 /** Waits until the table shows exactly `keys` (in any order unless `ordered`). */
 async function expectRows(keys: string[], ordered = false): Promise<void> {
-  await expect.poll(async () => (ordered ? shownKeys() : (await shownKeys()).sort()), { timeout: 10_000 }).toEqual(ordered ? keys : [...keys].sort());
+  await expect
+    .poll(async () => (ordered ? shownKeys() : (await shownKeys()).sort()), { timeout: 10_000 })
+    .toEqual(ordered ? keys : [...keys].sort());
 }
 
 /** The row of one series. */
@@ -140,7 +147,7 @@ describe('a steward reads the catalogue', () => {
 });
 
 describe('a steward changes the catalogue', () => {
-  it('checks a new series with the shared schema, then shows the server\'s refusal on the key field', async () => {
+  it("checks a new series with the shared schema, then shows the server's refusal on the key field", async () => {
     await page.goto(`${server.url}/series`, { waitUntil: 'networkidle' });
     await page.getByRole('button', { name: 'New series' }).click();
     const dialog = page.getByRole('dialog', { name: 'New series' });

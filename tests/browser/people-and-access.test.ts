@@ -52,13 +52,14 @@ async function signOutBrowser(): Promise<void> {
 }
 
 /** The top bar's link to the account page, named after the person and their role. */
-const accountLink = (name: string, role: Role) => page.getByRole('link', { name: new RegExp(`^Your account:\\s*${name}\\s*,\\s*${role}$`) });
+const accountLink = (name: string, role: Role) =>
+  page.getByRole('link', { name: new RegExp(`^Your account:\\s*${name}\\s*,\\s*${role}$`) });
 
 /** The main navigation. */
 const navigation = () => page.getByRole('navigation', { name: 'Sections' });
 
 describe('sign-in page', () => {
-  it('shows the API\'s message for a wrong password and keeps the person on the page', async () => {
+  it("shows the API's message for a wrong password and keeps the person on the page", async () => {
     await signOutBrowser();
     await page.goto(`${server.url}/overview`, { waitUntil: 'networkidle' });
     await page.getByLabel('E-mail address').fill(account('planner').email);
@@ -99,7 +100,8 @@ describe('each demo role sees only what it may do', () => {
       expect(await accountLink(account(role).displayName, role).isVisible()).toBe(true);
       const adminGroup = navigation().getByRole('heading', { name: 'People and settings' });
       expect(await adminGroup.count()).toBe(role === 'admin' ? 1 : 0);
-      for (const name of adminLinks) expect(await navigation().getByRole('link', { name, exact: true }).count()).toBe(role === 'admin' ? 1 : 0);
+      for (const name of adminLinks)
+        expect(await navigation().getByRole('link', { name, exact: true }).count()).toBe(role === 'admin' ? 1 : 0);
       expect(await navigation().getByRole('link', { name: 'Overview', exact: true }).count()).toBe(1);
     });
   }
@@ -191,14 +193,15 @@ describe('an admin invites someone, who signs in through the e-mailed link', () 
   it('lists the people with role, status and last sign-in, and passes axe-core', async () => {
     const table = page.getByRole('table', { name: 'People and their roles' });
     await table.waitFor();
-    for (const { displayName } of demoScenario.accounts) expect(await table.getByRole('rowheader', { name: new RegExp(displayName) }).count()).toBe(1);
+    for (const { displayName } of demoScenario.accounts)
+      expect(await table.getByRole('rowheader', { name: new RegExp(displayName) }).count()).toBe(1);
     const adminRow = table.getByRole('row', { name: new RegExp(account('admin').displayName) });
     expect(await adminRow.textContent()).toContain('Active');
     expect(await adminRow.textContent()).not.toContain('Never');
     expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
   });
 
-  it('shows the API\'s field error on the e-mail control when the address already has an account', async () => {
+  it("shows the API's field error on the e-mail control when the address already has an account", async () => {
     await page.getByRole('button', { name: 'Invite someone' }).click();
     const dialog = page.getByRole('dialog', { name: 'Invite someone' });
     await dialog.getByLabel('E-mail address').fill(account('planner').email);
@@ -242,7 +245,10 @@ describe('an admin invites someone, who signs in through the e-mailed link', () 
     const name = account('viewer').displayName;
     await page.getByRole('combobox', { name: `Role of ${name}` }).click();
     await page.getByRole('option', { name: 'planner' }).click();
-    await page.getByRole('dialog', { name: `Make ${name} a planner?` }).getByRole('button', { name: 'Change role' }).click();
+    await page
+      .getByRole('dialog', { name: `Make ${name} a planner?` })
+      .getByRole('button', { name: 'Change role' })
+      .click();
     await page.getByRole('status').getByText(`${name} is now a planner.`).waitFor();
     expect(await page.getByRole('combobox', { name: `Role of ${name}` }).textContent()).toContain('planner');
   });
@@ -251,11 +257,17 @@ describe('an admin invites someone, who signs in through the e-mailed link', () 
     const name = account('steward').displayName;
     const row = () => page.getByRole('row', { name: new RegExp(name) });
     await page.getByRole('button', { name: `Deactivate ${name}` }).click();
-    await page.getByRole('dialog', { name: `Deactivate ${name}?` }).getByRole('button', { name: 'Deactivate' }).click();
+    await page
+      .getByRole('dialog', { name: `Deactivate ${name}?` })
+      .getByRole('button', { name: 'Deactivate' })
+      .click();
     await page.getByRole('status').getByText(`${name} is deactivated.`).waitFor();
     expect(await row().textContent()).toContain('Deactivated');
     await page.getByRole('button', { name: `Reactivate ${name}` }).click();
-    await page.getByRole('dialog', { name: `Reactivate ${name}?` }).getByRole('button', { name: 'Reactivate' }).click();
+    await page
+      .getByRole('dialog', { name: `Reactivate ${name}?` })
+      .getByRole('button', { name: 'Reactivate' })
+      .click();
     await page.getByRole('status').getByText(`${name} is active again.`).waitFor();
     expect(await row().textContent()).toContain('Active');
   });
@@ -302,7 +314,7 @@ describe('an admin invites someone, who signs in through the e-mailed link', () 
     await page.getByRole('status').getByText('Password set. You can sign in now.').waitFor();
   });
 
-  it('the same link used again shows the server\'s message', async () => {
+  it("the same link used again shows the server's message", async () => {
     await page.goto(`${server.url}${inviteLink.pathname}${inviteLink.search}`, { waitUntil: 'networkidle' });
     await page.getByLabel('New password', { exact: true }).fill(newcomer.password);
     await page.getByLabel('Repeat the new password').fill(newcomer.password);
@@ -316,7 +328,7 @@ describe('an admin invites someone, who signs in through the e-mailed link', () 
     for (const name of adminLinks) expect(await navigation().getByRole('link', { name, exact: true }).count()).toBe(0);
   });
 
-  it('the account page puts the API\'s refusal of a wrong current password on that field', async () => {
+  it("the account page puts the API's refusal of a wrong current password on that field", async () => {
     await page.getByRole('link', { name: /^Your account:/ }).click();
     await page.getByRole('heading', { level: 1, name: 'Your account' }).waitFor();
     await page.getByLabel('Current password').fill('not-my-password');
@@ -377,10 +389,10 @@ describe('API tokens and the audit log', () => {
     await page.getByRole('combobox', { name: 'Action' }).click();
     await page.getByRole('option', { name: 'API tokens' }).click();
     await page.getByRole('button', { name: 'Apply' }).click();
-    await expect.poll(async () => (await table.locator('tbody tr').count())).toBe(2);
+    await expect.poll(async () => await table.locator('tbody tr').count()).toBe(2);
     expect(await table.textContent()).not.toContain('Signed in');
     await page.getByRole('button', { name: 'Clear' }).click();
-    await expect.poll(async () => (await table.locator('tbody tr').count())).toBeGreaterThan(2);
+    await expect.poll(async () => await table.locator('tbody tr').count()).toBeGreaterThan(2);
     expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
     await page.screenshot({ path: resolve(artifacts, 'audit-log.png') });
   });
@@ -390,7 +402,9 @@ describe('API tokens and the audit log', () => {
     await page.getByRole('combobox', { name: 'Person' }).click();
     await page.getByRole('option', { name: newcomer.name }).click();
     await page.getByRole('button', { name: 'Apply' }).click();
-    await expect.poll(async () => (await table.locator('tbody tr').allTextContents()).every((row) => row.includes(newcomer.name))).toBe(true);
+    await expect
+      .poll(async () => (await table.locator('tbody tr').allTextContents()).every((row) => row.includes(newcomer.name)))
+      .toBe(true);
     expect(await table.locator('tbody tr').count()).toBeGreaterThan(0);
     await page.getByRole('button', { name: 'Clear' }).click();
     // The browser runs in UTC (support/browser.ts), so "today" is the server's date too.
@@ -405,7 +419,12 @@ describe('API tokens and the audit log', () => {
   it('pages back through older entries', async () => {
     // More entries than one page holds: a burst of failed sign-ins from one documentation address.
     for (let attempt = 0; attempt < AUDIT_PAGE_SIZE + 10; attempt += 1) {
-      await recordAudit(server.db, { actor: { kind: 'anonymous' }, action: 'session.sign_in_failed', detail: { email: 'nobody@tallowmere.example' }, ip: '192.0.2.7' });
+      await recordAudit(server.db, {
+        actor: { kind: 'anonymous' },
+        action: 'session.sign_in_failed',
+        detail: { email: 'nobody@tallowmere.example' },
+        ip: '192.0.2.7',
+      });
     }
     await page.reload({ waitUntil: 'networkidle' });
     const rows = page.getByRole('table', { name: 'Audit entries, newest first' }).locator('tbody tr');

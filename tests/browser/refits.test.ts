@@ -56,13 +56,16 @@ async function expectAccessible(): Promise<void> {
 
 /** True when the chart's canvas has drawn something: enough non-transparent pixels. */
 async function chartDrawn(selector: string): Promise<boolean> {
-  return page.locator(selector).first().evaluate((canvas) => {
-    const { width, height } = canvas as HTMLCanvasElement;
-    const pixels = (canvas as HTMLCanvasElement).getContext('2d')!.getImageData(0, 0, width, height).data;
-    let painted = 0;
-    for (let i = 3; i < pixels.length; i += 4) if (pixels[i]! > 0) painted++;
-    return painted > (width * height) / 50;
-  });
+  return page
+    .locator(selector)
+    .first()
+    .evaluate((canvas) => {
+      const { width, height } = canvas as HTMLCanvasElement;
+      const pixels = (canvas as HTMLCanvasElement).getContext('2d')!.getImageData(0, 0, width, height).data;
+      let painted = 0;
+      for (let i = 3; i < pixels.length; i += 4) if (pixels[i]! > 0) painted++;
+      return painted > (width * height) / 50;
+    });
 }
 
 /** Reads JSON through the page's own session. */
@@ -119,7 +122,9 @@ describe('a planner refits a zone and approves a feeder', () => {
       const row = page.getByRole('row').filter({ has: page.getByRole('link', { name: series.seriesName, exact: true }) });
       await expect.poll(() => row.textContent(), { timeout: 5_000 }).toContain('done');
     }
-    await expect.poll(() => page.locator('tr[data-run] .counts').first().textContent()).toBe(`${run.counts.total} of ${run.counts.total} done`);
+    await expect
+      .poll(() => page.locator('tr[data-run] .counts').first().textContent())
+      .toBe(`${run.counts.total} of ${run.counts.total} done`);
     await page.screenshot({ path: resolve(artifacts, 'refits-finished.png') });
     await expectAccessible();
   }, 300_000);
@@ -131,7 +136,9 @@ describe('a planner refits a zone and approves a feeder', () => {
     await page.getByRole('img', { name: /^Forecast fan chart of/ }).waitFor();
     await page.getByText('Draft peak this week').waitFor();
     await page.getByRole('heading', { name: 'Model', exact: true }).waitFor();
-    await expect.poll(() => page.locator('lw-model-card').textContent()).toMatch(/Ljung-Box over \d+ lags: Q = [\d.,]+, df = \d+, p-value =/);
+    await expect
+      .poll(() => page.locator('lw-model-card').textContent())
+      .toMatch(/Ljung-Box over \d+ lags: Q = [\d.,]+, df = \d+, p-value =/);
     await page.waitForTimeout(500);
     expect(pageErrors).toEqual([]);
     await expect.poll(() => chartDrawn('lw-forecast-chart canvas')).toBe(true);
@@ -179,7 +186,9 @@ describe('a planner refits a zone and approves a feeder', () => {
     const download = await downloadPromise;
     const csv = await readFile((await download.path())!, 'utf8');
     const [header, ...rows] = csv.trim().split(/\r?\n/);
-    expect(header).toBe('series_id,series_key,series_name,level,unit,version_id,approved_at,interval_start,interval_end,time_zone,mean,model_mean,adjusted,lower_80,upper_80,lower_95,upper_95');
+    expect(header).toBe(
+      'series_id,series_key,series_name,level,unit,version_id,approved_at,interval_start,interval_end,time_zone,mean,model_mean,adjusted,lower_80,upper_80,lower_95,upper_95',
+    );
     expect(rows).toHaveLength(draft.points.length);
     expect(rows.filter((row) => row.includes(',true,'))).toHaveLength(24);
     expect(csv).toContain(feeder.key);
@@ -194,7 +203,12 @@ describe('a planner refits a zone and approves a feeder', () => {
     await page.getByRole('button', { name: "Review the group's drafts" }).click();
     const zoneId = Number(new URL(page.url()).pathname.split('/').at(-1));
     const csrf = (await page.context().cookies()).find((cookie) => cookie.name === 'lw_csrf')!.value;
-    const preview = (await (await page.request.post(`${server.url}/api/forecast-approvals/preview`, { data: { parentId: zoneId }, headers: { 'X-CSRF-Token': csrf } })).json()) as { versionIds: number[] };
+    const preview = (await (
+      await page.request.post(`${server.url}/api/forecast-approvals/preview`, {
+        data: { parentId: zoneId },
+        headers: { 'X-CSRF-Token': csrf },
+      })
+    ).json()) as { versionIds: number[] };
     // The feeder approved above has no draft left; the zone and its other feeders wait.
     expect(preview.versionIds).toHaveLength(4);
     await page.getByRole('button', { name: 'Approve 4 drafts' }).waitFor();
@@ -214,10 +228,15 @@ describe('a planner refits a zone and approves a feeder', () => {
     // Refit the system series too (through the API, as a second planner action), so it has a draft.
     const systemId = (await api<{ items: { id: number }[] }>('/api/series?level=system&kind=load')).items[0]!.id;
     const csrf = (await page.context().cookies()).find((cookie) => cookie.name === 'lw_csrf')!.value;
-    const started = await page.request.post(`${server.url}/api/refits`, { data: { scope: { kind: 'series', seriesIds: [systemId] } }, headers: { 'X-CSRF-Token': csrf } });
+    const started = await page.request.post(`${server.url}/api/refits`, {
+      data: { scope: { kind: 'series', seriesIds: [systemId] } },
+      headers: { 'X-CSRF-Token': csrf },
+    });
     expect(started.status()).toBe(202);
     const systemRun = (await started.json()) as { id: number };
-    await expect.poll(async () => (await api<RefitRunDetail>(`/api/refits/${systemRun.id}`)).state, { timeout: 120_000, interval: 500 }).toBe('finished');
+    await expect
+      .poll(async () => (await api<RefitRunDetail>(`/api/refits/${systemRun.id}`)).state, { timeout: 120_000, interval: 500 })
+      .toBe('finished');
 
     await page.goto(`${server.url}/overview`, { waitUntil: 'networkidle' });
     await page.getByText('Last run: Finished, all done').waitFor();

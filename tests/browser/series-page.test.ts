@@ -7,7 +7,14 @@
  */
 import { mkdir } from 'node:fs/promises';
 import { resolve } from 'node:path';
-import { type ForecastReview, type ModelSettings, type RefitRunDetail, type Role, type SeriesDetail, forecastExportPath } from '@loadwright/contracts';
+import {
+  type ForecastReview,
+  type ModelSettings,
+  type RefitRunDetail,
+  type Role,
+  type SeriesDetail,
+  forecastExportPath,
+} from '@loadwright/contracts';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoScenario } from '../../fixtures/demo/scenario';
@@ -35,7 +42,12 @@ async function api<T>(path: string, init: RequestInit = {}): Promise<T> {
   const planner = await signIn(server.url, account('planner').email, password);
   const response = await fetch(`${server.url}${path}`, {
     ...init,
-    headers: { cookie: planner.cookie.join('; '), 'x-csrf-token': planner.csrf, 'content-type': 'application/json', ...(init.headers ?? {}) },
+    headers: {
+      cookie: planner.cookie.join('; '),
+      'x-csrf-token': planner.csrf,
+      'content-type': 'application/json',
+      ...(init.headers ?? {}),
+    },
   });
   if (!response.ok) throw new Error(`${path}: ${response.status} ${await response.text()}`);
   return (await response.json()) as T;
@@ -46,7 +58,10 @@ beforeAll(async () => {
   server = await startTestServer();
   await seedDemo(server.databaseUrl);
   series = await api<SeriesDetail>(`/api/series/${feeder.key}`);
-  const run = await api<{ id: number }>('/api/refits', { method: 'POST', body: JSON.stringify({ scope: { kind: 'series', seriesIds: [series.id] } }) });
+  const run = await api<{ id: number }>('/api/refits', {
+    method: 'POST',
+    body: JSON.stringify({ scope: { kind: 'series', seriesIds: [series.id] } }),
+  });
   const deadline = Date.now() + 120_000;
   while ((await api<RefitRunDetail>(`/api/refits/${run.id}`)).state !== 'finished') {
     if (Date.now() > deadline) throw new Error('the refit did not finish in 2 minutes');

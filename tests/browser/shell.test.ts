@@ -95,7 +95,11 @@ describe('web shell with the database and the worker running', () => {
     expect(fonts).toMatchObject({ textFontReady: true, iconFontReady: true, bodyFamily: 'Source Sans 3' });
     expect(fonts.loadedFamilies).toEqual(expect.arrayContaining(['Source Sans 3', 'Material Symbols Outlined']));
     // A ligature that failed to render shows as a word many times wider than the 24 px glyph.
-    const iconWidth = await page.getByRole('navigation').locator('mat-icon').first().evaluate((icon) => icon.getBoundingClientRect().width);
+    const iconWidth = await page
+      .getByRole('navigation')
+      .locator('mat-icon')
+      .first()
+      .evaluate((icon) => icon.getBoundingClientRect().width);
     expect(iconWidth).toBeLessThanOrEqual(28);
     await page.screenshot({ path: resolve(artifacts, 'overview-wide.png') });
   });

@@ -82,7 +82,8 @@ describe('a steward uploads a day of feeder readings', () => {
     await writeFile(file, feederDay());
     const uploadContentTypes: string[] = [];
     page.on('request', (request) => {
-      if (request.url().endsWith('/api/uploads') && request.method() === 'POST') uploadContentTypes.push(request.headers()['content-type'] ?? '');
+      if (request.url().endsWith('/api/uploads') && request.method() === 'POST')
+        uploadContentTypes.push(request.headers()['content-type'] ?? '');
     });
     await picker().setInputFiles(file);
     await page.waitForURL((url) => /^\/uploads\/\d+$/.test(url.pathname), { timeout: 15_000 });
@@ -103,7 +104,9 @@ describe('a steward uploads a day of feeder readings', () => {
     expect(await page.getByRole('combobox', { name: 'Series key column' }).textContent()).toContain('feeder');
     expect(await page.getByRole('combobox', { name: 'Unit of the values' }).textContent()).toContain('kW (mean demand)');
     expect(await page.getByLabel('Time zone of local times').inputValue()).toBe(demoScenario.organisation.timeZone);
-    expect(await page.getByRole('combobox', { name: 'Repeated hour when clocks fall back' }).textContent()).toContain('Drop readings in that hour');
+    expect(await page.getByRole('combobox', { name: 'Repeated hour when clocks fall back' }).textContent()).toContain(
+      'Drop readings in that hour',
+    );
     expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
     await page.screenshot({ path: resolve(artifacts, 'upload-preview.png') });
     await page.getByRole('heading', { level: 2, name: 'Column mapping' }).evaluate((heading) => heading.scrollIntoView({ block: 'start' }));
@@ -144,12 +147,20 @@ describe('a steward uploads a day of feeder readings', () => {
       await section.waitFor();
       expect(await section.getByRole('row').count()).toBeGreaterThan(1);
     }
-    const spikeRow = page.getByRole('region', { name: /Spikes$/ }).getByRole('row').nth(1);
+    const spikeRow = page
+      .getByRole('region', { name: /Spikes$/ })
+      .getByRole('row')
+      .nth(1);
     expect(await spikeRow.textContent()).toContain(feeder.key);
     expect(await spikeRow.textContent()).toContain(new Date(firstHour + spikeHour * hour).toISOString().slice(11, 16));
-    const negativeRow = page.getByRole('region', { name: /Negative values$/ }).getByRole('row').nth(1);
+    const negativeRow = page
+      .getByRole('region', { name: /Negative values$/ })
+      .getByRole('row')
+      .nth(1);
     expect(await negativeRow.textContent()).toContain('-42');
-    expect(await page.getByRole('term').filter({ hasText: 'New readings stored' }).locator('xpath=..').textContent()).toContain(String(detail.upload.rowsImported));
+    expect(await page.getByRole('term').filter({ hasText: 'New readings stored' }).locator('xpath=..').textContent()).toContain(
+      String(detail.upload.rowsImported),
+    );
     const download = page.getByRole('link', { name: 'Download findings (CSV)' });
     expect(await download.getAttribute('href')).toBe(`/api/uploads/${uploadId}/report.csv`);
     const csv = await page.request.get(`${server.url}/api/uploads/${uploadId}/report.csv`);
@@ -178,13 +189,16 @@ describe('a steward uploads a day of feeder readings', () => {
     expect(await row.textContent()).toContain('Imported');
   });
 
-  it('shows the server\'s message for a binary file renamed .csv, and stores nothing from it', async () => {
+  it("shows the server's message for a binary file renamed .csv, and stores nothing from it", async () => {
     // Dropped this time, as a file dragged from the desktop would be.
-    const dataTransfer = await page.evaluateHandle((bytes) => {
-      const transfer = new DataTransfer();
-      transfer.items.add(new File([new Uint8Array(bytes)], 'meter-export.csv', { type: 'text/csv' }));
-      return transfer;
-    }, [0x4c, 0x57, 0x01, 0x00, 0xff, 0x13, 0x37, 0x00, 0x42]);
+    const dataTransfer = await page.evaluateHandle(
+      (bytes) => {
+        const transfer = new DataTransfer();
+        transfer.items.add(new File([new Uint8Array(bytes)], 'meter-export.csv', { type: 'text/csv' }));
+        return transfer;
+      },
+      [0x4c, 0x57, 0x01, 0x00, 0xff, 0x13, 0x37, 0x00, 0x42],
+    );
     await page.getByRole('region', { name: 'Drop a CSV file here' }).dispatchEvent('drop', { dataTransfer });
     const alert = page.getByRole('alert').filter({ hasText: 'was not taken in' });
     await alert.waitFor({ timeout: 15_000 });
@@ -206,9 +220,14 @@ describe('a steward uploads a day of feeder readings', () => {
 });
 
 describe('a large file on a slow connection', () => {
-  it('shows how much of the file has gone, then the server\'s answer', async () => {
+  it("shows how much of the file has gone, then the server's answer", async () => {
     const cdp = await page.context().newCDPSession(page);
-    await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 20, downloadThroughput: -1, uploadThroughput: 96 * 1024 });
+    await cdp.send('Network.emulateNetworkConditions', {
+      offline: false,
+      latency: 20,
+      downloadThroughput: -1,
+      uploadThroughput: 96 * 1024,
+    });
     const file = join(folder, 'readings-one-column.csv');
     // 300 kB of one column: Loadwright refuses it for its single column once it has arrived.
     await writeFile(file, `reading\n${'1234.5\n'.repeat(43_000)}`);
@@ -223,7 +242,9 @@ describe('a large file on a slow connection', () => {
       { timeout: 15_000, polling: 50 },
     );
     expect(await seen.jsonValue()).toBeGreaterThan(0);
-    expect(await page.getByRole('status').filter({ hasText: 'Sending…' }).textContent()).toMatch(/readings-one-column\.csv\s*Sending… \d+ % of 294 kB/);
+    expect(await page.getByRole('status').filter({ hasText: 'Sending…' }).textContent()).toMatch(
+      /readings-one-column\.csv\s*Sending… \d+ % of 294 kB/,
+    );
     await page.screenshot({ path: resolve(artifacts, 'upload-transfer.png') });
     const alert = page.getByRole('alert').filter({ hasText: 'readings-one-column.csv was not taken in' });
     await alert.waitFor({ timeout: 30_000 });

@@ -154,9 +154,7 @@ describe('constraints of the core schema', () => {
   it('keep one reading per series and instant, and let intake skip exact repeats', async () => {
     const ts = new Date('2026-01-05T10:00:00Z');
     await handle.db.insert(schema.observations).values({ seriesId: loadSeriesId, ts, value: 4.2 });
-    expect(
-      await sqlState(() => handle.db.insert(schema.observations).values({ seriesId: loadSeriesId, ts, value: 4.3 })),
-    ).toBe('23505');
+    expect(await sqlState(() => handle.db.insert(schema.observations).values({ seriesId: loadSeriesId, ts, value: 4.3 }))).toBe('23505');
     await handle.db.insert(schema.observations).values({ seriesId: loadSeriesId, ts, value: 4.2 }).onConflictDoNothing();
     const { rows } = await client.query('select value from observations where series_id = $1 and ts = $2', [loadSeriesId, ts]);
     expect(rows).toEqual([{ value: 4.2 }]);
@@ -164,7 +162,10 @@ describe('constraints of the core schema', () => {
 
   it('check the series and upload of readings once per statement, as foreign keys would', async () => {
     const ts = new Date('2026-01-06T00:00:00Z');
-    const missingSeries = [{ seriesId: loadSeriesId, ts, value: 1 }, { seriesId: 999_999, ts, value: 2 }];
+    const missingSeries = [
+      { seriesId: loadSeriesId, ts, value: 1 },
+      { seriesId: 999_999, ts, value: 2 },
+    ];
     expect(await sqlState(() => handle.db.insert(schema.observations).values(missingSeries))).toBe('23503');
     expect(
       await sqlState(() => handle.db.insert(schema.observations).values({ seriesId: loadSeriesId, ts, value: 1, uploadId: 999_999 })),
@@ -195,9 +196,9 @@ describe('constraints of the core schema', () => {
     expect(
       await sqlState(() => client.query(`insert into users (email, display_name, role) values ('a@example.test', 'A', 'superuser')`)),
     ).toBe('22P02');
-    expect(
-      await sqlState(() => client.query(`update forecast_versions set state = 'pending' where series_id = $1`, [loadSeriesId])),
-    ).toBe('22P02');
+    expect(await sqlState(() => client.query(`update forecast_versions set state = 'pending' where series_id = $1`, [loadSeriesId]))).toBe(
+      '22P02',
+    );
     expect(
       await sqlState(() =>
         client.query(`insert into series (key, name, kind, level, unit, time_zone, interval_minutes)
@@ -208,9 +209,7 @@ describe('constraints of the core schema', () => {
 
   it('treat e-mail addresses as equal regardless of case', async () => {
     await handle.db.insert(schema.users).values({ email: 'Planner@Example.test', displayName: 'P', role: 'planner' });
-    expect(
-      await sqlState(() => handle.db.insert(schema.users).values({ email: 'planner@example.TEST', displayName: 'Q' })),
-    ).toBe('23505');
+    expect(await sqlState(() => handle.db.insert(schema.users).values({ email: 'planner@example.TEST', displayName: 'Q' }))).toBe('23505');
   });
 
   it('hold exactly one organisation row', async () => {
@@ -263,10 +262,7 @@ describe('forecast versions once they leave draft', () => {
 
   /** A draft with three hourly points, as a refit writes it. */
   async function draftWithPoints(origin: Date): Promise<number> {
-    const [version] = await handle.db
-      .insert(schema.forecastVersions)
-      .values({ seriesId, fitId, origin, horizonHours: 3 })
-      .returning();
+    const [version] = await handle.db.insert(schema.forecastVersions).values({ seriesId, fitId, origin, horizonHours: 3 }).returning();
     await handle.db.insert(schema.forecastPoints).values(
       [0, 1, 2].map((h) => ({
         versionId: version!.id,
@@ -320,15 +316,20 @@ describe('forecast versions once they leave draft', () => {
     const id = rows[0].id as number;
     await handle.pool.query(`update forecast_versions set state = 'superseded', superseded_at = now() where id = $1`, [id]);
     expect(await sqlState(() => handle.pool.query(`update forecast_versions set state = 'approved' where id = $1`, [id]))).toBe('55000');
-    expect(await sqlState(() => handle.pool.query(`update forecast_versions set superseded_at = now() - interval '1 day' where id = $1`, [id]))).toBe('55000');
+    expect(
+      await sqlState(() => handle.pool.query(`update forecast_versions set superseded_at = now() - interval '1 day' where id = $1`, [id])),
+    ).toBe('55000');
   });
 
   it('still let a deleted series take its versions, points, adjustments and readings with it', async () => {
     await draftWithPoints(new Date('2026-02-02T00:00:00Z'));
     await handle.db.insert(schema.observations).values({ seriesId, ts: new Date('2026-01-31T23:00:00Z'), value: 7 });
-    await handle.db.insert(schema.observationRevisions).values({ seriesId, ts: new Date('2026-01-31T23:00:00Z'), value: 6, quality: 0, revision: 1 });
+    await handle.db
+      .insert(schema.observationRevisions)
+      .values({ seriesId, ts: new Date('2026-01-31T23:00:00Z'), value: 6, quality: 0, revision: 1 });
     await handle.pool.query('delete from series where id = $1', [seriesId]);
-    const { rows } = await handle.pool.query(`select (select count(*) from forecast_versions)::int as v, (select count(*) from forecast_points)::int as p,
+    const { rows } = await handle.pool
+      .query(`select (select count(*) from forecast_versions)::int as v, (select count(*) from forecast_points)::int as p,
       (select count(*) from observations)::int as o, (select count(*) from observation_revisions)::int as r`);
     expect(rows[0]).toEqual({ v: 0, p: 0, o: 0, r: 0 });
   });

@@ -26,7 +26,10 @@ afterAll(() => t.server.close());
 
 /** State of each version of a series, by id. */
 async function states(seriesId: number): Promise<Map<number, string>> {
-  const rows = await t.server.db.select({ id: forecastVersions.id, state: forecastVersions.state }).from(forecastVersions).where(eq(forecastVersions.seriesId, seriesId));
+  const rows = await t.server.db
+    .select({ id: forecastVersions.id, state: forecastVersions.state })
+    .from(forecastVersions)
+    .where(eq(forecastVersions.seriesId, seriesId));
   return new Map(rows.map((row) => [row.id, row.state]));
 }
 const approvedCount = async (seriesId: number) => [...(await states(seriesId)).values()].filter((state) => state === 'approved').length;
@@ -51,7 +54,10 @@ describe('approving one draft', () => {
     expect(current).toMatchObject({ state: 'approved', approvedById: t.planner.userId, supersededAt: null });
     expect(current!.approvedAt!.toISOString()).toBe(secondApproval.body.approvedAt);
 
-    const audit = await t.server.db.select().from(auditLog).where(and(eq(auditLog.action, 'forecast.approved'), eq(auditLog.targetId, String(second))));
+    const audit = await t.server.db
+      .select()
+      .from(auditLog)
+      .where(and(eq(auditLog.action, 'forecast.approved'), eq(auditLog.targetId, String(second))));
     expect(audit).toHaveLength(1);
     expect(audit[0]).toMatchObject({ actorUserId: t.planner.userId, targetType: 'forecast_version' });
     expect(audit[0]!.detail).toMatchObject({ seriesId, supersededVersionId: first });
@@ -60,19 +66,39 @@ describe('approving one draft', () => {
   it('keeps approved versions immutable: no second approval, no adjustment added or removed, no point changed', async () => {
     const seriesId = t.seriesId('fdr-n2');
     const draft = await writeDraftVersion(t.server.db, { seriesId, origin });
-    const adjustment = await planner.post(`/api/forecast-versions/${draft}/adjustments`, { from: origin.toISOString(), to: new Date(origin.getTime() + 3 * 3_600_000).toISOString(), kind: 'shift', amount: -40, reason: 'Planned feeder outage' });
+    const adjustment = await planner.post(`/api/forecast-versions/${draft}/adjustments`, {
+      from: origin.toISOString(),
+      to: new Date(origin.getTime() + 3 * 3_600_000).toISOString(),
+      kind: 'shift',
+      amount: -40,
+      reason: 'Planned feeder outage',
+    });
     expect(adjustment.status).toBe(201);
     expect((await planner.post(`/api/forecast-versions/${draft}/approve`)).status).toBe(200);
 
     const again = await planner.post(`/api/forecast-versions/${draft}/approve`);
     expect(again.status).toBe(409);
     expect(again.body.detail).toContain('approved already');
-    expect((await planner.post(`/api/forecast-versions/${draft}/adjustments`, { from: origin.toISOString(), to: new Date(origin.getTime() + 3_600_000).toISOString(), kind: 'scale', amount: 2, reason: 'After the fact' })).status).toBe(409);
+    expect(
+      (
+        await planner.post(`/api/forecast-versions/${draft}/adjustments`, {
+          from: origin.toISOString(),
+          to: new Date(origin.getTime() + 3_600_000).toISOString(),
+          kind: 'scale',
+          amount: 2,
+          reason: 'After the fact',
+        })
+      ).status,
+    ).toBe(409);
     expect((await planner.delete(`/api/forecast-versions/${draft}/adjustments/${adjustment.body.id}`)).status).toBe(409);
     expect(await t.server.db.select().from(forecastAdjustments).where(eq(forecastAdjustments.versionId, draft))).toHaveLength(1);
     // The database itself refuses, whoever writes.
-    await expect(t.server.pool.query('update forecast_points set mean = mean + 1 where version_id = $1', [draft])).rejects.toMatchObject({ code: '55000' });
-    await expect(t.server.pool.query('update forecast_versions set origin = origin + interval \'1 hour\' where id = $1', [draft])).rejects.toMatchObject({ code: '55000' });
+    await expect(t.server.pool.query('update forecast_points set mean = mean + 1 where version_id = $1', [draft])).rejects.toMatchObject({
+      code: '55000',
+    });
+    await expect(
+      t.server.pool.query("update forecast_versions set origin = origin + interval '1 hour' where id = $1", [draft]),
+    ).rejects.toMatchObject({ code: '55000' });
   });
 
   it('refuses a draft that a newer refit replaced, and unknown versions', async () => {
@@ -91,7 +117,9 @@ describe('approving one draft', () => {
     const draft = await writeDraftVersion(t.server.db, { seriesId, origin });
     expect((await asBrowser(t.server.url, t.viewer).post(`/api/forecast-versions/${draft}/approve`)).status).toBe(403);
     expect((await asBrowser(t.server.url, t.steward).post(`/api/forecast-versions/${draft}/approve`)).status).toBe(403);
-    const byToken = await request(t.server.url).post(`/api/forecast-versions/${draft}/approve`).set('Authorization', `Bearer ${t.readToken}`);
+    const byToken = await request(t.server.url)
+      .post(`/api/forecast-versions/${draft}/approve`)
+      .set('Authorization', `Bearer ${t.readToken}`);
     expect(byToken.status).toBe(403);
     expect((await states(seriesId)).get(draft)).toBe('draft');
     expect((await admin.post(`/api/forecast-versions/${draft}/approve`)).status).toBe(200);
@@ -103,7 +131,10 @@ describe('races', () => {
     const seriesId = t.seriesId('fdr-c1');
     for (let round = 0; round < 5; round++) {
       const draft = await writeDraftVersion(t.server.db, { seriesId, origin: new Date(origin.getTime() + round * 3_600_000) });
-      const responses = await Promise.all([planner.post(`/api/forecast-versions/${draft}/approve`), admin.post(`/api/forecast-versions/${draft}/approve`)]);
+      const responses = await Promise.all([
+        planner.post(`/api/forecast-versions/${draft}/approve`),
+        admin.post(`/api/forecast-versions/${draft}/approve`),
+      ]);
       expect(responses.map((r) => r.status).sort()).toEqual([200, 409]);
       expect(await approvedCount(seriesId)).toBe(1);
       expect((await states(seriesId)).get(draft)).toBe('approved');
@@ -117,7 +148,9 @@ describe('races', () => {
       // A planner opened the older draft; the refit writes a newer one while a colleague approves that.
       const [oldApproval, [newer, newApproval]] = await Promise.all([
         planner.post(`/api/forecast-versions/${older}/approve`),
-        writeDraftVersion(t.server.db, { seriesId, origin: new Date(origin.getTime() + (round + 10) * 3_600_000) }).then(async (id) => [id, await admin.post(`/api/forecast-versions/${id}/approve`)] as const),
+        writeDraftVersion(t.server.db, { seriesId, origin: new Date(origin.getTime() + (round + 10) * 3_600_000) }).then(
+          async (id) => [id, await admin.post(`/api/forecast-versions/${id}/approve`)] as const,
+        ),
       ]);
       const byState = await states(seriesId);
       expect([...byState.values()].filter((state) => state === 'approved')).toHaveLength(1);
@@ -137,13 +170,17 @@ describe('races', () => {
     for (let round = 0; round < 4; round++) {
       const draftA = await writeDraftVersion(t.server.db, { seriesId: a, origin: new Date(origin.getTime() + round * 3_600_000) });
       const draftB = await writeDraftVersion(t.server.db, { seriesId: b, origin: new Date(origin.getTime() + round * 3_600_000) });
-      const [single, bulk] = await Promise.all([planner.post(`/api/forecast-versions/${draftA}/approve`), admin.post('/api/forecast-approvals', { versionIds: [draftB, draftA] })]);
+      const [single, bulk] = await Promise.all([
+        planner.post(`/api/forecast-versions/${draftA}/approve`),
+        admin.post('/api/forecast-approvals', { versionIds: [draftB, draftA] }),
+      ]);
       expect([single.status, bulk.status].sort()).toEqual([200, 409]);
       expect(await approvedCount(a)).toBe(1);
       expect((await states(a)).get(draftA)).toBe('approved');
       // All or none: when the bulk approval lost, draftB is still a draft.
       expect((await states(b)).get(draftB)).toBe(bulk.status === 200 ? 'approved' : 'draft');
-      if (bulk.status === 409) expect(bulk.body.errors).toEqual([{ pointer: '/versionIds/1', detail: `Forecast version ${draftA} is approved already.` }]);
+      if (bulk.status === 409)
+        expect(bulk.body.errors).toEqual([{ pointer: '/versionIds/1', detail: `Forecast version ${draftA} is approved already.` }]);
     }
   });
 });
@@ -164,7 +201,12 @@ describe('bulk approval of a group', () => {
     drafts = new Map();
     for (const key of ['zone-south', 'fdr-s1', 'fdr-s2']) {
       // A day later, 10 % higher, and peaking at hour 40 of its own horizon.
-      const id = await writeDraftVersion(t.server.db, { seriesId: t.seriesId(key), origin: new Date(origin.getTime() + 86_400_000), hours: week, mean: (i) => 110 + (i === 40 ? 90 : 0) });
+      const id = await writeDraftVersion(t.server.db, {
+        seriesId: t.seriesId(key),
+        origin: new Date(origin.getTime() + 86_400_000),
+        hours: week,
+        mean: (i) => 110 + (i === 40 ? 90 : 0),
+      });
       drafts.set(key, id);
     }
   });
@@ -200,7 +242,9 @@ describe('bulk approval of a group', () => {
     expect(listed.body.versionIds).toEqual([drafts.get('fdr-s2')]);
     expect((await planner.post('/api/forecast-approvals/preview', { seriesIds: [999999] })).status).toBe(404);
     expect((await planner.post('/api/forecast-approvals/preview', {})).status).toBe(400);
-    expect((await asBrowser(t.server.url, t.viewer).post('/api/forecast-approvals/preview', { parentId: t.seriesId('zone-south') })).status).toBe(403);
+    expect(
+      (await asBrowser(t.server.url, t.viewer).post('/api/forecast-approvals/preview', { parentId: t.seriesId('zone-south') })).status,
+    ).toBe(403);
   });
 
   it('refuses the whole batch when one version is stale, approving nothing', async () => {
@@ -208,13 +252,20 @@ describe('bulk approval of a group', () => {
     const ids = [...drafts.values()];
     const response = await planner.post('/api/forecast-approvals', { versionIds: [...ids, staleId] });
     expect(response.status).toBe(409);
-    expect(response.body.errors).toEqual([{ pointer: `/versionIds/${ids.length}`, detail: `Forecast version ${staleId} is approved already.` }]);
-    const rows = await t.server.db.select({ state: forecastVersions.state }).from(forecastVersions).where(inArray(forecastVersions.id, ids));
+    expect(response.body.errors).toEqual([
+      { pointer: `/versionIds/${ids.length}`, detail: `Forecast version ${staleId} is approved already.` },
+    ]);
+    const rows = await t.server.db
+      .select({ state: forecastVersions.state })
+      .from(forecastVersions)
+      .where(inArray(forecastVersions.id, ids));
     expect(rows.every((row) => row.state === 'draft')).toBe(true);
   });
 
   it('approves the previewed drafts in one transaction, superseding the approved ones', async () => {
-    const preview = approvalPreviewSchema.parse((await planner.post('/api/forecast-approvals/preview', { parentId: t.seriesId('zone-south') })).body);
+    const preview = approvalPreviewSchema.parse(
+      (await planner.post('/api/forecast-approvals/preview', { parentId: t.seriesId('zone-south') })).body,
+    );
     const response = await planner.post('/api/forecast-approvals', { versionIds: preview.versionIds });
     expect(response.status).toBe(200);
     const result = approvalResultSchema.parse(response.body);
@@ -222,13 +273,18 @@ describe('bulk approval of a group', () => {
     const bySeries = new Map(result.approved.map((entry) => [entry.seriesId, entry]));
     expect(bySeries.get(t.seriesId('zone-south'))!.supersededVersionId).toBe(previouslyApproved.get('zone-south'));
     expect(bySeries.get(t.seriesId('fdr-s2'))!.supersededVersionId).toBeNull();
-    const rows = await t.server.db.select().from(forecastVersions).where(inArray(forecastVersions.id, [...drafts.values(), ...previouslyApproved.values()]));
+    const rows = await t.server.db
+      .select()
+      .from(forecastVersions)
+      .where(inArray(forecastVersions.id, [...drafts.values(), ...previouslyApproved.values()]));
     for (const row of rows) {
       const expected = [...drafts.values()].includes(row.id) ? 'approved' : 'superseded';
       expect(row.state).toBe(expected);
     }
     // One approval instant for the whole batch.
-    expect(new Set(rows.filter((row) => row.state === 'approved').map((row) => row.approvedAt!.toISOString()))).toEqual(new Set([result.approvedAt]));
+    expect(new Set(rows.filter((row) => row.state === 'approved').map((row) => row.approvedAt!.toISOString()))).toEqual(
+      new Set([result.approvedAt]),
+    );
 
     const again = await planner.post('/api/forecast-approvals', { versionIds: preview.versionIds });
     expect(again.status).toBe(409);

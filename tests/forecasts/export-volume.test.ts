@@ -27,7 +27,9 @@ beforeAll(async () => {
   await server.db.insert(apiTokens).values({ name: 'volume', prefix: secret.prefix, secretHash: secret.hash, scope: 'read' });
   token = secret.token;
   planner = await signIn(server.url, (await createPeople(server.db)).planner.email);
-  const root = await server.pool.query<{ id: number }>(`insert into series (key, name, kind, level, unit, time_zone) values ('vol-root', 'Volume system', 'load', 'system', 'MW', 'America/Chicago') returning id`);
+  const root = await server.pool.query<{ id: number }>(
+    `insert into series (key, name, kind, level, unit, time_zone) values ('vol-root', 'Volume system', 'load', 'system', 'MW', 'America/Chicago') returning id`,
+  );
   rootId = root.rows[0]!.id;
   // Feeders, fits, drafts and points written set-wise, as a nightly run would leave them.
   await server.pool.query(`
@@ -96,7 +98,9 @@ it(`streams ${seriesCount} series × ${hours} h as CSV with the server's heap st
   clearInterval(sampler);
   const seconds = (performance.now() - started) / 1000;
   const rows = lines - 1;
-  console.info(`export: ${rows} rows, ${(bytes / 1e6).toFixed(1)} MB in ${seconds.toFixed(2)} s (${Math.round(rows / seconds)} rows/s), ${chunks} chunks, live heap growth peak ${((heapPeak - heapBefore) / 1e6).toFixed(1)} MB`);
+  console.info(
+    `export: ${rows} rows, ${(bytes / 1e6).toFixed(1)} MB in ${seconds.toFixed(2)} s (${Math.round(rows / seconds)} rows/s), ${chunks} chunks, live heap growth peak ${((heapPeak - heapBefore) / 1e6).toFixed(1)} MB`,
+  );
   expect(rows).toBe(seriesCount * hours);
   expect(chunks).toBeGreaterThan(100);
   // Server and client share one process; what either holds at any moment stays a small part of the file.

@@ -28,7 +28,13 @@ beforeAll(async () => {
   const zone = t.seriesId('zone-central');
   await t.server.db.update(series).set({ name: formulaName }).where(eq(series.id, zone));
   zoneVersion = await writeDraftVersion(t.server.db, { seriesId: zone, origin, hours: 48, mean: (i) => 50 + i, stdError: () => 1 });
-  const adjusted = await planner.post(`/api/forecast-versions/${zoneVersion}/adjustments`, { from: '2026-11-01T06:00:00Z', to: '2026-11-01T08:00:00Z', kind: 'scale', amount: 1.2, reason: 'Mill night shift' });
+  const adjusted = await planner.post(`/api/forecast-versions/${zoneVersion}/adjustments`, {
+    from: '2026-11-01T06:00:00Z',
+    to: '2026-11-01T08:00:00Z',
+    kind: 'scale',
+    amount: 1.2,
+    reason: 'Mill night shift',
+  });
   expect(adjusted.status).toBe(201);
   expect((await planner.post(`/api/forecast-versions/${zoneVersion}/approve`)).status).toBe(200);
   feederVersion = await writeDraftVersion(t.server.db, { seriesId: t.seriesId('fdr-c1'), origin, hours: 24, mean: () => -1.5 });
@@ -48,10 +54,23 @@ describe('GET /api/exports/forecasts.csv', () => {
     expect(response.headers['transfer-encoding']).toBe('chunked');
     expect(response.headers['content-length']).toBeUndefined();
     const text = response.text;
-    expect(text.split('\r\n')[0]).toBe('series_id,series_key,series_name,level,unit,version_id,approved_at,interval_start,interval_end,time_zone,mean,model_mean,adjusted,lower_80,upper_80,lower_95,upper_95');
+    expect(text.split('\r\n')[0]).toBe(
+      'series_id,series_key,series_name,level,unit,version_id,approved_at,interval_start,interval_end,time_zone,mean,model_mean,adjusted,lower_80,upper_80,lower_95,upper_95',
+    );
     const rows = csvRows(text);
     expect(rows).toHaveLength(48);
-    expect(rows[0]).toMatchObject({ series_key: 'zone-central', unit: 'MW', level: 'zone', version_id: String(zoneVersion), interval_start: '2026-10-31T05:00:00Z', interval_end: '2026-10-31T06:00:00Z', time_zone: 'UTC', mean: '50', model_mean: '50', adjusted: 'false' });
+    expect(rows[0]).toMatchObject({
+      series_key: 'zone-central',
+      unit: 'MW',
+      level: 'zone',
+      version_id: String(zoneVersion),
+      interval_start: '2026-10-31T05:00:00Z',
+      interval_end: '2026-10-31T06:00:00Z',
+      time_zone: 'UTC',
+      mean: '50',
+      model_mean: '50',
+      adjusted: 'false',
+    });
     expect(Number(rows[0]!.lower_95)).toBeCloseTo(50 - 1.959964, 4);
     expect(rows[47]).toMatchObject({ interval_start: '2026-11-02T04:00:00Z', interval_end: '2026-11-02T05:00:00Z' });
   });
@@ -132,7 +151,9 @@ describe('GET /api/exports/forecasts.csv', () => {
 
 describe('GET /api/exports/forecasts (JSON)', () => {
   it('hands a group on in the chosen zone, listing series without an approved forecast', async () => {
-    const response = await byToken(forecastExportPath({ format: 'json', parentId: t.seriesId('zone-central'), timeZone: 'America/Chicago' }));
+    const response = await byToken(
+      forecastExportPath({ format: 'json', parentId: t.seriesId('zone-central'), timeZone: 'America/Chicago' }),
+    );
     expect(response.status).toBe(200);
     expect(response.headers['content-type']).toBe('application/json; charset=utf-8');
     const body = forecastExportSchema.parse(JSON.parse(response.text));

@@ -16,14 +16,19 @@ let seriesId: number;
 
 /** Runs the refit of one series now, in this process, exactly as a queued job would; returns the draft's id. */
 async function refitNow(id: number): Promise<number> {
-  const run = await startRefitRun(t.server.pool, async () => {}, { trigger: 'manual', scope: { kind: 'series', seriesIds: [id] }, requestedById: null });
+  const run = await startRefitRun(t.server.pool, async () => {}, {
+    trigger: 'manual',
+    scope: { kind: 'series', seriesIds: [id] },
+    requestedById: null,
+  });
   const result = await refitSeries(t.server.pool, run!.runId, id, { retryCount: 0, retryLimit: 0 });
   if (!result.written) throw new Error(`refit did not write: ${JSON.stringify(result)}`);
   return result.versionId;
 }
 
 /** The local calendar date of an instant in a zone, computed apart from the API's own code. */
-const localDate = (iso: string, timeZone: string) => new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(new Date(iso));
+const localDate = (iso: string, timeZone: string) =>
+  new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(new Date(iso));
 
 beforeAll(async () => {
   t = await startForecastServer();
@@ -55,11 +60,20 @@ describe('a refit draft through review, approval and export', () => {
   it('adjusts, approves and exports the adjusted numbers', async () => {
     const review = forecastReviewSchema.parse((await planner.get(`/api/series/${seriesId}/forecast`)).body);
     const points = review.draft!.points;
-    const adjustment = await planner.post(`/api/forecast-versions/${firstDraft}/adjustments`, { from: points[0]!.ts, to: points[3]!.ts, kind: 'shift', amount: 5, reason: 'Irrigation pumps start early' });
+    const adjustment = await planner.post(`/api/forecast-versions/${firstDraft}/adjustments`, {
+      from: points[0]!.ts,
+      to: points[3]!.ts,
+      kind: 'shift',
+      amount: 5,
+      reason: 'Irrigation pumps start early',
+    });
     expect(adjustment.status).toBe(201);
     expect((await planner.post(`/api/forecast-versions/${firstDraft}/approve`)).status).toBe(200);
 
-    const csv = await request(t.server.url).get(`/api/exports/forecasts.csv?series=${seriesId}`).set('Authorization', `Bearer ${t.readToken}`).buffer(true);
+    const csv = await request(t.server.url)
+      .get(`/api/exports/forecasts.csv?series=${seriesId}`)
+      .set('Authorization', `Bearer ${t.readToken}`)
+      .buffer(true);
     const rows: Record<string, string>[] = parse(csv.text, { columns: true });
     expect(rows).toHaveLength(168);
     rows.slice(0, 3).forEach((row, i) => {

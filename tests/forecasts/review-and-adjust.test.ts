@@ -50,7 +50,13 @@ describe('GET /api/series/:id/forecast', () => {
     expect(response.status).toBe(200);
     const review = forecastReviewSchema.parse(response.body);
     expect(review.series).toMatchObject({ key: 'zone-north', unit: 'MW', timeZone: 'America/Chicago', intervalMinutes: 60 });
-    expect(review.draft).toMatchObject({ id: draftId, state: 'draft', origin: draftOrigin.toISOString(), horizonHours: 168, end: '2026-11-05T05:00:00.000Z' });
+    expect(review.draft).toMatchObject({
+      id: draftId,
+      state: 'draft',
+      origin: draftOrigin.toISOString(),
+      horizonHours: 168,
+      end: '2026-11-05T05:00:00.000Z',
+    });
     expect(review.approved).toMatchObject({ id: approvedId, state: 'approved' });
     expect(review.draft!.fit).toMatchObject({ method: 'yule_walker', arOrder: 2, maOrder: 0, aic: 2475, bic: 2490 });
     expect(review.draft!.points).toHaveLength(168);
@@ -66,7 +72,14 @@ describe('GET /api/series/:id/forecast', () => {
     expect([...peaks.keys()]).toEqual(['2026-10-29', '2026-10-30', '2026-10-31', '2026-11-01', '2026-11-02', '2026-11-03', '2026-11-04']);
     expect(peaks.get('2026-10-30')).toMatchObject({ localTime: '17:00', utcOffset: '-05:00', value: 150, intervals: 24, complete: true });
     // The peak sits in the repeated hour: the second 01:00, already on standard time.
-    expect(peaks.get('2026-11-01')).toMatchObject({ ts: '2026-11-01T07:00:00.000Z', localTime: '01:00', utcOffset: '-06:00', value: 200, intervals: 25, complete: true });
+    expect(peaks.get('2026-11-01')).toMatchObject({
+      ts: '2026-11-01T07:00:00.000Z',
+      localTime: '01:00',
+      utcOffset: '-06:00',
+      value: 200,
+      intervals: 25,
+      complete: true,
+    });
     expect(peaks.get('2026-11-02')).toMatchObject({ ts: '2026-11-02T23:00:00.000Z', localTime: '17:00', utcOffset: '-06:00', value: 160 });
     // The horizon ends at 23:00 CST on 4 November: that day is one hour short.
     expect(peaks.get('2026-11-04')).toMatchObject({ intervals: 23, complete: false });
@@ -83,7 +96,9 @@ describe('GET /api/series/:id/forecast', () => {
     expect(rows.length).toBeGreaterThan(150);
     expect(review.actuals.points.map((p) => [p.ts, p.value])).toEqual(rows.map((row) => [row.ts.toISOString(), row.v]));
     const fallBack = review.actuals.dailyPeaks.find((peak) => peak.date === '2026-11-01')!;
-    expect(fallBack.intervals).toBe(rows.filter((row) => row.ts >= new Date('2026-11-01T05:00:00Z') && row.ts < new Date('2026-11-02T06:00:00Z')).length);
+    expect(fallBack.intervals).toBe(
+      rows.filter((row) => row.ts >= new Date('2026-11-01T05:00:00Z') && row.ts < new Date('2026-11-02T06:00:00Z')).length,
+    );
   });
 
   it('compares draft with approved per interval, at the daily peaks and in energy', async () => {
@@ -131,16 +146,35 @@ describe('version history', () => {
 
 describe('adjustments', () => {
   let shiftId: number;
-  const rawBefore = async () => t.server.db.select().from(forecastPoints).where(eq(forecastPoints.versionId, draftId)).orderBy(asc(forecastPoints.ts));
+  const rawBefore = async () =>
+    t.server.db.select().from(forecastPoints).where(eq(forecastPoints.versionId, draftId)).orderBy(asc(forecastPoints.ts));
 
   it('adds a shift and a later scale; the scale acts first, and bounds move and stretch', async () => {
     const raw = await rawBefore();
-    const shift = await planner.post(`/api/forecast-versions/${draftId}/adjustments`, { from: '2026-11-02T00:00:00Z', to: '2026-11-02T02:00:00Z', kind: 'shift', amount: 10, reason: 'Quarry crusher restart' });
+    const shift = await planner.post(`/api/forecast-versions/${draftId}/adjustments`, {
+      from: '2026-11-02T00:00:00Z',
+      to: '2026-11-02T02:00:00Z',
+      kind: 'shift',
+      amount: 10,
+      reason: 'Quarry crusher restart',
+    });
     expect(shift.status).toBe(201);
-    expect(shift.body).toMatchObject({ kind: 'shift', amount: 10, intervals: 2, reason: 'Quarry crusher restart', createdBy: { id: t.planner.userId } });
+    expect(shift.body).toMatchObject({
+      kind: 'shift',
+      amount: 10,
+      intervals: 2,
+      reason: 'Quarry crusher restart',
+      createdBy: { id: t.planner.userId },
+    });
     shiftId = shift.body.id;
     // Offsets are accepted: 20:00 CDT on 1 Nov is 01:00Z on 2 Nov.
-    const scale = await planner.post(`/api/forecast-versions/${draftId}/adjustments`, { from: '2026-11-01T20:00:00-05:00', to: '2026-11-02T03:00:00Z', kind: 'scale', amount: 1.5, reason: 'Cold snap on the way' });
+    const scale = await planner.post(`/api/forecast-versions/${draftId}/adjustments`, {
+      from: '2026-11-01T20:00:00-05:00',
+      to: '2026-11-02T03:00:00Z',
+      kind: 'scale',
+      amount: 1.5,
+      reason: 'Cold snap on the way',
+    });
     expect(scale.status).toBe(201);
     expect(scale.body.intervals).toBe(2);
 
@@ -164,11 +198,25 @@ describe('adjustments', () => {
   });
 
   it('uses adjusted means for daily peaks and for the comparison', async () => {
-    const peak = await planner.post(`/api/forecast-versions/${draftId}/adjustments`, { from: '2026-11-03T15:00:00Z', to: '2026-11-03T16:00:00Z', kind: 'scale', amount: 3, reason: 'Big customer test run' });
+    const peak = await planner.post(`/api/forecast-versions/${draftId}/adjustments`, {
+      from: '2026-11-03T15:00:00Z',
+      to: '2026-11-03T16:00:00Z',
+      kind: 'scale',
+      amount: 3,
+      reason: 'Big customer test run',
+    });
     expect(peak.status).toBe(201);
     const review = forecastReviewSchema.parse((await planner.get(`/api/series/${t.seriesId('zone-north')}/forecast`)).body);
-    expect(review.draft!.dailyPeaks.find((p) => p.date === '2026-11-03')).toMatchObject({ value: 300, localTime: '09:00', ts: '2026-11-03T15:00:00.000Z' });
-    expect(review.comparison!.intervals.find((i) => i.ts === '2026-11-03T15:00:00.000Z')).toMatchObject({ draft: 300, approved: 90, difference: 210 });
+    expect(review.draft!.dailyPeaks.find((p) => p.date === '2026-11-03')).toMatchObject({
+      value: 300,
+      localTime: '09:00',
+      ts: '2026-11-03T15:00:00.000Z',
+    });
+    expect(review.comparison!.intervals.find((i) => i.ts === '2026-11-03T15:00:00.000Z')).toMatchObject({
+      draft: 300,
+      approved: 90,
+      difference: 210,
+    });
   });
 
   it('removes an adjustment while the version is a draft', async () => {
@@ -181,30 +229,74 @@ describe('adjustments', () => {
   });
 
   it('refuses a short reason, a period outside the horizon and a non-positive factor, with pointers', async () => {
-    const short = await planner.post(`/api/forecast-versions/${draftId}/adjustments`, { from: '2026-11-02T00:00:00Z', to: '2026-11-02T02:00:00Z', kind: 'shift', amount: 5, reason: ' ok  ' });
+    const short = await planner.post(`/api/forecast-versions/${draftId}/adjustments`, {
+      from: '2026-11-02T00:00:00Z',
+      to: '2026-11-02T02:00:00Z',
+      kind: 'shift',
+      amount: 5,
+      reason: ' ok  ',
+    });
     expect(short.status).toBe(400);
     expect(short.body.errors).toEqual([{ pointer: '/reason', detail: 'Give a reason of at least 5 characters' }]);
-    const outside = await planner.post(`/api/forecast-versions/${draftId}/adjustments`, { from: '2026-12-20T00:00:00Z', to: '2026-12-21T00:00:00Z', kind: 'shift', amount: 5, reason: 'Far in the future' });
+    const outside = await planner.post(`/api/forecast-versions/${draftId}/adjustments`, {
+      from: '2026-12-20T00:00:00Z',
+      to: '2026-12-21T00:00:00Z',
+      kind: 'shift',
+      amount: 5,
+      reason: 'Far in the future',
+    });
     expect(outside.status).toBe(400);
     expect(outside.body.errors[0].pointer).toBe('/from');
-    const factor = await planner.post(`/api/forecast-versions/${draftId}/adjustments`, { from: '2026-11-02T00:00:00Z', to: '2026-11-02T02:00:00Z', kind: 'scale', amount: -1, reason: 'Negative factor' });
+    const factor = await planner.post(`/api/forecast-versions/${draftId}/adjustments`, {
+      from: '2026-11-02T00:00:00Z',
+      to: '2026-11-02T02:00:00Z',
+      kind: 'scale',
+      amount: -1,
+      reason: 'Negative factor',
+    });
     expect(factor.status).toBe(400);
     expect(factor.body.errors[0].pointer).toBe('/amount');
   });
 
   it('refuses adjusting an approved version (409) and viewers (403)', async () => {
-    const onApproved = await planner.post(`/api/forecast-versions/${approvedId}/adjustments`, { from: '2026-10-29T00:00:00Z', to: '2026-10-29T02:00:00Z', kind: 'shift', amount: 5, reason: 'Too late for this one' });
+    const onApproved = await planner.post(`/api/forecast-versions/${approvedId}/adjustments`, {
+      from: '2026-10-29T00:00:00Z',
+      to: '2026-10-29T02:00:00Z',
+      kind: 'shift',
+      amount: 5,
+      reason: 'Too late for this one',
+    });
     expect(onApproved.status).toBe(409);
     expect(onApproved.body.type).toBe('/problems/conflict');
-    const byViewer = await asBrowser(t.server.url, t.viewer).post(`/api/forecast-versions/${draftId}/adjustments`, { from: '2026-11-02T00:00:00Z', to: '2026-11-02T02:00:00Z', kind: 'shift', amount: 5, reason: 'Viewer trying' });
+    const byViewer = await asBrowser(t.server.url, t.viewer).post(`/api/forecast-versions/${draftId}/adjustments`, {
+      from: '2026-11-02T00:00:00Z',
+      to: '2026-11-02T02:00:00Z',
+      kind: 'shift',
+      amount: 5,
+      reason: 'Viewer trying',
+    });
     expect(byViewer.status).toBe(403);
   });
 
   it('audits each adjustment and removal with who, what and why', async () => {
-    const entries = await t.server.db.select().from(auditLog).where(inArray(auditLog.action, ['forecast.adjusted', 'forecast.adjustment_removed'])).orderBy(asc(auditLog.id));
-    expect(entries.map((e) => e.action)).toEqual(['forecast.adjusted', 'forecast.adjusted', 'forecast.adjusted', 'forecast.adjustment_removed']);
+    const entries = await t.server.db
+      .select()
+      .from(auditLog)
+      .where(inArray(auditLog.action, ['forecast.adjusted', 'forecast.adjustment_removed']))
+      .orderBy(asc(auditLog.id));
+    expect(entries.map((e) => e.action)).toEqual([
+      'forecast.adjusted',
+      'forecast.adjusted',
+      'forecast.adjusted',
+      'forecast.adjustment_removed',
+    ]);
     expect(entries[0]).toMatchObject({ actorUserId: t.planner.userId, targetType: 'forecast_version', targetId: String(draftId) });
-    expect(entries[0]!.detail).toMatchObject({ kind: 'shift', amount: 10, reason: 'Quarry crusher restart', from: '2026-11-02T00:00:00.000Z' });
+    expect(entries[0]!.detail).toMatchObject({
+      kind: 'shift',
+      amount: 10,
+      reason: 'Quarry crusher restart',
+      from: '2026-11-02T00:00:00.000Z',
+    });
     expect(entries[0]!.ip).toBeTruthy();
   });
 });

@@ -39,7 +39,9 @@ afterAll(() => server.close());
 
 /** Rows that a refused file must not leave behind. */
 const stored = async () => {
-  const { rows } = await server.pool.query(`select (select count(*) from observations)::int as observations, (select count(*) from observation_revisions)::int as revisions, (select count(*) from upload_findings)::int as findings`);
+  const { rows } = await server.pool.query(
+    `select (select count(*) from observations)::int as observations, (select count(*) from observation_revisions)::int as revisions, (select count(*) from upload_findings)::int as findings`,
+  );
   return rows[0] as { observations: number; revisions: number; findings: number };
 };
 

@@ -34,7 +34,14 @@ async function importLocal(key: string, timeZone: string, content: string, repea
   const posted = await postFile(server.url, steward, `${key}.csv`, content);
   expect(posted.status).toBe(201);
   const mapping = { layout: 'long', timestampColumn: 'local time', valueColumn: 'kW', seriesKeyColumn: null, seriesKey: key } as const;
-  const settings = { unit: 'kW', timeZone, timestampsMark: 'start', repeatedHourPolicy, decimalSeparator: '.', estimateShortGaps: true } as const;
+  const settings = {
+    unit: 'kW',
+    timeZone,
+    timestampsMark: 'start',
+    repeatedHourPolicy,
+    decimalSeparator: '.',
+    estimateShortGaps: true,
+  } as const;
   expect((await confirm(server.url, steward, posted.body.upload.id, { mapping, settings })).status).toBe(200);
   const done = await waitForImport(server.url, steward, posted.body.upload.id);
   expect(done.upload.status).toBe('done');
@@ -42,16 +49,24 @@ async function importLocal(key: string, timeZone: string, content: string, repea
     `select o.ts, o.value, o.estimated, o.quality from observations o join series s on s.id = o.series_id where s.key = $1 and o.upload_id = $2 order by o.ts`,
     [key, posted.body.upload.id],
   );
-  const found = await server.pool.query(`select rule, ts, source_row, detail from upload_findings where upload_id = $1 order by id`, [posted.body.upload.id]);
+  const found = await server.pool.query(`select rule, ts, source_row, detail from upload_findings where upload_id = $1 order by id`, [
+    posted.body.upload.id,
+  ]);
   return {
     upload: done.upload,
     rows: stored.rows.map((r) => ({ ts: (r.ts as Date).toISOString(), value: r.value, estimated: r.estimated, quality: r.quality })),
-    findings: found.rows.map((r) => ({ rule: r.rule, ts: r.ts ? (r.ts as Date).toISOString() : null, row: r.source_row, resolution: r.detail.resolution })),
+    findings: found.rows.map((r) => ({
+      rule: r.rule,
+      ts: r.ts ? (r.ts as Date).toISOString() : null,
+      row: r.source_row,
+      resolution: r.detail.resolution,
+    })),
   };
 }
 
 const allHours = Array.from({ length: 24 }, (_, h) => h);
-const utcHours = (fromIso: string, count: number) => Array.from({ length: count }, (_, i) => new Date(Date.parse(fromIso) + i * 3_600_000).toISOString());
+const utcHours = (fromIso: string, count: number) =>
+  Array.from({ length: count }, (_, i) => new Date(Date.parse(fromIso) + i * 3_600_000).toISOString());
 
 describe('America/Chicago (daylight saving)', () => {
   it('spring forward: 02:00 does not exist, so that reading is dropped with a finding; the others land an hour apart', async () => {
@@ -106,7 +121,12 @@ describe('America/Phoenix (no daylight saving)', () => {
   });
 
   it('reads the fall-back day as 24 ordinary hours, and a repeated 01:00 is a duplicate, not a daylight-saving hour', async () => {
-    const result = await importLocal('phoenix-a', 'America/Phoenix', localFile('2026-11-01', [0, 1, 1, ...allHours.slice(2)], 700), 'reject');
+    const result = await importLocal(
+      'phoenix-a',
+      'America/Phoenix',
+      localFile('2026-11-01', [0, 1, 1, ...allHours.slice(2)], 700),
+      'reject',
+    );
     expect(result.rows.map((r) => r.ts)).toEqual(utcHours('2026-11-01T07:00:00Z', 24));
     expect(result.rows[1]).toEqual({ ts: '2026-11-01T08:00:00.000Z', value: 701, estimated: null, quality: 64 });
     expect(result.findings).toEqual([{ rule: 'duplicate_conflict', ts: '2026-11-01T08:00:00.000Z', row: 4, resolution: 'first kept' }]);

@@ -76,12 +76,20 @@ async function importFile(name: string, content: string, settings: Record<string
 describe('demo histories', () => {
   it('imports the long UTC export and finds the spike, the flat line, the negative and the gaps', async () => {
     const { proposal, done } = await importFile('demo-long.csv', longCsv());
-    expect(proposal.mapping).toEqual({ layout: 'long', timestampColumn: 'timestamp', valueColumn: 'value', seriesKeyColumn: 'series', seriesKey: null });
+    expect(proposal.mapping).toEqual({
+      layout: 'long',
+      timestampColumn: 'timestamp',
+      valueColumn: 'value',
+      seriesKeyColumn: 'series',
+      seriesKey: null,
+    });
     const readings = longKeys.reduce((sum, key) => sum + seriesValues(data, key).filter((v) => !Number.isNaN(v)).length, 0);
     // The 3-hour gap of fdr-n2 is estimated (3 rows); the 5-hour gap of fdr-s4 is only reported.
     expect(done.upload).toMatchObject({ status: 'done', rowsTotal: readings, rowsImported: readings + 3, rowsRejected: 0, error: null });
 
-    expect(await findings('spike')).toEqual([{ key: 'fdr-c2', ts: '2025-08-12T21:00:00.000Z', detail: expect.objectContaining({ method: 'Hampel identifier' }) }]);
+    expect(await findings('spike')).toEqual([
+      { key: 'fdr-c2', ts: '2025-08-12T21:00:00.000Z', detail: expect.objectContaining({ method: 'Hampel identifier' }) },
+    ]);
     const flat = await findings('flat_line');
     expect(flat).toHaveLength(10);
     expect(new Set(flat.map((f) => f.key))).toEqual(new Set(['fdr-s1']));
@@ -91,10 +99,16 @@ describe('demo histories', () => {
       { key: 'fdr-n2', ts: '2025-04-15T14:00:00.000Z', detail: { intervals: 3, until: '2025-04-15T16:00:00.000Z', estimated: true } },
       { key: 'fdr-s4', ts: '2026-07-09T02:00:00.000Z', detail: { intervals: 5, until: '2026-07-09T06:00:00.000Z', estimated: false } },
     ]);
-    const spikeRow = await server.pool.query(`select o.value, o.estimated, o.quality from observations o join series s on s.id = o.series_id where s.key = 'fdr-c2' and o.ts = '2025-08-12T21:00:00Z'`);
+    const spikeRow = await server.pool.query(
+      `select o.value, o.estimated, o.quality from observations o join series s on s.id = o.series_id where s.key = 'fdr-c2' and o.ts = '2025-08-12T21:00:00Z'`,
+    );
     const raw = seriesValues(data, 'fdr-c2');
     const at = (Date.parse('2025-08-12T21:00:00Z') - data.startMs) / data.intervalMs;
-    expect(spikeRow.rows[0]).toEqual({ value: raw[at], estimated: Math.round(((raw[at - 1]! + raw[at + 1]!) / 2) * 1e6) / 1e6, quality: 1 | 4 });
+    expect(spikeRow.rows[0]).toEqual({
+      value: raw[at],
+      estimated: Math.round(((raw[at - 1]! + raw[at + 1]!) / 2) * 1e6) / 1e6,
+      quality: 1 | 4,
+    });
   });
 
   it('imports the wide local-time export with repeated fall-back hours resolved and the lost second 01:00 of fdr-c3 found', async () => {
@@ -113,9 +127,14 @@ describe('demo histories', () => {
 
     // Every stored raw reading sits at its generated UTC instant with its generated value.
     for (const key of wideKeys) {
-      const { rows } = await server.pool.query(`select extract(epoch from o.ts) * 1000 as ms, o.value from observations o join series s on s.id = o.series_id where s.key = $1 and o.value is not null order by o.ts`, [key]);
+      const { rows } = await server.pool.query(
+        `select extract(epoch from o.ts) * 1000 as ms, o.value from observations o join series s on s.id = o.series_id where s.key = $1 and o.value is not null order by o.ts`,
+        [key],
+      );
       const values = seriesValues(data, key);
-      const expected = [...values.entries()].filter(([, v]) => !Number.isNaN(v)).map(([i, v]) => ({ ms: data.startMs + i * data.intervalMs, value: v }));
+      const expected = [...values.entries()]
+        .filter(([, v]) => !Number.isNaN(v))
+        .map(([i, v]) => ({ ms: data.startMs + i * data.intervalMs, value: v }));
       expect(rows.map((r) => ({ ms: Number(r.ms), value: r.value }))).toEqual(expected);
     }
     const gaps = (await findings('gap')).filter((f) => wideKeys.includes(f.key));

@@ -31,8 +31,21 @@ function longFile(change?: { key: string; hour: number; value: number }): string
   return `${lines.join('\n')}\n`;
 }
 
-const settings = { unit: 'kW', timeZone: 'America/Chicago', timestampsMark: 'start', repeatedHourPolicy: 'reject', decimalSeparator: '.', estimateShortGaps: true } as const;
-const mapping = { layout: 'long', timestampColumn: 'timestamp', valueColumn: 'load_kw', seriesKeyColumn: 'feeder', seriesKey: null } as const;
+const settings = {
+  unit: 'kW',
+  timeZone: 'America/Chicago',
+  timestampsMark: 'start',
+  repeatedHourPolicy: 'reject',
+  decimalSeparator: '.',
+  estimateShortGaps: true,
+} as const;
+const mapping = {
+  layout: 'long',
+  timestampColumn: 'timestamp',
+  valueColumn: 'load_kw',
+  seriesKeyColumn: 'feeder',
+  seriesKey: null,
+} as const;
 
 beforeAll(async () => {
   server = await startTestServer();
@@ -40,7 +53,9 @@ beforeAll(async () => {
   steward = await signIn(server.url, people.steward.email);
   viewer = await signIn(server.url, people.viewer.email);
   for (const key of ['fdr-a', 'fdr-b']) {
-    await server.db.insert(series).values({ key, name: key, kind: 'load', level: 'feeder', unit: 'kW', intervalMinutes: 60, timeZone: 'America/Chicago' });
+    await server.db
+      .insert(series)
+      .values({ key, name: key, kind: 'load', level: 'feeder', unit: 'kW', intervalMinutes: 60, timeZone: 'America/Chicago' });
   }
 });
 afterAll(() => server.close());
@@ -54,7 +69,12 @@ describe('uploads', () => {
     const posted = await postFile(server.url, steward, 'feeders.csv', longFile());
     expect(posted.status).toBe(201);
     expect(posted.body.upload.status).toBe('received');
-    expect(posted.body.layout).toMatchObject({ delimiter: ',', hasHeader: true, columns: ['timestamp', 'feeder', 'load_kw'], timestampsHaveOffset: true });
+    expect(posted.body.layout).toMatchObject({
+      delimiter: ',',
+      hasHeader: true,
+      columns: ['timestamp', 'feeder', 'load_kw'],
+      timestampsHaveOffset: true,
+    });
     expect(posted.body.preview.rows).toHaveLength(20);
     expect(posted.body.proposal.mapping).toEqual(mapping);
     expect(posted.body.proposal.settings).toMatchObject({ unit: 'kW', timeZone: 'America/Chicago', repeatedHourPolicy: 'reject' });
@@ -69,7 +89,11 @@ describe('uploads', () => {
       expect.objectContaining({ rule: 'gap', count: 1 }),
       expect.objectContaining({ rule: 'estimated', count: 1 }),
     ]);
-    expect(done.report.examples.find((f) => f.rule === 'gap')).toMatchObject({ seriesKey: 'fdr-a', ts: new Date(start + 50 * hour).toISOString(), detail: { intervals: 1, estimated: true } });
+    expect(done.report.examples.find((f) => f.rule === 'gap')).toMatchObject({
+      seriesKey: 'fdr-a',
+      ts: new Date(start + 50 * hour).toISOString(),
+      detail: { intervals: 1, estimated: true },
+    });
     expect(await count('observations')).toBe(192);
   });
 
@@ -88,14 +112,25 @@ describe('uploads', () => {
     const done = await waitForImport(server.url, steward, posted.body.upload.id);
     expect(done.upload).toMatchObject({ status: 'done', rowsImported: 0, rowsRevised: 1, rowsUnchanged: 191 });
     const ts = new Date(start + 10 * hour);
-    const current = await server.pool.query(`select o.value, o.revision from observations o join series s on s.id = o.series_id where s.key = 'fdr-b' and o.ts = $1`, [ts]);
+    const current = await server.pool.query(
+      `select o.value, o.revision from observations o join series s on s.id = o.series_id where s.key = 'fdr-b' and o.ts = $1`,
+      [ts],
+    );
     expect(current.rows).toEqual([{ value: 1234.5, revision: 2 }]);
-    const kept = await server.pool.query(`select r.value, r.revision, r.upload_id, r.superseded_by_upload_id from observation_revisions r join series s on s.id = r.series_id where s.key = 'fdr-b' and r.ts = $1`, [ts]);
+    const kept = await server.pool.query(
+      `select r.value, r.revision, r.upload_id, r.superseded_by_upload_id from observation_revisions r join series s on s.id = r.series_id where s.key = 'fdr-b' and r.ts = $1`,
+      [ts],
+    );
     expect(kept.rows).toEqual([{ value: load(10) + 100, revision: 1, upload_id: firstId, superseded_by_upload_id: posted.body.upload.id }]);
   });
 
   it('downloads the findings as CSV with formula-like text neutralised', async () => {
-    const posted = await postFile(server.url, steward, 'unknown.csv', 'timestamp,feeder,load_kw\n2026-06-01T05:00:00Z,"=HYPERLINK(""x"")",5\n2026-06-01T05:00:00Z,fdr-a,800\n');
+    const posted = await postFile(
+      server.url,
+      steward,
+      'unknown.csv',
+      'timestamp,feeder,load_kw\n2026-06-01T05:00:00Z,"=HYPERLINK(""x"")",5\n2026-06-01T05:00:00Z,fdr-a,800\n',
+    );
     await confirm(server.url, steward, posted.body.upload.id, { mapping, settings }).expect(200);
     const done = await waitForImport(server.url, steward, posted.body.upload.id);
     expect(done.upload.status).toBe('done');
@@ -116,14 +151,22 @@ describe('uploads', () => {
     const posted = await postFile(server.url, steward, 'other.csv', 'timestamp,feeder,load_kw\n2026-06-02T05:00:00Z,fdr-a,800\n');
     const wrong = await confirm(server.url, steward, posted.body.upload.id, { mapping: { ...mapping, valueColumn: 'kw' }, settings });
     expect(wrong.status).toBe(400);
-    expect(wrong.body.detail).toBe('The mapping names value column "kw", which the file does not have; its columns are "timestamp", "feeder", "load_kw".');
+    expect(wrong.body.detail).toBe(
+      'The mapping names value column "kw", which the file does not have; its columns are "timestamp", "feeder", "load_kw".',
+    );
     const listed = await request(server.url).get('/api/uploads').set('Cookie', steward.cookie);
     expect(listed.body.items.find((u: { id: number }) => u.id === posted.body.upload.id).status).toBe('received');
 
-    const discarded = await request(server.url).delete(`/api/uploads/${posted.body.upload.id}`).set('Cookie', steward.cookie).set('X-CSRF-Token', steward.csrf);
+    const discarded = await request(server.url)
+      .delete(`/api/uploads/${posted.body.upload.id}`)
+      .set('Cookie', steward.cookie)
+      .set('X-CSRF-Token', steward.csrf);
     expect(discarded.status).toBe(204);
     expect((await request(server.url).get(`/api/uploads/${posted.body.upload.id}`).set('Cookie', steward.cookie)).status).toBe(404);
-    const again = await request(server.url).delete(`/api/uploads/${firstId}`).set('Cookie', steward.cookie).set('X-CSRF-Token', steward.csrf);
+    const again = await request(server.url)
+      .delete(`/api/uploads/${firstId}`)
+      .set('Cookie', steward.cookie)
+      .set('X-CSRF-Token', steward.csrf);
     expect(again.status).toBe(409);
   });
 });

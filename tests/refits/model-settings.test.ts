@@ -25,7 +25,8 @@ afterAll(async () => {
 });
 
 /** A write as `who`. */
-const write = (who: SignedIn, method: 'put' | 'post' | 'delete', path: string) => request(server.url)[method](path).set('Cookie', who.cookie).set('X-CSRF-Token', who.csrf);
+const write = (who: SignedIn, method: 'put' | 'post' | 'delete', path: string) =>
+  request(server.url)[method](path).set('Cookie', who.cookie).set('X-CSRF-Token', who.csrf);
 
 describe('model settings', () => {
   it('reads the defaults of a load series with its linked weather station', async () => {
@@ -51,7 +52,16 @@ describe('model settings', () => {
     const id = await seriesId(server.pool, 'zone-south');
     const current = (await request(server.url).get(`/api/series/${id}/model`).set('Cookie', planner.cookie)).body;
     const { seriesId: _s, temperatureSeries: _t, updatedAt: _u, updatedBy: _b, ...editable } = current;
-    const next = { ...editable, method: 'lasso', arOrder: 24, extraLags: [168], seasonal: { kind: 'difference', lag: 24 }, log: true, temperature: { enabled: true, heatingBase: 58, coolingBase: 75 }, levels: [50, 80, 95] };
+    const next = {
+      ...editable,
+      method: 'lasso',
+      arOrder: 24,
+      extraLags: [168],
+      seasonal: { kind: 'difference', lag: 24 },
+      log: true,
+      temperature: { enabled: true, heatingBase: 58, coolingBase: 75 },
+      levels: [50, 80, 95],
+    };
     expect((await write(viewer, 'put', `/api/series/${id}/model`).send(next)).status).toBe(403);
     expect((await write(steward, 'put', `/api/series/${id}/model`).send(next)).status).toBe(403);
     const saved = await write(planner, 'put', `/api/series/${id}/model`).send(next);
@@ -59,7 +69,9 @@ describe('model settings', () => {
     expect(saved.body).toMatchObject({ ...next, updatedBy: 'Test planner' });
     const again = await request(server.url).get(`/api/series/${id}/model`).set('Cookie', viewer.cookie);
     expect(again.body).toMatchObject(next);
-    const { rows } = await server.pool.query(`select detail from audit_log where action = 'model.settings_changed' and target_id = $1`, [String(id)]);
+    const { rows } = await server.pool.query(`select detail from audit_log where action = 'model.settings_changed' and target_id = $1`, [
+      String(id),
+    ]);
     expect(rows).toHaveLength(1);
     expect(rows[0].detail.before).toMatchObject({ method: 'auto', log: false });
     expect(rows[0].detail.after).toMatchObject({ method: 'lasso', log: true, seasonal: { kind: 'difference', lag: 24 } });
@@ -80,7 +92,10 @@ describe('model settings', () => {
     for (const [change, pointer] of cases) {
       const response = await write(planner, 'put', `/api/series/${id}/model`).send({ ...editable, ...change });
       expect(response.status, JSON.stringify(change)).toBe(400);
-      expect(response.body.errors.map((e: { pointer: string }) => e.pointer), JSON.stringify(change)).toContain(pointer);
+      expect(
+        response.body.errors.map((e: { pointer: string }) => e.pointer),
+        JSON.stringify(change),
+      ).toContain(pointer);
     }
   });
 

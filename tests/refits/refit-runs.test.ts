@@ -44,7 +44,11 @@ afterAll(async () => {
 
 /** Starts a manual run through the API as the planner; returns its id. */
 async function startRun(scope: object): Promise<number> {
-  const response = await request(server.url).post('/api/refits').set('Cookie', planner.cookie).set('X-CSRF-Token', planner.csrf).send({ scope });
+  const response = await request(server.url)
+    .post('/api/refits')
+    .set('Cookie', planner.cookie)
+    .set('X-CSRF-Token', planner.csrf)
+    .send({ scope });
   expect(response.status, JSON.stringify(response.body)).toBe(202);
   return response.body.id;
 }
@@ -63,7 +67,10 @@ describe('a manual run for one series', () => {
     const versions = await versionsOf(server.pool, id);
     expect(versions).toHaveLength(1);
     expect(versions[0]).toMatchObject({ state: 'draft', refit_run_id: runId });
-    const { rows } = await server.pool.query('select count(*)::int as n, min(ts) as first, max(ts) as last from forecast_points where version_id = $1', [versions[0]!.id]);
+    const { rows } = await server.pool.query(
+      'select count(*)::int as n, min(ts) as first, max(ts) as last from forecast_points where version_id = $1',
+      [versions[0]!.id],
+    );
     expect(rows[0].n).toBe(168);
     const lastActual = await server.pool.query('select max(ts) as ts from observations where series_id = $1', [id]);
     expect(rows[0].first.getTime()).toBe(lastActual.rows[0].ts.getTime() + 3_600_000);
@@ -72,7 +79,10 @@ describe('a manual run for one series', () => {
 
   it('orders the 80 % and 95 % bands around the mean at every hour', async () => {
     const [version] = await versionsOf(server.pool, id);
-    const { rows } = await server.pool.query('select mean, std_error, lower_80, upper_80, lower_95, upper_95 from forecast_points where version_id = $1 order by ts', [version!.id]);
+    const { rows } = await server.pool.query(
+      'select mean, std_error, lower_80, upper_80, lower_95, upper_95 from forecast_points where version_id = $1 order by ts',
+      [version!.id],
+    );
     for (const p of rows) {
       expect(p.lower_95).toBeLessThanOrEqual(p.lower_80);
       expect(p.lower_80).toBeLessThanOrEqual(p.mean);
@@ -110,7 +120,13 @@ describe('a manual run for one series', () => {
   it('reports the run and its series through the status API with phase times', async () => {
     const detail = await request(server.url).get(`/api/refits/${runId}`).set('Cookie', viewer.cookie);
     expect(detail.status).toBe(200);
-    expect(detail.body).toMatchObject({ id: runId, trigger: 'manual', state: 'finished', requestedBy: 'Test planner', counts: { total: 1, done: 1, failed: 0, queued: 0, running: 0 } });
+    expect(detail.body).toMatchObject({
+      id: runId,
+      trigger: 'manual',
+      state: 'finished',
+      requestedBy: 'Test planner',
+      counts: { total: 1, done: 1, failed: 0, queued: 0, running: 0 },
+    });
     const [row] = detail.body.series;
     expect(row).toMatchObject({ seriesId: id, seriesKey: 'zone-north', status: 'done', attempts: 1, error: null });
     expect(row.versionId).toBeGreaterThan(0);
@@ -122,11 +138,19 @@ describe('a manual run for one series', () => {
 
 describe('refit scopes', () => {
   it('names series that do not exist and refuses weather stations', async () => {
-    const missing = await request(server.url).post('/api/refits').set('Cookie', planner.cookie).set('X-CSRF-Token', planner.csrf).send({ scope: { kind: 'series', seriesIds: [999999] } });
+    const missing = await request(server.url)
+      .post('/api/refits')
+      .set('Cookie', planner.cookie)
+      .set('X-CSRF-Token', planner.csrf)
+      .send({ scope: { kind: 'series', seriesIds: [999999] } });
     expect(missing.status).toBe(404);
     expect(missing.body.detail).toContain('999999');
     const station = await seriesId(server.pool, 'wx-upland');
-    const refused = await request(server.url).post('/api/refits').set('Cookie', planner.cookie).set('X-CSRF-Token', planner.csrf).send({ scope: { kind: 'subtree', seriesId: station } });
+    const refused = await request(server.url)
+      .post('/api/refits')
+      .set('Cookie', planner.cookie)
+      .set('X-CSRF-Token', planner.csrf)
+      .send({ scope: { kind: 'subtree', seriesId: station } });
     expect(refused.status).toBe(400);
   });
 });
@@ -145,7 +169,9 @@ describe('a manual run for a zone and everything below it', () => {
     const zoneVersions = await versionsOf(server.pool, zone);
     expect(zoneVersions.map((v) => v.state)).toEqual(['superseded', 'draft']);
     expect(zoneVersions[1]!.refit_run_id).toBe(runId);
-    const drafts = await server.pool.query(`select series_id, count(*)::int as n from forecast_versions where state = 'draft' group by series_id having count(*) > 1`);
+    const drafts = await server.pool.query(
+      `select series_id, count(*)::int as n from forecast_versions where state = 'draft' group by series_id having count(*) > 1`,
+    );
     expect(drafts.rows).toEqual([]);
   }, 150_000);
 });
@@ -153,10 +179,14 @@ describe('a manual run for a zone and everything below it', () => {
 describe('the nightly schedule', () => {
   it("is registered at the refit hour in the organisation's time zone, and follows changes to it", async () => {
     const scheduled = async (tz: string, cron: string) =>
-      waitFor(async () => {
-        const { rows } = await server.pool.query('select cron, options from pgboss.schedule where name = $1', [refitNightlyQueue]);
-        return rows.length === 1 && rows[0].cron === cron && rows[0].options.tz === tz ? true : undefined;
-      }, `the schedule ${cron} in ${tz}`, 15_000);
+      waitFor(
+        async () => {
+          const { rows } = await server.pool.query('select cron, options from pgboss.schedule where name = $1', [refitNightlyQueue]);
+          return rows.length === 1 && rows[0].cron === cron && rows[0].options.tz === tz ? true : undefined;
+        },
+        `the schedule ${cron} in ${tz}`,
+        15_000,
+      );
     await scheduled('America/Chicago', '0 2 * * *');
     await server.pool.query('update organisation set refit_hour = 4');
     await scheduled('America/Chicago', '0 4 * * *');
@@ -194,12 +224,21 @@ describe('duplicated jobs', () => {
     ]);
     await waitForRun(server.pool, runId);
     await waitFor(async () => {
-      const { rows } = await server.pool.query(`select count(*)::int as n from pgboss.job where name = $1 and data->>'runId' = $2 and state < 'completed'`, [refitSeriesQueue, String(runId)]);
+      const { rows } = await server.pool.query(
+        `select count(*)::int as n from pgboss.job where name = $1 and data->>'runId' = $2 and state < 'completed'`,
+        [refitSeriesQueue, String(runId)],
+      );
       return rows[0].n === 0 ? true : undefined;
     }, 'every copy of the job to be handled');
-    const { rows } = await server.pool.query('select count(*)::int as n from forecast_versions where refit_run_id = $1 and series_id = $2', [runId, id]);
+    const { rows } = await server.pool.query(
+      'select count(*)::int as n from forecast_versions where refit_run_id = $1 and series_id = $2',
+      [runId, id],
+    );
     expect(rows[0].n).toBe(1);
-    const fits = await server.pool.query('select count(*)::int as n from refit_run_series where run_id = $1 and status = $2', [runId, 'done']);
+    const fits = await server.pool.query('select count(*)::int as n from refit_run_series where run_id = $1 and status = $2', [
+      runId,
+      'done',
+    ]);
     expect(fits.rows[0].n).toBe(1);
   }, 90_000);
 });
@@ -221,7 +260,9 @@ describe('a failure inside the write transaction', () => {
         end if;
         return null;
       end $$`);
-    await server.pool.query('create trigger fail_after_points after insert on forecast_points referencing new table as new_rows for each statement execute function fail_after_points()');
+    await server.pool.query(
+      'create trigger fail_after_points after insert on forecast_points referencing new table as new_rows for each statement execute function fail_after_points()',
+    );
     try {
       const runId = await startRun({ kind: 'series', seriesIds: [id] });
       const run = await waitForRun(server.pool, runId, 90_000);
@@ -229,7 +270,9 @@ describe('a failure inside the write transaction', () => {
       const { rows } = await server.pool.query('select status, attempts, error from refit_run_series where run_id = $1', [runId]);
       expect(rows[0]).toMatchObject({ status: 'failed', attempts: 2 });
       expect(rows[0].error).toContain('simulated crash');
-      expect((await server.pool.query('select count(*)::int as n from forecast_versions where refit_run_id = $1', [runId])).rows[0].n).toBe(0);
+      expect((await server.pool.query('select count(*)::int as n from forecast_versions where refit_run_id = $1', [runId])).rows[0].n).toBe(
+        0,
+      );
       expect((await server.pool.query('select count(*)::int as n from fits where series_id = $1', [id])).rows[0].n).toBe(fitsBefore);
       const after = await versionsOf(server.pool, id);
       expect(after).toEqual(before);
@@ -257,8 +300,14 @@ describe('series with bad data', () => {
     );
     const flat = made.find((r) => r.key === 'flat-feeder')!.id;
     const young = made.find((r) => r.key === 'young-feeder')!.id;
-    await server.pool.query(`insert into observations (series_id, ts, value) select $1, g, 250 from generate_series(timestamptz '2026-10-01', timestamptz '2026-11-30 23:00', interval '1 hour') g`, [flat]);
-    await server.pool.query(`insert into observations (series_id, ts, value) select $1, g, 100 + extract(hour from g) from generate_series(timestamptz '2026-11-26', timestamptz '2026-11-30 23:00', interval '1 hour') g`, [young]);
+    await server.pool.query(
+      `insert into observations (series_id, ts, value) select $1, g, 250 from generate_series(timestamptz '2026-10-01', timestamptz '2026-11-30 23:00', interval '1 hour') g`,
+      [flat],
+    );
+    await server.pool.query(
+      `insert into observations (series_id, ts, value) select $1, g, 100 + extract(hour from g) from generate_series(timestamptz '2026-11-26', timestamptz '2026-11-30 23:00', interval '1 hour') g`,
+      [young],
+    );
     try {
       const runId = await startRun({ kind: 'series', seriesIds: [good, flat, young] });
       const run = await waitForRun(server.pool, runId, 60_000);
@@ -292,7 +341,11 @@ describe('temperature forecasts', () => {
     // A fixed method, so the regression on degree-hours is part of the model whatever auto would pick.
     const settings = await request(server.url).get(`/api/series/${id}/model`).set('Cookie', planner.cookie);
     const { seriesId: _s, temperatureSeries: _t, updatedAt: _u, updatedBy: _b, ...editable } = settings.body;
-    const put = await request(server.url).put(`/api/series/${id}/model`).set('Cookie', planner.cookie).set('X-CSRF-Token', planner.csrf).send({ ...editable, method: 'cmle', arOrder: 3 });
+    const put = await request(server.url)
+      .put(`/api/series/${id}/model`)
+      .set('Cookie', planner.cookie)
+      .set('X-CSRF-Token', planner.csrf)
+      .send({ ...editable, method: 'cmle', arOrder: 3 });
     expect(put.status, JSON.stringify(put.body)).toBe(200);
     const runId = await startRun({ kind: 'series', seriesIds: [id] });
     await waitForRun(server.pool, runId);
@@ -306,10 +359,15 @@ describe('temperature forecasts', () => {
 describe('a series whose job is gone from the queue', () => {
   it('is marked failed by the sweep so the run finishes', async () => {
     const id = await seriesId(server.pool, 'zone-north');
-    const { rows } = await server.pool.query(`insert into refit_runs (trigger, series_total, started_at) values ('manual', 1, now()) returning id`);
+    const { rows } = await server.pool.query(
+      `insert into refit_runs (trigger, series_total, started_at) values ('manual', 1, now()) returning id`,
+    );
     const runId = rows[0].id;
     // As if its worker died in the last attempt and the queue expired the job: running, no live job.
-    await server.pool.query(`insert into refit_run_series (run_id, series_id, status, attempts, queued_at, started_at) values ($1, $2, 'running', 2, now() - interval '20 minutes', now() - interval '15 minutes')`, [runId, id]);
+    await server.pool.query(
+      `insert into refit_run_series (run_id, series_id, status, attempts, queued_at, started_at) values ($1, $2, 'running', 2, now() - interval '20 minutes', now() - interval '15 minutes')`,
+      [runId, id],
+    );
     expect(await sweepOrphanedRefits(server.pool)).toBeGreaterThanOrEqual(1);
     const run = await waitForRun(server.pool, runId, 5_000);
     expect(run.series_failed).toBe(1);

@@ -36,7 +36,9 @@ describe('seedDemo on a migrated, empty database', () => {
   });
 
   it('creates one account per role whose argon2id hash verifies the demo password', async () => {
-    const { rows } = await client.query<{ email: string; role: string; password_hash: string }>('select email, role, password_hash from users order by role');
+    const { rows } = await client.query<{ email: string; role: string; password_hash: string }>(
+      'select email, role, password_hash from users order by role',
+    );
     expect(rows.map((row) => row.role)).toEqual(['admin', 'steward', 'planner', 'viewer']);
     expect(rows.map((row) => row.email).sort()).toEqual(demoScenario.accounts.map((account) => account.email).sort());
     for (const row of rows) {
@@ -47,25 +49,42 @@ describe('seedDemo on a migrated, empty database', () => {
   });
 
   it('creates the series catalogue with its hierarchy, units and temperature links', async () => {
-    const { rows } = await client.query<{ key: string; level: string | null; unit: string; parent: string | null; station: string | null; peer_group: string | null }>(`
+    const { rows } = await client.query<{
+      key: string;
+      level: string | null;
+      unit: string;
+      parent: string | null;
+      station: string | null;
+      peer_group: string | null;
+    }>(`
       select s.key, s.level, s.unit, p.key as parent, t.key as station, s.peer_group
       from series s left join series p on p.id = s.parent_id left join series t on t.id = s.temperature_series_id`);
     const byKey = new Map(rows.map((row) => [row.key, row]));
     expect(rows).toHaveLength(18);
     expect(byKey.get('sys')).toMatchObject({ level: 'system', unit: 'MW', parent: null });
     expect(byKey.get('zone-north')).toMatchObject({ level: 'zone', unit: 'MW', parent: 'sys', station: 'wx-upland' });
-    expect(byKey.get('fdr-s3')).toMatchObject({ level: 'feeder', unit: 'kW', parent: 'zone-south', station: 'wx-lowland', peer_group: 'rural-residential' });
+    expect(byKey.get('fdr-s3')).toMatchObject({
+      level: 'feeder',
+      unit: 'kW',
+      parent: 'zone-south',
+      station: 'wx-lowland',
+      peer_group: 'rural-residential',
+    });
     expect(byKey.get('wx-upland')).toMatchObject({ level: null, unit: 'degF', parent: null, station: null });
     for (const feeder of demoScenario.feeders) expect(byKey.get(feeder.key)?.parent).toBe(feeder.zoneKey);
   });
 
   it('gives every load series a default model spec and none to the stations', async () => {
-    const { rows } = await client.query('select s.kind, count(*)::int as n from model_specs m join series s on s.id = m.series_id group by s.kind');
+    const { rows } = await client.query(
+      'select s.kind, count(*)::int as n from model_specs m join series s on s.id = m.series_id group by s.kind',
+    );
     expect(rows).toEqual([{ kind: 'load', n: 16 }]);
   });
 
   it('stores the public holidays of the demo years from the holiday package', async () => {
-    const { rows } = await client.query<{ day: string; name: string }>(`select to_char(day, 'YYYY-MM-DD') as day, name from holidays where source = 'package' order by day`);
+    const { rows } = await client.query<{ day: string; name: string }>(
+      `select to_char(day, 'YYYY-MM-DD') as day, name from holidays where source = 'package' order by day`,
+    );
     expect(rows.length).toBeGreaterThanOrEqual(4 * 11);
     expect(rows).toContainEqual({ day: '2025-11-27', name: 'Thanksgiving Day' });
     expect(rows).toContainEqual({ day: '2026-07-03', name: 'Independence Day (substitute day)' });
@@ -111,7 +130,9 @@ describe('seedDemo under contention and failure', () => {
     expect(results.map((result) => result.seeded).sort()).toEqual([false, true]);
     const client = new pg.Client({ connectionString: url });
     await client.connect();
-    const { rows } = await client.query('select (select count(*) from organisation)::int as orgs, (select count(*) from observations)::int as readings');
+    const { rows } = await client.query(
+      'select (select count(*) from organisation)::int as orgs, (select count(*) from observations)::int as readings',
+    );
     await client.end();
     expect(rows[0]).toEqual({ orgs: 1, readings: expectedReadings });
   });
@@ -119,7 +140,10 @@ describe('seedDemo under contention and failure', () => {
   it('leaves nothing behind when a step fails part-way (given an open database rather than a URL)', async () => {
     const url = await createTestDatabase();
     // Two accounts whose e-mails differ only in case break the unique index after the organisation row is in.
-    const clash = { ...demoScenario, accounts: [demoScenario.accounts[0]!, { ...demoScenario.accounts[1]!, email: demoScenario.accounts[0]!.email.toUpperCase() }] };
+    const clash = {
+      ...demoScenario,
+      accounts: [demoScenario.accounts[0]!, { ...demoScenario.accounts[1]!, email: demoScenario.accounts[0]!.email.toUpperCase() }],
+    };
     const handle = createDb(url, { max: 1 });
     try {
       await expect(seedDemo(handle.db, { scenario: clash })).rejects.toMatchObject({ cause: { constraint: 'users_email_lower_key' } });
@@ -128,7 +152,9 @@ describe('seedDemo under contention and failure', () => {
     }
     const client = new pg.Client({ connectionString: url });
     await client.connect();
-    const { rows } = await client.query('select (select count(*) from organisation)::int as orgs, (select count(*) from users)::int as people, (select count(*) from series)::int as series');
+    const { rows } = await client.query(
+      'select (select count(*) from organisation)::int as orgs, (select count(*) from users)::int as people, (select count(*) from series)::int as series',
+    );
     await client.end();
     expect(rows[0]).toEqual({ orgs: 0, people: 0, series: 0 });
   });
@@ -147,4 +173,3 @@ async function readBack(client: pg.Client, like: DemoData): Promise<DemoData> {
   }
   return { ...like, series };
 }
-

@@ -23,7 +23,15 @@ beforeAll(async () => {
   tokens = await createTokens(server.db);
   const [system] = await server.db
     .insert(series)
-    .values({ key: 'gb-sys', name: 'Green Button system', kind: 'load', level: 'system', unit: 'MW', intervalMinutes: 60, timeZone: 'America/Chicago' })
+    .values({
+      key: 'gb-sys',
+      name: 'Green Button system',
+      kind: 'load',
+      level: 'system',
+      unit: 'MW',
+      intervalMinutes: 60,
+      timeZone: 'America/Chicago',
+    })
     .returning({ id: series.id });
   for (const body of [
     { key: 'gb-pump', name: 'Pump house', level: 'feeder', unit: 'kW', intervalMinutes: 60 },
@@ -43,8 +51,17 @@ beforeAll(async () => {
 afterAll(() => server.close());
 
 const importFile = (key: string, xml: string, contentType = 'application/atom+xml', token = tokens.readWrite) =>
-  request(server.url).post(`/api/series/${key}/green-button`).set('Authorization', `Bearer ${token}`).set('Content-Type', contentType).send(xml);
-const stored = (key: string) => server.db.select().from(observations).where(eq(observations.seriesId, ids.get(key)!)).orderBy(observations.ts);
+  request(server.url)
+    .post(`/api/series/${key}/green-button`)
+    .set('Authorization', `Bearer ${token}`)
+    .set('Content-Type', contentType)
+    .send(xml);
+const stored = (key: string) =>
+  server.db
+    .select()
+    .from(observations)
+    .where(eq(observations.seriesId, ids.get(key)!))
+    .orderBy(observations.ts);
 
 describe('Green Button import', () => {
   it('stores hourly Wh as mean kW at the right UTC instants across the spring-forward weekend, recording local time parameters', async () => {
@@ -73,16 +90,28 @@ describe('Green Button import', () => {
 
     const [upload] = await server.db.select().from(uploads).where(eq(uploads.id, response.body.uploadId));
     expect(upload).toMatchObject({ source: 'green_button', status: 'done', rowsImported: 47 });
-    expect(upload!.settings).toMatchObject({ greenButton: { localTime: { tzOffsetSeconds: -21600, dstOffsetSeconds: 3600 }, usagePoint: 'Pump house meter' } });
+    expect(upload!.settings).toMatchObject({
+      greenButton: { localTime: { tzOffsetSeconds: -21600, dstOffsetSeconds: 3600 }, usagePoint: 'Pump house meter' },
+    });
     // The upload list reads mapping and settings with the file-upload shapes.
     expect(uploadMappingSchema.parse(upload!.mapping)).toMatchObject({ layout: 'long', seriesKey: 'gb-pump' });
-    expect(uploadSettingsSchema.parse(upload!.settings)).toMatchObject({ unit: 'kW', timeZone: 'America/Chicago', timestampsMark: 'start' });
+    expect(uploadSettingsSchema.parse(upload!.settings)).toMatchObject({
+      unit: 'kW',
+      timeZone: 'America/Chicago',
+      timestampsMark: 'start',
+    });
     const audit = await server.db.select().from(auditLog).where(eq(auditLog.action, 'greenButton.imported'));
     expect(audit).toHaveLength(1);
 
     // The chart reads them back by local day: 24 hours on Saturday, 23 on the spring-forward Sunday.
-    const chart = await request(server.url).get('/api/series/gb-pump/readings').query({ from: '2026-03-07T06:00:00Z', to: '2026-03-09T05:00:00Z', resolution: 'day' }).set('Authorization', `Bearer ${tokens.read}`);
-    expect(chart.body.buckets.map((b: { day: string; count: number }) => [b.day, b.count])).toEqual([['2026-03-07', 24], ['2026-03-08', 23]]);
+    const chart = await request(server.url)
+      .get('/api/series/gb-pump/readings')
+      .query({ from: '2026-03-07T06:00:00Z', to: '2026-03-09T05:00:00Z', resolution: 'day' })
+      .set('Authorization', `Bearer ${tokens.read}`);
+    expect(chart.body.buckets.map((b: { day: string; count: number }) => [b.day, b.count])).toEqual([
+      ['2026-03-07', 24],
+      ['2026-03-08', 23],
+    ]);
   });
 
   it('applies the power-of-ten multiplier: 15-minute mWh becomes kW', async () => {
@@ -91,7 +120,16 @@ describe('Green Button import', () => {
     expect(response.body).toMatchObject({ inserted: 8, readingType: { powerOfTenMultiplier: -3, intervalLengthSeconds: 900 } });
     const rows = await stored('gb-quarter');
     // 381,250 mWh = 381.25 Wh in a quarter hour: 1,525 W mean demand.
-    expect(rows.map((r) => r.ts.toISOString().slice(11, 16))).toEqual(['14:00', '14:15', '14:30', '14:45', '15:00', '15:15', '15:30', '15:45']);
+    expect(rows.map((r) => r.ts.toISOString().slice(11, 16))).toEqual([
+      '14:00',
+      '14:15',
+      '14:30',
+      '14:45',
+      '15:00',
+      '15:15',
+      '15:30',
+      '15:45',
+    ]);
     const expected = [1.525, 1.61, 1.66, 1.595, 1.51, 1.44, 1.41, 1.399996];
     rows.forEach((row, i) => expect(row.value).toBeCloseTo(expected[i]!, 12));
   });
@@ -113,9 +151,17 @@ describe('Green Button import', () => {
 
   it.each([
     ['malformed XML', 'malformed-truncated.xml', /^The file is not well-formed XML: .+ \(line \d+, column \d+\)\.$/],
-    ['an unknown unit', 'unknown-unit-therms.xml', /^ReadingType uom 169 is not a unit Loadwright imports; use 72 \(Wh, energy per interval\) or 38 \(W, demand\)\.$/],
+    [
+      'an unknown unit',
+      'unknown-unit-therms.xml',
+      /^ReadingType uom 169 is not a unit Loadwright imports; use 72 \(Wh, energy per interval\) or 38 \(W, demand\)\.$/,
+    ],
     ['register reads', 'cumulative-register.xml', /accumulationBehaviour 3 is cumulative \(register reads\), not usage per interval/],
-    ['intervals of another length', 'fifteen-minute-milliwatt-hours.xml', /intervals are 900 s \(15 minutes\) long, starting 2026-06-15T14:00:00.000Z; gb-empty takes 60-minute readings/],
+    [
+      'intervals of another length',
+      'fifteen-minute-milliwatt-hours.xml',
+      /intervals are 900 s \(15 minutes\) long, starting 2026-06-15T14:00:00.000Z; gb-empty takes 60-minute readings/,
+    ],
   ])('refuses %s with a clear message and stores no row and no upload', async (_case, file, message) => {
     const uploadsBefore = (await server.db.select().from(uploads)).length;
     const response = await importFile('gb-empty', fixture(file));
@@ -127,9 +173,14 @@ describe('Green Button import', () => {
   });
 
   it('asks for an XML body when sent something else', async () => {
-    const json = await request(server.url).post('/api/series/gb-empty/green-button').set('Authorization', `Bearer ${tokens.readWrite}`).send({ xml: '<feed/>' });
+    const json = await request(server.url)
+      .post('/api/series/gb-empty/green-button')
+      .set('Authorization', `Bearer ${tokens.readWrite}`)
+      .send({ xml: '<feed/>' });
     expect(json.status).toBe(400);
-    expect(json.body.detail).toBe('Send the Green Button XML file as the request body with Content-Type application/xml or application/atom+xml.');
+    expect(json.body.detail).toBe(
+      'Send the Green Button XML file as the request body with Content-Type application/xml or application/atom+xml.',
+    );
   });
 
   it('refuses a file over the size limit with 413', async () => {

@@ -22,15 +22,34 @@ beforeAll(async () => {
 afterAll(() => server.close());
 
 type Point = { ts: string; value: number | null; estimated: number | null; quality: number; flags: string[] };
-type Bucket = { ts: string; day: string | null; mean: number; min: number; max: number; meanUsed: number; count: number; estimatedCount: number; quality: number; flags: string[] };
+type Bucket = {
+  ts: string;
+  day: string | null;
+  mean: number;
+  min: number;
+  max: number;
+  meanUsed: number;
+  count: number;
+  estimatedCount: number;
+  quality: number;
+  flags: string[];
+};
 
-const history = (ref: string | number, query: Record<string, string>) => request(server.url).get(`/api/series/${ref}/readings`).query(query).set('Cookie', viewer.cookie);
+const history = (ref: string | number, query: Record<string, string>) =>
+  request(server.url).get(`/api/series/${ref}/readings`).query(query).set('Cookie', viewer.cookie);
 
 describe('reading history', () => {
   it('returns each reading of a day with raw value, estimate and flags as stored (the demo spike on fdr-c2)', async () => {
     const response = await history('fdr-c2', { from: '2025-08-12T00:00:00Z', to: '2025-08-13T00:00:00Z' });
     expect(response.status).toBe(200);
-    expect(response.body).toMatchObject({ key: 'fdr-c2', unit: 'kW', resolution: 'interval', readingCount: 24, from: '2025-08-12T00:00:00.000Z', to: '2025-08-13T00:00:00.000Z' });
+    expect(response.body).toMatchObject({
+      key: 'fdr-c2',
+      unit: 'kW',
+      resolution: 'interval',
+      readingCount: 24,
+      from: '2025-08-12T00:00:00.000Z',
+      to: '2025-08-13T00:00:00.000Z',
+    });
     const points = response.body.points as Point[];
     expect(points).toHaveLength(24);
     const spike = points.find((p) => p.ts === '2025-08-12T21:00:00.000Z')!;
@@ -42,12 +61,18 @@ describe('reading history', () => {
       `select extract(epoch from ts)::float8 * 1000 as ms, value, quality, estimated from observations where series_id = $1 and ts >= '2025-08-12T00:00Z' and ts < '2025-08-13T00:00Z' order by ts`,
       [ids.get('fdr-c2')],
     );
-    expect(points.map((p) => [Date.parse(p.ts), p.value, p.estimated, p.quality])).toEqual(stored.rows.map((r) => [r.ms, r.value, r.estimated, r.quality]));
+    expect(points.map((p) => [Date.parse(p.ts), p.value, p.estimated, p.quality])).toEqual(
+      stored.rows.map((r) => [r.ms, r.value, r.estimated, r.quality]),
+    );
     expect(response.body.qualitySummary.spike).toBe(stored.rows.filter((r) => (r.quality & 4) !== 0).length);
   });
 
   it('shows the demo gap as absent readings', async () => {
-    const response = await history(ids.get('fdr-n2')!, { from: '2025-04-15T00:00:00Z', to: '2025-04-16T00:00:00Z', resolution: 'interval' });
+    const response = await history(ids.get('fdr-n2')!, {
+      from: '2025-04-15T00:00:00Z',
+      to: '2025-04-16T00:00:00Z',
+      resolution: 'interval',
+    });
     const times = (response.body.points as Point[]).map((p) => p.ts.slice(11, 13));
     expect(times).toHaveLength(21);
     expect(times).not.toContain('14');
@@ -57,7 +82,9 @@ describe('reading history', () => {
 
   it('aggregates two years by local day in the series time zone, with 23- and 25-hour days at the clock changes', async () => {
     const started = performance.now();
-    const response = await history('fdr-n1', { from: '2024-12-01T06:00:00Z', to: '2026-12-01T06:00:00Z' }).set('Authorization', `Bearer ${tokens.read}`).set('Cookie', '');
+    const response = await history('fdr-n1', { from: '2024-12-01T06:00:00Z', to: '2026-12-01T06:00:00Z' })
+      .set('Authorization', `Bearer ${tokens.read}`)
+      .set('Cookie', '');
     const elapsedMs = performance.now() - started;
     expect(response.status).toBe(200);
     expect(response.body.resolution).toBe('day');
@@ -87,7 +114,10 @@ describe('reading history', () => {
   it('ORs the flags of a day and counts each flag over the range', async () => {
     const id = ids.get('fdr-s1')!;
     // Mark readings of one day the way validation marks them: a spike with its estimated replacement, a flat line.
-    await server.pool.query(`update observations set quality = quality | 4 | 1, estimated = value / 2 where series_id = $1 and ts = '2026-02-03T07:00Z'`, [id]);
+    await server.pool.query(
+      `update observations set quality = quality | 4 | 1, estimated = value / 2 where series_id = $1 and ts = '2026-02-03T07:00Z'`,
+      [id],
+    );
     await server.pool.query(`update observations set quality = quality | 8 where series_id = $1 and ts = '2026-02-03T08:00Z'`, [id]);
     const response = await history('fdr-s1', { from: '2025-12-01T06:00:00Z', to: '2026-03-01T06:00:00Z' });
     expect(response.body.resolution).toBe('day');
@@ -101,7 +131,12 @@ describe('reading history', () => {
   it('picks hourly buckets for long ranges of sub-hourly series and interval points for short ones', async () => {
     const short = await history('fdr-n1', {});
     // Default: the last 30 days up to just after the newest reading.
-    expect(short.body).toMatchObject({ resolution: 'interval', to: '2026-12-01T00:00:00.000Z', from: '2026-11-01T00:00:00.000Z', readingCount: 30 * 24 });
+    expect(short.body).toMatchObject({
+      resolution: 'interval',
+      to: '2026-12-01T00:00:00.000Z',
+      from: '2026-11-01T00:00:00.000Z',
+      readingCount: 30 * 24,
+    });
     const hourly = await history('fdr-n1', { from: '2026-11-29T00:00:00Z', to: '2026-11-30T00:00:00Z', resolution: 'hour' });
     expect(hourly.body.resolution).toBe('hour');
     expect(hourly.body.buckets).toHaveLength(24);

@@ -28,7 +28,11 @@ async function freePort(): Promise<number> {
 function start(): { child: ChildProcess; output: () => string; exited: Promise<number | null> } {
   let text = '';
   const { DATABASE_URL: _ignored, ...rest } = process.env;
-  const child = spawn(process.execPath, ['--import', 'tsx', 'scripts/start.ts'], { cwd: repoRoot, env: { ...rest, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
+  const child = spawn(process.execPath, ['--import', 'tsx', 'scripts/start.ts'], {
+    cwd: repoRoot,
+    env: { ...rest, ...env },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
   child.stdout!.on('data', (chunk) => (text += chunk));
   child.stderr!.on('data', (chunk) => (text += chunk));
   const exited = new Promise<number | null>((done) => child.once('exit', (code) => done(code)));

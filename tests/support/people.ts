@@ -20,7 +20,10 @@ export async function createPeople(db: Database, suffix = ''): Promise<Record<Ro
   const result = {} as Record<Role, { id: number; email: string }>;
   for (const role of roles) {
     const email = `${role}${suffix}@test.example`;
-    const [row] = await db.insert(users).values({ email, displayName: `Test ${role}`, role, passwordHash }).returning({ id: users.id });
+    const [row] = await db
+      .insert(users)
+      .values({ email, displayName: `Test ${role}`, role, passwordHash })
+      .returning({ id: users.id });
     result[role] = { id: row!.id, email };
   }
   return result;

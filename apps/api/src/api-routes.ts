@@ -20,7 +20,14 @@ const version = process.env['npm_package_version'] ?? '0.1.0';
 
 /** All routes, including the one that describes them. */
 export function apiRoutes(context: AppContext): RouteDefinition[] {
-  const routes = [...healthRoutes(context), ...authRoutes(context), ...peopleRoutes(context), ...tokenRoutes(context), ...auditRoutes(context), ...outboxRoutes(context)];
+  const routes = [
+    ...healthRoutes(context),
+    ...authRoutes(context),
+    ...peopleRoutes(context),
+    ...tokenRoutes(context),
+    ...auditRoutes(context),
+    ...outboxRoutes(context),
+  ];
   routes.push(...forecastRoutes(context));
   routes.push(...modelRoutes(context), ...refitRoutes(context));
   routes.push(...seriesRoutes(context), ...readingsRoutes(context));

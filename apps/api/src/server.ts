@@ -14,7 +14,8 @@ const repoRoot = resolve(import.meta.dirname, '../../..');
 export async function startServer(config: Config) {
   const logger = pino({ level: config.LOG_LEVEL, name: 'api' });
   if (!config.DATABASE_URL) throw new ConfigError('Invalid configuration:\n  DATABASE_URL is required by the API (npm start sets it)');
-  if (!config.SMTP_URL) throw new ConfigError('Invalid configuration:\n  SMTP_URL is required by the API (npm start runs a local mail catcher and sets it)');
+  if (!config.SMTP_URL)
+    throw new ConfigError('Invalid configuration:\n  SMTP_URL is required by the API (npm start runs a local mail catcher and sets it)');
   let secret = config.SESSION_SECRET;
   if (!secret) {
     logger.warn('SESSION_SECRET is not set: using a random one, so sessions end when this process restarts');

@@ -61,7 +61,14 @@ export const backtestCommand: Command = async (context) => {
       const forecast = forecastLoadModel(fitted, future, h, levels);
       return { mean: forecast.mean, intervals: forecast.intervals };
     };
-    model = { method: input.spec.method, p: input.spec.p, q: input.spec.q, seasonal: input.spec.seasonal, log: input.spec.log, weather: temperature ? 'observed' : null };
+    model = {
+      method: input.spec.method,
+      p: input.spec.p,
+      q: input.spec.q,
+      seasonal: input.spec.seasonal,
+      log: input.spec.log,
+      weather: temperature ? 'observed' : null,
+    };
   } else {
     const spec = readFitSpec(values);
     x = (await loadInputSeries(values.input, context)).values;

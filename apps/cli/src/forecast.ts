@@ -22,14 +22,21 @@ function intervalsJson(intervals: PredictionInterval[]): Record<string, { lower:
 
 /** Runs `forecast`. */
 export const forecastCommand: Command = async (context) => {
-  const values = parseOptions(context.args, { ...fitOptionConfig, ...loadModelOptionConfig, horizon: { type: 'string' }, levels: { type: 'string' } });
+  const values = parseOptions(context.args, {
+    ...fitOptionConfig,
+    ...loadModelOptionConfig,
+    horizon: { type: 'string' },
+    levels: { type: 'string' },
+  });
   const horizon = integerOption('horizon', values.horizon, 1);
   const levels = levelsOption(values.levels);
   if (wantsLoadModel(values)) {
     const { model, series } = await runLoadModel(values, context);
     const future = series.futureTemperature;
     if (model.spec.temperature && (!future || future.length < horizon)) {
-      throw new InputError(`temperature forecasts needed: add ${horizon} rows after the last observation with an empty value and the temperature (found ${future?.length ?? 0})`);
+      throw new InputError(
+        `temperature forecasts needed: add ${horizon} rows after the last observation with an empty value and the temperature (found ${future?.length ?? 0})`,
+      );
     }
     const forecast = forecastLoadModel(model, { temperature: future ?? undefined }, horizon, levels);
     return {
@@ -46,5 +53,10 @@ export const forecastCommand: Command = async (context) => {
   const fit = fitSeries(series.values, spec);
   // The fit's own residuals carry the MA terms, as the estimator computed them.
   const forecast = forecastArma(fit, series.values, horizon, fit.residuals);
-  return { fit: fitJson(fit), mean: Array.from(forecast.mean), se: Array.from(forecast.se), intervals: intervalsJson(predictionIntervals(forecast, levels)) };
+  return {
+    fit: fitJson(fit),
+    mean: Array.from(forecast.mean),
+    se: Array.from(forecast.se),
+    intervals: intervalsJson(predictionIntervals(forecast, levels)),
+  };
 };

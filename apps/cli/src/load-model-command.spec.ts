@@ -13,7 +13,10 @@ const observed = 24 * 7 * 6;
 const future = 48;
 const start = Date.UTC(2026, 0, 5, 6);
 const noise = simulateArma({ mean: 0, ar: [0.8], ma: [], sigma2: 4 }, observed + future, 5);
-const temperature = Array.from({ length: observed + future }, (_, t) => 5 + 8 * Math.sin((2 * Math.PI * (t - 8)) / 24) + 6 * Math.sin((2 * Math.PI * t) / (24 * 9.3)));
+const temperature = Array.from(
+  { length: observed + future },
+  (_, t) => 5 + 8 * Math.sin((2 * Math.PI * (t - 8)) / 24) + 6 * Math.sin((2 * Math.PI * t) / (24 * 9.3)),
+);
 const load = temperature.map((temp, t) => 100 + 20 * Math.sin((2 * Math.PI * (t - 6)) / 24) + 1.5 * Math.max(0, 15.5 - temp) + noise[t]);
 const csv = [
   'timestamp,value,temp',
@@ -33,7 +36,23 @@ const spec: LoadModelSpec = {
   holidays: null,
   timeZone: 'UTC',
 };
-const args = ['forecast', '--method', 'cmle', '--p', '2', '--seasonal', 'profile', '--period', '24', '--temperature-column', 'temp', '--horizon', '48', '--input', file];
+const args = [
+  'forecast',
+  '--method',
+  'cmle',
+  '--p',
+  '2',
+  '--seasonal',
+  'profile',
+  '--period',
+  '24',
+  '--temperature-column',
+  'temp',
+  '--horizon',
+  '48',
+  '--input',
+  file,
+];
 
 describe('loadwright forecast with seasonal and temperature options', { timeout: 60_000 }, () => {
   it('prints what the engine load-model pipeline gives for the same spec and data, with timestamps', () => {
@@ -73,8 +92,25 @@ describe('loadwright forecast with seasonal and temperature options', { timeout:
   it('backtests the pipeline: 3 day-ahead windows of 48 hours beat seasonal naive and report daily peaks', () => {
     // Observed rows only (the forecast hours have no actuals to score).
     const observedFile = join(mkdtempSync(join(tmpdir(), 'loadwright-load-')), 'observed.csv');
-    writeFileSync(observedFile, csv.split('\n').slice(0, observed + 1).join('\n'));
-    const run = runLoadwright(['backtest', ...args.slice(1, -4), '--horizon', '48', '--origins', '3', '--season', '24', '--input', observedFile]);
+    writeFileSync(
+      observedFile,
+      csv
+        .split('\n')
+        .slice(0, observed + 1)
+        .join('\n'),
+    );
+    const run = runLoadwright([
+      'backtest',
+      ...args.slice(1, -4),
+      '--horizon',
+      '48',
+      '--origins',
+      '3',
+      '--season',
+      '24',
+      '--input',
+      observedFile,
+    ]);
     expect(run.status, run.stderr).toBe(0);
     const out = JSON.parse(run.stdout);
     expect(out.origins).toEqual([observed - 144, observed - 96, observed - 48]);

@@ -33,13 +33,17 @@ export function wantsLoadModel(values: Record<string, string | boolean | undefin
 export function readLoadModelSpec(values: Record<string, string | boolean | undefined>, fit: FitSpec | null): LoadModelSpec {
   const text = (name: string) => values[name] as string | undefined;
   const kind = choiceOption('seasonal', text('seasonal'), ['none', 'profile', 'difference'] as const, 'none');
-  const period = kind === 'none' ? undefined : Number(choiceOption('period', text('period'), ['24', '168'] as const, '168')) as 24 | 168;
+  const period = kind === 'none' ? undefined : (Number(choiceOption('period', text('period'), ['24', '168'] as const, '168')) as 24 | 168);
   if (kind !== 'profile' && text('profile-form') !== undefined) throw new InputError('--profile-form applies to --seasonal profile only');
   const seasonal: SeasonalSpec =
     kind === 'none'
       ? { kind: 'none' }
       : kind === 'profile'
-        ? { kind: 'profile', period: period!, form: choiceOption('profile-form', text('profile-form'), ['additive', 'multiplicative'] as const, 'additive') }
+        ? {
+            kind: 'profile',
+            period: period!,
+            form: choiceOption('profile-form', text('profile-form'), ['additive', 'multiplicative'] as const, 'additive'),
+          }
         : { kind: 'difference', lag: period! };
   const temperatureColumn = text('temperature-column');
   if (temperatureColumn === undefined && (text('heating-base') !== undefined || text('cooling-base') !== undefined)) {

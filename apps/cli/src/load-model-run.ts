@@ -25,7 +25,10 @@ export interface LoadModelRun extends LoadModelInput {
 }
 
 /** Reads the options and the input for the load-model pipeline. */
-export async function readLoadModelInput(values: Record<string, string | boolean | undefined>, context: CommandContext): Promise<LoadModelInput> {
+export async function readLoadModelInput(
+  values: Record<string, string | boolean | undefined>,
+  context: CommandContext,
+): Promise<LoadModelInput> {
   const naive = values['method'] === 'seasonal-naive';
   if (naive && (values['p'] !== undefined || values['q'] !== undefined)) throw new InputError('seasonal-naive takes no --p or --q');
   const spec = readLoadModelSpec(values, naive ? null : readFitSpec(values));
@@ -68,7 +71,9 @@ export function loadModelJson(model: FittedLoadModel): { fit: FitJson | null; lo
       dayTypes: spec.dayTypes,
       holidays: spec.holidays,
       regression: model.regression,
-      profile: model.profile ? { ...model.profile, effect: Array.from(model.profile.effect), count: Array.from(model.profile.count) } : null,
+      profile: model.profile
+        ? { ...model.profile, effect: Array.from(model.profile.effect), count: Array.from(model.profile.count) }
+        : null,
       seasonalNaive: model.seasonalNaive,
       lastTimestamp: new Date(model.lastTimestamp).toISOString(),
     },

@@ -19,9 +19,26 @@ describe('loadwright fit', { timeout: 60_000 }, () => {
     expect(run.status, run.stderr).toBe(0);
     const fit = JSON.parse(run.stdout);
     const lm = reference.ols['2'].lm_ols;
-    expect(Object.keys(fit)).toEqual(['method', 'p', 'q', 'n', 'mean', 'ar', 'ma', 'sigma2', 'stderr', 'loglik', 'aic', 'bic', 'converged', 'iterations']);
+    expect(Object.keys(fit)).toEqual([
+      'method',
+      'p',
+      'q',
+      'n',
+      'mean',
+      'ar',
+      'ma',
+      'sigma2',
+      'stderr',
+      'loglik',
+      'aic',
+      'bic',
+      'converged',
+      'iterations',
+    ]);
     expect(maxRelativeDifference(fit.ar, lm.ar)).toBeLessThan(1e-8);
-    expect(maxRelativeDifference([fit.mean, fit.sigma2, fit.loglik], [lm.implied_mean, lm.sigma2_divisor_n_minus_p, lm.cond_loglik_at_mle])).toBeLessThan(1e-8);
+    expect(
+      maxRelativeDifference([fit.mean, fit.sigma2, fit.loglik], [lm.implied_mean, lm.sigma2_divisor_n_minus_p, lm.cond_loglik_at_mle]),
+    ).toBeLessThan(1e-8);
     expect(maxRelativeDifference(fit.stderr.ar, lm.coef_se_unbiased.slice(1))).toBeLessThan(1e-8);
     expect([fit.converged, fit.iterations, fit.n, fit.q]).toEqual([null, null, 48, 0]);
   });

@@ -18,7 +18,8 @@ export function integerOption(name: string, raw: string | undefined, min: number
 export function numberOption(name: string, raw: string | undefined, min: number): number | undefined {
   if (raw === undefined) return undefined;
   const value = Number(raw);
-  if (raw.trim() === '' || !Number.isFinite(value) || value < min) throw new InputError(`--${name} must be a number ≥ ${min}, got "${raw}"`);
+  if (raw.trim() === '' || !Number.isFinite(value) || value < min)
+    throw new InputError(`--${name} must be a number ≥ ${min}, got "${raw}"`);
   return value;
 }
 
@@ -36,7 +37,8 @@ export function choiceOption<T extends string>(name: string, raw: string | undef
 export function levelsOption(raw: string | undefined): number[] {
   const text = raw ?? '80,95';
   const levels = text.split(',').map((part) => Number(part.trim()));
-  if (levels.some((level) => !(level > 0 && level < 100))) throw new InputError(`--levels must be percentages between 0 and 100 separated by commas, got "${text}"`);
+  if (levels.some((level) => !(level > 0 && level < 100)))
+    throw new InputError(`--levels must be percentages between 0 and 100 separated by commas, got "${text}"`);
   return levels;
 }
 

@@ -31,7 +31,9 @@ describe('parseSeries', () => {
   it('names the line of a bad value, timestamp or temperature', () => {
     expect(() => parseSeries('value\n1\n\n2\nx\n', 'f.csv')).toThrow(/line 4 has value "x"/);
     expect(() => parseSeries('timestamp,value\nsoon,1\n', 'f.csv')).toThrow(/line 2 has timestamp "soon"/);
-    expect(() => parseSeries('timestamp,value,t\n2026-01-01T00:00Z,1,\n', 'f.csv', { temperatureColumn: 't' })).toThrow(/line 2 has temperature ""/);
+    expect(() => parseSeries('timestamp,value,t\n2026-01-01T00:00Z,1,\n', 'f.csv', { temperatureColumn: 't' })).toThrow(
+      /line 2 has temperature ""/,
+    );
     expect(() => parseSeries('value\n1\n\n', 'f.csv')).not.toThrow();
   });
 

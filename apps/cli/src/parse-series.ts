@@ -46,7 +46,8 @@ function parseJsonArray(text: string, source: string): InputSeries {
   if (!Array.isArray(data)) throw new InputError(`${source} must be a JSON array of numbers`);
   const values = new Float64Array(data.length);
   data.forEach((v, i) => {
-    if (typeof v !== 'number' || !Number.isFinite(v)) throw new InputError(`${source}: element ${i} is ${JSON.stringify(v)}, not a finite number`);
+    if (typeof v !== 'number' || !Number.isFinite(v))
+      throw new InputError(`${source}: element ${i} is ${JSON.stringify(v)}, not a finite number`);
     values[i] = v;
   });
   return { values, timestamps: null, temperature: null, futureTemperature: null };
@@ -61,14 +62,18 @@ function parseCsv(text: string, source: string, options: ParseOptions): InputSer
   }
   const [header, ...body] = rows;
   if (header.some((cell) => cell !== '' && Number.isFinite(Number(cell)))) {
-    throw new InputError(`${source}: the first line (${header.join(', ')}) looks like data; CSV input needs a header row such as "timestamp,value"`);
+    throw new InputError(
+      `${source}: the first line (${header.join(', ')}) looks like data; CSV input needs a header row such as "timestamp,value"`,
+    );
   }
   const names = header.map((h) => h.toLowerCase());
   let valueColumn = names.indexOf('value');
   if (valueColumn < 0) {
     const others = names.filter((name) => name !== 'timestamp');
     if (header.length !== 1 || others.length !== 1) {
-      throw new InputError(`${source}: the header (${header.join(', ')}) has no "value" column; name the series column "value" or give a single column`);
+      throw new InputError(
+        `${source}: the header (${header.join(', ')}) has no "value" column; name the series column "value" or give a single column`,
+      );
     }
     valueColumn = 0;
   }
@@ -93,7 +98,8 @@ function parseCsv(text: string, source: string, options: ParseOptions): InputSer
     }
     if (timestamps) {
       const time = Date.parse(row[timestampColumn]);
-      if (!Number.isFinite(time)) throw new InputError(`${source}: line ${line} has timestamp "${row[timestampColumn]}", not an ISO 8601 date-time`);
+      if (!Number.isFinite(time))
+        throw new InputError(`${source}: line ${line} has timestamp "${row[timestampColumn]}", not an ISO 8601 date-time`);
       timestamps[i] = time;
     }
     if (temperature) {

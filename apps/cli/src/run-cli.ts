@@ -30,7 +30,8 @@ export async function runCli(argv: string[], readStdin: () => Promise<string | n
     return { exitCode: name === undefined ? 2 : 0, stdout: name === undefined ? '' : usage, stderr: name === undefined ? usage : '' };
   }
   const command = commands[name];
-  if (!command) return { exitCode: 2, stdout: '', stderr: `loadwright: unknown command "${name}"; expected fit, forecast, select or backtest\n` };
+  if (!command)
+    return { exitCode: 2, stdout: '', stderr: `loadwright: unknown command "${name}"; expected fit, forecast, select or backtest\n` };
   try {
     const result = await command({ args, readStdin });
     return { exitCode: 0, stdout: `${JSON.stringify(result)}\n`, stderr: '' };

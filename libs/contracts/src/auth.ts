@@ -2,7 +2,11 @@ import { z } from 'zod';
 import { permissionTable, roles, type Permission } from './permissions';
 
 /** An e-mail address as people type it; compared without regard to letter case. */
-export const emailSchema = z.string().trim().max(254, 'Use at most 254 characters').pipe(z.email('Enter a valid e-mail address, e.g. name@utility.example'));
+export const emailSchema = z
+  .string()
+  .trim()
+  .max(254, 'Use at most 254 characters')
+  .pipe(z.email('Enter a valid e-mail address, e.g. name@utility.example'));
 
 /** A new password: length is what counts (NIST SP 800-63B §5.1.1.2). */
 export const newPasswordSchema = z.string().min(12, 'Use at least 12 characters').max(256, 'Use at most 256 characters');
@@ -17,7 +21,10 @@ export const sessionInfoSchema = z.object({
 });
 
 /** POST /api/auth/password: change one's own password. */
-export const changePasswordRequestSchema = z.object({ currentPassword: z.string().min(1, 'Enter your current password'), newPassword: newPasswordSchema });
+export const changePasswordRequestSchema = z.object({
+  currentPassword: z.string().min(1, 'Enter your current password'),
+  newPassword: newPasswordSchema,
+});
 
 /** POST /api/auth/forgot-password */
 export const forgotPasswordRequestSchema = z.object({ email: emailSchema });

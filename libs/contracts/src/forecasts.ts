@@ -277,9 +277,12 @@ export const createAdjustmentRequestSchema = z
     reason: z.string().trim().min(5, 'Give a reason of at least 5 characters').max(500),
   })
   .superRefine((value, ctx) => {
-    if (Date.parse(value.to) <= Date.parse(value.from)) ctx.addIssue({ code: 'custom', path: ['to'], message: 'End the period after it starts' });
-    if (value.kind === 'scale' && !(value.amount > 0)) ctx.addIssue({ code: 'custom', path: ['amount'], message: 'A scale factor must be greater than 0 (1.1 raises by 10 %)' });
-    if (value.kind === 'shift' && value.amount === 0) ctx.addIssue({ code: 'custom', path: ['amount'], message: 'A shift of 0 changes nothing' });
+    if (Date.parse(value.to) <= Date.parse(value.from))
+      ctx.addIssue({ code: 'custom', path: ['to'], message: 'End the period after it starts' });
+    if (value.kind === 'scale' && !(value.amount > 0))
+      ctx.addIssue({ code: 'custom', path: ['amount'], message: 'A scale factor must be greater than 0 (1.1 raises by 10 %)' });
+    if (value.kind === 'shift' && value.amount === 0)
+      ctx.addIssue({ code: 'custom', path: ['amount'], message: 'A shift of 0 changes nothing' });
   });
 
 /** POST /api/forecast-approvals/preview: the series to summarise, by list or by group. */
@@ -289,7 +292,10 @@ export const approvalPreviewRequestSchema = z
     /** A hierarchy node: it and all its descendants. */
     parentId: z.number().int().positive().optional(),
   })
-  .refine((value) => (value.seriesIds === undefined) !== (value.parentId === undefined), { message: 'Send either seriesIds or parentId', path: ['seriesIds'] });
+  .refine((value) => (value.seriesIds === undefined) !== (value.parentId === undefined), {
+    message: 'Send either seriesIds or parentId',
+    path: ['seriesIds'],
+  });
 
 /** A version's peak over its whole horizon. */
 export const horizonPeakSchema = z.object({
@@ -304,9 +310,22 @@ export const horizonPeakSchema = z.object({
 export const approvalPreviewItemSchema = z.object({
   series: forecastSeriesSchema,
   draft: z
-    .object({ versionId: z.number().int(), issuedAt: z.iso.datetime(), origin: z.iso.datetime(), adjustmentCount: z.number().int(), peak: horizonPeakSchema.nullable() })
+    .object({
+      versionId: z.number().int(),
+      issuedAt: z.iso.datetime(),
+      origin: z.iso.datetime(),
+      adjustmentCount: z.number().int(),
+      peak: horizonPeakSchema.nullable(),
+    })
     .nullable(),
-  approved: z.object({ versionId: z.number().int(), approvedAt: z.iso.datetime().nullable(), origin: z.iso.datetime(), peak: horizonPeakSchema.nullable() }).nullable(),
+  approved: z
+    .object({
+      versionId: z.number().int(),
+      approvedAt: z.iso.datetime().nullable(),
+      origin: z.iso.datetime(),
+      peak: horizonPeakSchema.nullable(),
+    })
+    .nullable(),
   /** draft peak − approved peak over each one's horizon; null unless both exist. */
   peakDifference: z.number().nullable(),
   peakDifferencePercent: z.number().nullable(),
@@ -346,12 +365,14 @@ export const approvalResultSchema = z.object({
 });
 
 /** Splits `a,b` (or repeated query parameters) into a list. */
-const listParameter = z.preprocess((value) => (Array.isArray(value) ? value.join(',') : value), z.string().max(100_000)).transform((value) =>
-  value
-    .split(',')
-    .map((part) => part.trim())
-    .filter(Boolean),
-);
+const listParameter = z
+  .preprocess((value) => (Array.isArray(value) ? value.join(',') : value), z.string().max(100_000))
+  .transform((value) =>
+    value
+      .split(',')
+      .map((part) => part.trim())
+      .filter(Boolean),
+  );
 
 /**
  * GET /api/exports/forecasts.csv and /api/exports/forecasts: approved forecasts of one or more series
@@ -367,7 +388,11 @@ export const forecastExportQuerySchema = z
       .optional()
       .describe('Series ids, comma-separated, e.g. 12,14'),
     parent: z.coerce.number().int().positive().optional().describe('A hierarchy node: it and all its descendants'),
-    tz: z.string().default('UTC').refine(isKnownTimeZone, 'Use UTC or an IANA time zone such as America/Chicago').describe('UTC (default) or an IANA time zone, e.g. America/Chicago'),
+    tz: z
+      .string()
+      .default('UTC')
+      .refine(isKnownTimeZone, 'Use UTC or an IANA time zone such as America/Chicago')
+      .describe('UTC (default) or an IANA time zone, e.g. America/Chicago'),
     levels: z
       .preprocess((value) => value ?? forecastIntervalLevels.join(','), listParameter)
       .transform((parts) => parts.map(Number))
@@ -380,7 +405,10 @@ export const forecastExportQuerySchema = z
       .optional()
       .describe('Only series at these hierarchy levels, comma-separated: system, zone, substation, feeder'),
   })
-  .refine((value) => value.series === undefined || value.parent === undefined, { message: 'Send series or parent, not both', path: ['parent'] });
+  .refine((value) => value.series === undefined || value.parent === undefined, {
+    message: 'Send series or parent, not both',
+    path: ['parent'],
+  });
 
 /** What an export link asks for; see forecastExportQuerySchema. */
 export interface ForecastExportLink {

@@ -100,7 +100,11 @@ export const modelSettingsRequestSchema = modelSettingsFieldsSchema.superRefine(
     ctx.addIssue({ code: 'custom', path: ['arOrder'], message: 'The AR order must not exceed the largest AR order' });
   }
   if (s.method === 'seasonal-naive' && s.seasonal.kind === 'profile') {
-    ctx.addIssue({ code: 'custom', path: ['seasonal'], message: 'Seasonal naive repeats last week (or yesterday with 24-hour differencing): choose no seasonal step or differencing' });
+    ctx.addIssue({
+      code: 'custom',
+      path: ['seasonal'],
+      message: 'Seasonal naive repeats last week (or yesterday with 24-hour differencing): choose no seasonal step or differencing',
+    });
   }
 });
 

@@ -189,17 +189,42 @@ const seriesFields = {
 };
 
 /** Checks the rules that tie fields of one series together (the ones that need no database). */
-function checkKindRules(value: { kind?: SeriesKind; unit?: SeriesUnit; level?: SeriesLevel | null; parentId?: number | null; temperatureSeriesId?: number | null }, context: z.RefinementCtx): void {
+function checkKindRules(
+  value: {
+    kind?: SeriesKind;
+    unit?: SeriesUnit;
+    level?: SeriesLevel | null;
+    parentId?: number | null;
+    temperatureSeriesId?: number | null;
+  },
+  context: z.RefinementCtx,
+): void {
   const { kind, unit, level } = value;
   if (kind && unit && !unitsByKind[kind].includes(unit)) {
-    context.addIssue({ code: 'custom', path: ['unit'], message: `A ${kind} series is stored in ${unitsByKind[kind].join(', ')}, not ${unit}` });
+    context.addIssue({
+      code: 'custom',
+      path: ['unit'],
+      message: `A ${kind} series is stored in ${unitsByKind[kind].join(', ')}, not ${unit}`,
+    });
   }
   if (kind === 'load' && level === undefined) return; // a partial update may keep the stored level
-  if (kind === 'load' && !level) context.addIssue({ code: 'custom', path: ['level'], message: 'A load series needs a level: system, zone, substation or feeder' });
+  if (kind === 'load' && !level)
+    context.addIssue({ code: 'custom', path: ['level'], message: 'A load series needs a level: system, zone, substation or feeder' });
   if (kind === 'temperature') {
-    if (level) context.addIssue({ code: 'custom', path: ['level'], message: 'A temperature series has no level: it sits outside the network hierarchy' });
-    if (value.parentId) context.addIssue({ code: 'custom', path: ['parentId'], message: 'A temperature series has no parent: it sits outside the network hierarchy' });
-    if (value.temperatureSeriesId) context.addIssue({ code: 'custom', path: ['temperatureSeriesId'], message: 'Only load series link to a temperature series' });
+    if (level)
+      context.addIssue({
+        code: 'custom',
+        path: ['level'],
+        message: 'A temperature series has no level: it sits outside the network hierarchy',
+      });
+    if (value.parentId)
+      context.addIssue({
+        code: 'custom',
+        path: ['parentId'],
+        message: 'A temperature series has no parent: it sits outside the network hierarchy',
+      });
+    if (value.temperatureSeriesId)
+      context.addIssue({ code: 'custom', path: ['temperatureSeriesId'], message: 'Only load series link to a temperature series' });
   }
 }
 

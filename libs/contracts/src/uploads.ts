@@ -61,7 +61,8 @@ export type ValidationRule = (typeof validationRules)[number];
 /** What each rule means, for the report's headings. */
 export const validationRuleDescriptions: Record<ValidationRule, string> = {
   gap: 'Missing intervals between readings (short gaps are estimated, longer ones only reported)',
-  spike: 'Reading far from its neighbours (Hampel identifier: more than 6 robust standard deviations from the median of the 13 readings around it)',
+  spike:
+    'Reading far from its neighbours (Hampel identifier: more than 6 robust standard deviations from the median of the 13 readings around it)',
   flat_line: 'Identical values for longer than the limit (6 hours for load, 12 for temperature)',
   negative: 'Load below zero',
   impossible: 'Beyond what the series can physically read (load over 10× its robust maximum; temperature outside −60…60 °C)',

@@ -46,15 +46,15 @@ describe('generated migrations', () => {
   const snapshot = latestSnapshot();
 
   it('cover exactly the tables the schema declares (run `npx drizzle-kit generate` after a schema change)', () => {
-    const inSnapshot = Object.values(snapshot.tables).map((t) => t.name).sort();
+    const inSnapshot = Object.values(snapshot.tables)
+      .map((t) => t.name)
+      .sort();
     expect(inSnapshot).toEqual(tables.map((t) => t.name).sort());
   });
 
   it.each(tables.map((t) => [t.name, t] as const))('match the columns, indexes and checks of %s', (name, table) => {
     const stored = snapshot.tables[`public.${name}`]!;
-    expect(Object.values(stored.columns).map((c) => [c.name, c.notNull])).toEqual(
-      table.columns.map((c) => [c.name, c.notNull]),
-    );
+    expect(Object.values(stored.columns).map((c) => [c.name, c.notNull])).toEqual(table.columns.map((c) => [c.name, c.notNull]));
     expect(Object.keys(stored.indexes).sort()).toEqual(table.indexes.map((i) => i.config.name).sort());
     expect(Object.keys(stored.checkConstraints).sort()).toEqual(table.checks.map((c) => c.name).sort());
   });

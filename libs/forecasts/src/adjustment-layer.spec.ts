@@ -2,8 +2,21 @@ import { describe, expect, it } from 'vitest';
 import { adjustPoints, type AdjustmentRule, type ModelPoint } from './adjustment-layer';
 
 const at = (hour: number) => new Date(Date.UTC(2026, 11, 1, hour));
-const point = (hour: number, mean: number): ModelPoint => ({ ts: at(hour), mean, lower80: mean - 10, upper80: mean + 10, lower95: mean - 20, upper95: mean + 20 });
-const rule = (id: number, kind: 'shift' | 'scale', amount: number, from: number, to: number): AdjustmentRule => ({ id, kind, amount, periodStart: at(from), periodEnd: at(to) });
+const point = (hour: number, mean: number): ModelPoint => ({
+  ts: at(hour),
+  mean,
+  lower80: mean - 10,
+  upper80: mean + 10,
+  lower95: mean - 20,
+  upper95: mean + 20,
+});
+const rule = (id: number, kind: 'shift' | 'scale', amount: number, from: number, to: number): AdjustmentRule => ({
+  id,
+  kind,
+  amount,
+  periodStart: at(from),
+  periodEnd: at(to),
+});
 
 describe('adjustment layer', () => {
   it('leaves uncovered intervals alone and treats the period as [from, to)', () => {

@@ -63,7 +63,13 @@ export function effectAt(rules: readonly AdjustmentRule[], ts: Date): Effect | n
 /** A band after an effect: every number scaled by the factor, then moved by the shift. */
 export function applyEffect(band: Band, effect: Effect): Band {
   const move = (value: number) => value * effect.factor + effect.shift;
-  return { mean: move(band.mean), lower80: move(band.lower80), upper80: move(band.upper80), lower95: move(band.lower95), upper95: move(band.upper95) };
+  return {
+    mean: move(band.mean),
+    lower80: move(band.lower80),
+    upper80: move(band.upper80),
+    lower95: move(band.lower95),
+    upper95: move(band.upper95),
+  };
 }
 
 /** Each point's adjusted band, or null where no adjustment covers it. */

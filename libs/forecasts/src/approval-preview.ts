@@ -28,7 +28,10 @@ export async function previewApprovals(db: Database, request: ApprovalPreviewReq
 
 /** Preview items of some series: their current draft and approved versions compared. */
 async function previewBatch(db: Database, inScope: ForecastSeries[]): Promise<ApprovalPreviewItem[]> {
-  const versions = await currentVersions(db, inScope.map((row) => row.id));
+  const versions = await currentVersions(
+    db,
+    inScope.map((row) => row.id),
+  );
   const ids = versions.map((row) => row.id);
   const [points, adjustments] = await Promise.all([pointsOf(db, ids), adjustmentsOf(db, ids)]);
 
@@ -42,8 +45,23 @@ async function previewBatch(db: Database, inScope: ForecastSeries[]): Promise<Ap
     const bothPeaks = draftPeak !== null && approvedPeak !== null;
     return {
       series: seriesRow,
-      draft: draft ? { versionId: draft.id, issuedAt: draft.issuedAt.toISOString(), origin: draft.origin.toISOString(), adjustmentCount: draft.adjustmentCount, peak: draftPeak } : null,
-      approved: approved ? { versionId: approved.id, approvedAt: approved.approvedAt?.toISOString() ?? null, origin: approved.origin.toISOString(), peak: approvedPeak } : null,
+      draft: draft
+        ? {
+            versionId: draft.id,
+            issuedAt: draft.issuedAt.toISOString(),
+            origin: draft.origin.toISOString(),
+            adjustmentCount: draft.adjustmentCount,
+            peak: draftPeak,
+          }
+        : null,
+      approved: approved
+        ? {
+            versionId: approved.id,
+            approvedAt: approved.approvedAt?.toISOString() ?? null,
+            origin: approved.origin.toISOString(),
+            peak: approvedPeak,
+          }
+        : null,
       peakDifference: bothPeaks ? draftPeak.value - approvedPeak.value : null,
       peakDifferencePercent: bothPeaks ? percentDifference(draftPeak.value, approvedPeak.value) : null,
       energy: draft && approved ? energyDifference(draftValues, approvedValues, seriesRow.intervalMinutes) : null,

@@ -1,14 +1,26 @@
 import { describe, expect, it } from 'vitest';
 import { dailyPeaks, horizonPeak } from './daily-peaks';
 
-const hourly = (startIso: string, values: number[]) => values.map((value, i) => ({ ts: new Date(Date.parse(startIso) + i * 3_600_000), value }));
+const hourly = (startIso: string, values: number[]) =>
+  values.map((value, i) => ({ ts: new Date(Date.parse(startIso) + i * 3_600_000), value }));
 
 describe('daily peaks', () => {
   it('groups by local date, reports local time and offset, and knows a 25-hour day is complete', () => {
     // Local midnight 2026-11-01 CDT is 05:00Z; the day has 25 hours. Peak at the second 01:00 (07:00Z, CST).
-    const values = hourly('2026-11-01T05:00:00Z', Array.from({ length: 25 }, (_, i) => (i === 2 ? 50 : 10)));
+    const values = hourly(
+      '2026-11-01T05:00:00Z',
+      Array.from({ length: 25 }, (_, i) => (i === 2 ? 50 : 10)),
+    );
     const [peak] = dailyPeaks(values, 'America/Chicago', 60);
-    expect(peak).toEqual({ date: '2026-11-01', ts: '2026-11-01T07:00:00.000Z', localTime: '01:00', utcOffset: '-06:00', value: 50, intervals: 25, complete: true });
+    expect(peak).toEqual({
+      date: '2026-11-01',
+      ts: '2026-11-01T07:00:00.000Z',
+      localTime: '01:00',
+      utcOffset: '-06:00',
+      value: 50,
+      intervals: 25,
+      complete: true,
+    });
   });
 
   it('marks a day with missing hours incomplete and splits days at local midnight', () => {

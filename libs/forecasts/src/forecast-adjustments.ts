@@ -27,19 +27,28 @@ async function lockDraft(tx: Transaction, versionId: number): Promise<{ id: numb
     .for('update');
   if (!version) throw new HttpProblem('notFound', `No forecast version with id ${versionId}.`);
   if (version.state !== 'draft') {
-    throw new HttpProblem('conflict', `Forecast version ${versionId} is ${version.state}; only a draft can be adjusted. Adjust the current draft instead.`);
+    throw new HttpProblem(
+      'conflict',
+      `Forecast version ${versionId} is ${version.state}; only a draft can be adjusted. Adjust the current draft instead.`,
+    );
   }
   return version;
 }
 
 /** Turns the immutability trigger's refusal (a race lost to an approval) into a conflict. */
 function asConflict(error: unknown, versionId: number): never {
-  if (sqlState(error) === versionNotDraftState) throw new HttpProblem('conflict', `Forecast version ${versionId} was approved meanwhile; only a draft can be adjusted.`);
+  if (sqlState(error) === versionNotDraftState)
+    throw new HttpProblem('conflict', `Forecast version ${versionId} was approved meanwhile; only a draft can be adjusted.`);
   throw error;
 }
 
 /** Adds an adjustment to a draft; the period must cover at least one of its intervals. */
-export async function addAdjustment(db: Database, versionId: number, request: CreateAdjustmentRequest, { actor, ip }: Caller): Promise<ForecastAdjustment> {
+export async function addAdjustment(
+  db: Database,
+  versionId: number,
+  request: CreateAdjustmentRequest,
+  { actor, ip }: Caller,
+): Promise<ForecastAdjustment> {
   const from = new Date(request.from);
   const to = new Date(request.to);
   return db
@@ -48,25 +57,46 @@ export async function addAdjustment(db: Database, versionId: number, request: Cr
       const [{ intervals }] = (await tx
         .select({ intervals: sql<number>`count(*)::int` })
         .from(forecastPoints)
-        .where(and(eq(forecastPoints.versionId, versionId), gte(forecastPoints.ts, from), lt(forecastPoints.ts, to)))) as [{ intervals: number }];
+        .where(and(eq(forecastPoints.versionId, versionId), gte(forecastPoints.ts, from), lt(forecastPoints.ts, to)))) as [
+        { intervals: number },
+      ];
       if (intervals === 0) {
-        throw new HttpProblem('invalidInput', 'The period covers none of the forecast intervals of this version. Choose from/to within its horizon.', [
-          { pointer: '/from', detail: 'The period lies outside the forecast horizon' },
-        ]);
+        throw new HttpProblem(
+          'invalidInput',
+          'The period covers none of the forecast intervals of this version. Choose from/to within its horizon.',
+          [{ pointer: '/from', detail: 'The period lies outside the forecast horizon' }],
+        );
       }
       const [row] = await tx
         .insert(forecastAdjustments)
-        .values({ versionId, periodStart: from, periodEnd: to, kind: request.kind, amount: request.amount, reason: request.reason, createdById: actor.kind === 'user' ? actor.userId : null })
+        .values({
+          versionId,
+          periodStart: from,
+          periodEnd: to,
+          kind: request.kind,
+          amount: request.amount,
+          reason: request.reason,
+          createdById: actor.kind === 'user' ? actor.userId : null,
+        })
         .returning();
       await recordAudit(tx, {
         actor,
         action: 'forecast.adjusted',
         targetType: 'forecast_version',
         targetId: versionId,
-        detail: { seriesId: version.seriesId, adjustmentId: row!.id, kind: request.kind, amount: request.amount, from: from.toISOString(), to: to.toISOString(), reason: request.reason },
+        detail: {
+          seriesId: version.seriesId,
+          adjustmentId: row!.id,
+          kind: request.kind,
+          amount: request.amount,
+          from: from.toISOString(),
+          to: to.toISOString(),
+          reason: request.reason,
+        },
         ip,
       });
-      const [creator] = row!.createdById === null ? [] : await tx.select({ name: users.displayName }).from(users).where(eq(users.id, row!.createdById));
+      const [creator] =
+        row!.createdById === null ? [] : await tx.select({ name: users.displayName }).from(users).where(eq(users.id, row!.createdById));
       return {
         id: row!.id,
         versionId,
@@ -98,7 +128,15 @@ export async function removeAdjustment(db: Database, versionId: number, adjustme
         action: 'forecast.adjustment_removed',
         targetType: 'forecast_version',
         targetId: versionId,
-        detail: { seriesId: version.seriesId, adjustmentId, kind: removed.kind, amount: removed.amount, from: removed.periodStart.toISOString(), to: removed.periodEnd.toISOString(), reason: removed.reason },
+        detail: {
+          seriesId: version.seriesId,
+          adjustmentId,
+          kind: removed.kind,
+          amount: removed.amount,
+          from: removed.periodStart.toISOString(),
+          to: removed.periodEnd.toISOString(),
+          reason: removed.reason,
+        },
         ip,
       });
     })

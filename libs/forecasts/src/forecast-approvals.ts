@@ -26,14 +26,27 @@ function staleReason(versionId: number, state: string | undefined): string {
  * Approves the listed drafts together, all or none. `single` makes a missing version a 404 and a
  * non-draft a plain conflict; otherwise every stale version is listed in the conflict's errors.
  */
-export async function approveVersions(db: Database, versionIds: number[], { actor, ip }: Caller, options: { single?: boolean } = {}): Promise<ApprovalResult> {
+export async function approveVersions(
+  db: Database,
+  versionIds: number[],
+  { actor, ip }: Caller,
+  options: { single?: boolean } = {},
+): Promise<ApprovalResult> {
   return db.transaction(async (tx) => {
-    const candidates = await tx.select({ id: forecastVersions.id, seriesId: forecastVersions.seriesId }).from(forecastVersions).where(inArray(forecastVersions.id, versionIds));
+    const candidates = await tx
+      .select({ id: forecastVersions.id, seriesId: forecastVersions.seriesId })
+      .from(forecastVersions)
+      .where(inArray(forecastVersions.id, versionIds));
     if (options.single && candidates.length === 0) throw new HttpProblem('notFound', `No forecast version with id ${versionIds[0]}.`);
 
     const seriesIds = [...new Set(candidates.map((candidate) => candidate.seriesId))].sort((a, b) => a - b);
     if (seriesIds.length > 0) {
-      await tx.execute(sql`select id from series where id in (${sql.join(seriesIds.map((id) => sql`${id}`), sql`, `)}) order by id for no key update`);
+      await tx.execute(
+        sql`select id from series where id in (${sql.join(
+          seriesIds.map((id) => sql`${id}`),
+          sql`, `,
+        )}) order by id for no key update`,
+      );
     }
     const locked = await tx
       .select({ id: forecastVersions.id, seriesId: forecastVersions.seriesId, state: forecastVersions.state })
@@ -50,7 +63,11 @@ export async function approveVersions(db: Database, versionIds: number[], { acto
     // A series has at most one draft (a partial unique index), so the drafts left belong to distinct series.
     if (stale.length > 0) {
       if (options.single) throw new HttpProblem('conflict', stale[0]!.detail);
-      throw new HttpProblem('conflict', `${stale.length} of ${versionIds.length} versions cannot be approved; nothing was approved. Preview again and approve the current drafts.`, stale);
+      throw new HttpProblem(
+        'conflict',
+        `${stale.length} of ${versionIds.length} versions cannot be approved; nothing was approved. Preview again and approve the current drafts.`,
+        stale,
+      );
     }
 
     const approvedAt = new Date();

@@ -34,8 +34,18 @@ export async function findSeries(db: Reader, id: number): Promise<ForecastSeries
  */
 export async function seriesInScope(db: Reader, scope: SeriesScope): Promise<ForecastSeries[]> {
   const load = eq(series.kind, 'load');
-  if (scope.kind === 'series') return db.select(seriesColumns).from(series).where(and(load, inArray(series.id, scope.ids))).orderBy(asc(series.id));
-  if (scope.kind === 'all') return db.select(seriesColumns).from(series).where(and(load, isNull(series.archivedAt))).orderBy(asc(series.id));
+  if (scope.kind === 'series')
+    return db
+      .select(seriesColumns)
+      .from(series)
+      .where(and(load, inArray(series.id, scope.ids)))
+      .orderBy(asc(series.id));
+  if (scope.kind === 'all')
+    return db
+      .select(seriesColumns)
+      .from(series)
+      .where(and(load, isNull(series.archivedAt)))
+      .orderBy(asc(series.id));
   const subtree = sql`(with recursive subtree(id) as (
       select id from series where id = ${scope.rootId}
       union select s.id from series s join subtree t on s.parent_id = t.id
@@ -135,7 +145,11 @@ export function currentVersions(db: Reader, seriesIds: number[]): Promise<Versio
 }
 
 /** A page of one series' versions, newest first. */
-export function versionHistory(db: Reader, seriesId: number, options: { state?: ForecastState; before?: number; limit: number }): Promise<VersionRow[]> {
+export function versionHistory(
+  db: Reader,
+  seriesId: number,
+  options: { state?: ForecastState; before?: number; limit: number },
+): Promise<VersionRow[]> {
   const filters: SQL[] = [eq(forecastVersions.seriesId, seriesId)];
   if (options.state) filters.push(eq(forecastVersions.state, options.state));
   if (options.before !== undefined) filters.push(lt(forecastVersions.id, options.before));

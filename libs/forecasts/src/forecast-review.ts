@@ -2,11 +2,31 @@
  * What a planner reviews: the draft and the approved version of a series with their adjusted
  * numbers and local daily peaks, the actuals so far over the same window, and how the two differ.
  */
-import type { ForecastReview, ForecastSeries, ForecastVersion, ForecastVersionDetail, ForecastVersionPage, ForecastVersionSummary, ForecastVersionsQuery } from '@loadwright/contracts';
+import type {
+  ForecastReview,
+  ForecastSeries,
+  ForecastVersion,
+  ForecastVersionDetail,
+  ForecastVersionPage,
+  ForecastVersionSummary,
+  ForecastVersionsQuery,
+} from '@loadwright/contracts';
 import { HttpProblem } from '@loadwright/problems';
 import { adjustPoints } from './adjustment-layer';
 import { dailyPeaks, type TimedValue } from './daily-peaks';
-import { actualsBetween, adjustmentsOf, currentVersions, findSeries, pointsOf, versionHistory, versionsById, type AdjustmentRow, type PointRow, type Reader, type VersionRow } from './forecast-repository';
+import {
+  actualsBetween,
+  adjustmentsOf,
+  currentVersions,
+  findSeries,
+  pointsOf,
+  versionHistory,
+  versionsById,
+  type AdjustmentRow,
+  type PointRow,
+  type Reader,
+  type VersionRow,
+} from './forecast-repository';
 import { compareVersions } from './version-comparison';
 
 const hourMs = 3_600_000;
@@ -45,7 +65,12 @@ export function effectiveValues(points: readonly PointRow[], adjustments: readon
 }
 
 /** A whole version: points with their adjusted bands, adjustments and local daily peaks. */
-export function toVersion(row: VersionRow, points: readonly PointRow[], adjustments: readonly AdjustmentRow[], seriesRow: ForecastSeries): ForecastVersion {
+export function toVersion(
+  row: VersionRow,
+  points: readonly PointRow[],
+  adjustments: readonly AdjustmentRow[],
+  seriesRow: ForecastSeries,
+): ForecastVersion {
   const adjusted = adjustPoints(points, adjustments);
   const effective = points.map((point, i) => ({ ts: point.ts, value: adjusted[i]?.mean ?? point.mean }));
   return {
@@ -58,7 +83,10 @@ export function toVersion(row: VersionRow, points: readonly PointRow[], adjustme
       kind: adjustment.kind,
       amount: adjustment.amount,
       reason: adjustment.reason,
-      createdBy: adjustment.createdById !== null && adjustment.createdByName !== null ? { id: adjustment.createdById, name: adjustment.createdByName } : null,
+      createdBy:
+        adjustment.createdById !== null && adjustment.createdByName !== null
+          ? { id: adjustment.createdById, name: adjustment.createdByName }
+          : null,
       createdAt: adjustment.createdAt.toISOString(),
       intervals: points.filter((point) => adjustment.periodStart <= point.ts && point.ts < adjustment.periodEnd).length,
     })),
@@ -77,7 +105,11 @@ export function toVersion(row: VersionRow, points: readonly PointRow[], adjustme
 }
 
 /** Loads points and adjustments for rows and builds whole versions. */
-async function loadVersions(db: Reader, rows: VersionRow[], seriesRow: ForecastSeries): Promise<{ version: ForecastVersion; effective: TimedValue[] }[]> {
+async function loadVersions(
+  db: Reader,
+  rows: VersionRow[],
+  seriesRow: ForecastSeries,
+): Promise<{ version: ForecastVersion; effective: TimedValue[] }[]> {
   const ids = rows.map((row) => row.id);
   const [points, adjustments] = await Promise.all([pointsOf(db, ids), adjustmentsOf(db, ids)]);
   return rows.map((row) => ({
@@ -113,7 +145,8 @@ export async function reviewForecast(db: Reader, seriesId: number): Promise<Fore
     draft: draft?.version ?? null,
     approved: approved?.version ?? null,
     actuals,
-    comparison: draft && approved ? compareVersions(draft.effective, approved.effective, seriesRow.timeZone, seriesRow.intervalMinutes) : null,
+    comparison:
+      draft && approved ? compareVersions(draft.effective, approved.effective, seriesRow.timeZone, seriesRow.intervalMinutes) : null,
   };
 }
 

@@ -13,7 +13,10 @@ export interface ResolvedScope {
  * Resolves `parentId` (it and every descendant), `seriesIds` (exactly those; every id must be a
  * load series) or neither (every active load series). Unknown ids are a not-found problem.
  */
-export async function resolveSeriesScope(db: Reader, request: { seriesIds?: readonly number[]; parentId?: number }): Promise<ResolvedScope> {
+export async function resolveSeriesScope(
+  db: Reader,
+  request: { seriesIds?: readonly number[]; parentId?: number },
+): Promise<ResolvedScope> {
   if (request.parentId !== undefined) {
     const parent = await findSeries(db, request.parentId);
     if (!parent) throw new HttpProblem('notFound', `No series with id ${request.parentId}.`);

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { compareVersions, energyDifference, percentDifference } from './version-comparison';
 
-const at = (startIso: string, minutes: number, values: number[]) => values.map((value, i) => ({ ts: new Date(Date.parse(startIso) + i * minutes * 60_000), value }));
+const at = (startIso: string, minutes: number, values: number[]) =>
+  values.map((value, i) => ({ ts: new Date(Date.parse(startIso) + i * minutes * 60_000), value }));
 
 describe('version comparison', () => {
   it('gives no percentage against a zero base', () => {

@@ -28,16 +28,35 @@ export function energyDifference(draft: readonly TimedValue[], approved: readonl
     approvedEnergy += other * hours;
   }
   const difference = draftEnergy - approvedEnergy;
-  return { intervals, draft: draftEnergy, approved: approvedEnergy, difference, differencePercent: intervals === 0 ? null : percentDifference(draftEnergy, approvedEnergy) };
+  return {
+    intervals,
+    draft: draftEnergy,
+    approved: approvedEnergy,
+    difference,
+    differencePercent: intervals === 0 ? null : percentDifference(draftEnergy, approvedEnergy),
+  };
 }
 
 /** The full comparison of two versions' effective values (adjusted where adjusted). */
-export function compareVersions(draft: readonly TimedValue[], approved: readonly TimedValue[], timeZone: string, intervalMinutes: number): VersionComparison {
+export function compareVersions(
+  draft: readonly TimedValue[],
+  approved: readonly TimedValue[],
+  timeZone: string,
+  intervalMinutes: number,
+): VersionComparison {
   const approvedByTs = new Map(approved.map((point) => [point.ts.getTime(), point.value]));
   const intervals = draft.flatMap((point) => {
     const other = approvedByTs.get(point.ts.getTime());
     if (other === undefined) return [];
-    return [{ ts: point.ts.toISOString(), draft: point.value, approved: other, difference: point.value - other, differencePercent: percentDifference(point.value, other) }];
+    return [
+      {
+        ts: point.ts.toISOString(),
+        draft: point.value,
+        approved: other,
+        difference: point.value - other,
+        differencePercent: percentDifference(point.value, other),
+      },
+    ];
   });
 
   const draftPeaks = new Map(dailyPeaks(draft, timeZone, intervalMinutes).map((peak) => [peak.date, peak]));

@@ -33,21 +33,32 @@ export function planImport(
   const columns = layout.columns;
   const fail = (message: string) => ({ ok: false as const, message });
   const indexOf = (name: string) => columns.indexOf(name);
-  const missing = (role: string, name: string) => fail(`The mapping names ${role} column "${name}", which the file does not have; its columns are ${columns.map((c) => `"${c}"`).join(', ')}.`);
+  const missing = (role: string, name: string) =>
+    fail(
+      `The mapping names ${role} column "${name}", which the file does not have; its columns are ${columns.map((c) => `"${c}"`).join(', ')}.`,
+    );
   const row = (k: number) => k + (layout.hasHeader ? 2 : 1);
   const seriesByKey = new Map(catalogue.map((entry) => [entry.key, entry]));
-  if (!isKnownTimeZone(settings.timeZone)) return fail(`Time zone "${settings.timeZone}" is not an IANA name; use one such as America/Chicago.`);
+  if (!isKnownTimeZone(settings.timeZone))
+    return fail(`Time zone "${settings.timeZone}" is not an IANA name; use one such as America/Chicago.`);
 
   const timestampIndex = indexOf(mapping.timestampColumn);
   if (timestampIndex < 0) return missing('timestamp', mapping.timestampColumn);
-  const badStamp = preview.rows.findIndex((cells) => (cells[timestampIndex] ?? '').trim() !== '' && parseTimestamp(cells[timestampIndex] ?? '') === null);
-  if (badStamp >= 0) return fail(`Row ${row(badStamp)}, column "${mapping.timestampColumn}": "${preview.rows[badStamp]![timestampIndex]}" is not a timestamp, so this column cannot be the timestamp column.`);
+  const badStamp = preview.rows.findIndex(
+    (cells) => (cells[timestampIndex] ?? '').trim() !== '' && parseTimestamp(cells[timestampIndex] ?? '') === null,
+  );
+  if (badStamp >= 0)
+    return fail(
+      `Row ${row(badStamp)}, column "${mapping.timestampColumn}": "${preview.rows[badStamp]![timestampIndex]}" is not a timestamp, so this column cannot be the timestamp column.`,
+    );
 
   const checkValues = (index: number) => {
     const cells = preview.rows.map((cells) => cells[index] ?? '');
     if (cells.some((cell) => parseValueCell(cell, settings.decimalSeparator).kind === 'number')) return null;
     const k = cells.findIndex((cell) => cell.trim() !== '');
-    return fail(`Column "${columns[index]}" holds no numbers${k >= 0 ? ` (row ${row(k)} reads "${cells[k]}")` : ''}; map the column that holds the readings.`);
+    return fail(
+      `Column "${columns[index]}" holds no numbers${k >= 0 ? ` (row ${row(k)} reads "${cells[k]}")` : ''}; map the column that holds the readings.`,
+    );
   };
   const checkUnit = (series: CatalogueEntry, unit: UploadUnit = settings.unit) => {
     const conversion = unitConversion(unit, series.unit, series.intervalMinutes);
@@ -68,7 +79,8 @@ export function planImport(
     if (mapping.seriesKeyColumn !== null) {
       keyIndex = indexOf(mapping.seriesKeyColumn);
       if (keyIndex < 0) return missing('series key', mapping.seriesKeyColumn);
-      if (keyIndex === valueIndex || keyIndex === timestampIndex) return fail(`Column "${mapping.seriesKeyColumn}" cannot be the series key column and another column at once.`);
+      if (keyIndex === valueIndex || keyIndex === timestampIndex)
+        return fail(`Column "${mapping.seriesKeyColumn}" cannot be the series key column and another column at once.`);
       for (const [k, cells] of preview.rows.entries()) {
         const entry = seriesByKey.get((cells[keyIndex] ?? '').trim());
         if (entry) {

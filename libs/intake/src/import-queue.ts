@@ -17,7 +17,10 @@ export interface ImportUploadJob {
  * is not a failure of the job: it ends the job with the upload marked failed. A job running past an
  * hour (a worker killed mid-import) is taken again; the import is idempotent.
  */
-export const importQueueOptions = { retryLimit: 2, retryDelay: 20, retryBackoff: true, expireInSeconds: 3600 } satisfies Omit<PgBoss.Queue, 'name'>;
+export const importQueueOptions = { retryLimit: 2, retryDelay: 20, retryBackoff: true, expireInSeconds: 3600 } satisfies Omit<
+  PgBoss.Queue,
+  'name'
+>;
 
 /** Creates the queue, or brings its settings up to date. */
 export async function createImportQueue(boss: PgBoss): Promise<void> {
@@ -39,7 +42,15 @@ export async function importQueueReady(db: Queryable): Promise<boolean> {
 
 /** Adds an import job on `connection` (inside the caller's transaction when it is in one). */
 export async function enqueueImport(connection: Queryable, uploadId: number): Promise<void> {
-  const boss = new PgBoss({ db: { executeSql: async () => ({ rows: [] }) }, schema: 'pgboss', supervise: false, schedule: false, migrate: false });
+  const boss = new PgBoss({
+    db: { executeSql: async () => ({ rows: [] }) },
+    schema: 'pgboss',
+    supervise: false,
+    schedule: false,
+    migrate: false,
+  });
   const job: PgBoss.JobInsert<ImportUploadJob> = { name: importQueue, data: { uploadId }, singletonKey: `upload-${uploadId}` };
-  await boss.insert([job], { db: { executeSql: (text: string, values: unknown[]) => connection.query(text, values) as Promise<{ rows: any[] }> } });
+  await boss.insert([job], {
+    db: { executeSql: (text: string, values: unknown[]) => connection.query(text, values) as Promise<{ rows: any[] }> },
+  });
 }

@@ -54,18 +54,35 @@ export interface ScreenedSeries {
 }
 
 /** Steps 1 and 2: screens the readings and looks up stored intervals inside their gaps. */
-export async function screenSeries(executor: SqlExecutor, target: SeriesTarget, source: SeriesReadings, now: Date = new Date()): Promise<ScreenedSeries> {
+export async function screenSeries(
+  executor: SqlExecutor,
+  target: SeriesTarget,
+  source: SeriesReadings,
+  now: Date = new Date(),
+): Promise<ScreenedSeries> {
   const grid = intervalGrid(target.intervalMinutes, target.timeZone);
   const collapsed = collapseDuplicates(source, target.seriesId);
   const screened = screenInstants(collapsed.readings, target.seriesId, grid, now.getTime());
   const readings = screened.readings;
   const stored = await storedInGaps(executor, target.seriesId, readings, grid.intervalMinutes * 60_000, grid.indexOf);
-  return { target, grid, readings, findings: [...collapsed.findings, ...screened.findings], rejected: source.length - readings.length, stored };
+  return {
+    target,
+    grid,
+    readings,
+    findings: [...collapsed.findings, ...screened.findings],
+    rejected: source.length - readings.length,
+    stored,
+  };
 }
 
 /** Step 3, the pure part: validates and estimates (no database). */
 export function validateScreened(screened: ScreenedSeries, maxEstimatedGap?: number) {
-  const { rows, findings } = validateSeries(screened.readings, { ...screened.target, grid: screened.grid, stored: screened.stored, maxEstimatedGap });
+  const { rows, findings } = validateSeries(screened.readings, {
+    ...screened.target,
+    grid: screened.grid,
+    stored: screened.stored,
+    maxEstimatedGap,
+  });
   return { rows, findings: [...screened.findings, ...findings], rejected: screened.rejected };
 }
 
@@ -84,7 +101,12 @@ export async function storeSeries(
 }
 
 /** Imports one series' readings (any order, duplicates allowed): the three steps in a row. */
-export async function importSeries(executor: SqlExecutor, target: SeriesTarget, source: SeriesReadings, options: ImportSeriesOptions): Promise<ImportSeriesResult> {
+export async function importSeries(
+  executor: SqlExecutor,
+  target: SeriesTarget,
+  source: SeriesReadings,
+  options: ImportSeriesOptions,
+): Promise<ImportSeriesResult> {
   const screened = await screenSeries(executor, target, source, options.now);
   return storeSeries(executor, target.seriesId, validateScreened(screened, options.maxEstimatedGap), options);
 }
@@ -93,7 +115,13 @@ export async function importSeries(executor: SqlExecutor, target: SeriesTarget, 
  * Grid indexes inside the batch's gaps that already hold a stored raw reading, found with one query
  * over the gap ranges.
  */
-async function storedInGaps(executor: SqlExecutor, seriesId: number, readings: SeriesReadings, nominalStepMs: number, indexOf: (ms: number) => number): Promise<Set<number>> {
+async function storedInGaps(
+  executor: SqlExecutor,
+  seriesId: number,
+  readings: SeriesReadings,
+  nominalStepMs: number,
+  indexOf: (ms: number) => number,
+): Promise<Set<number>> {
   const from: number[] = [];
   const to: number[] = [];
   for (let i = 1; i < readings.length; i++) {

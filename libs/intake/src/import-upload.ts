@@ -42,21 +42,43 @@ export async function importUpload(deps: ImportUploadDeps, uploadId: number): Pr
   const { db, pool } = deps;
   const [upload] = await db.select().from(uploads).where(eq(uploads.id, uploadId));
   if (!upload) return { status: 'skipped', reason: `upload ${uploadId} does not exist` };
-  if (upload.status === 'done' || upload.status === 'failed' || upload.status === 'received') return { status: 'skipped', reason: `upload ${uploadId} is ${upload.status}` };
+  if (upload.status === 'done' || upload.status === 'failed' || upload.status === 'received')
+    return { status: 'skipped', reason: `upload ${uploadId} is ${upload.status}` };
   const progress = (fraction: number, rows: number) =>
-    pool.query('update uploads set progress = $2, rows_processed = $3, updated_at = now() where id = $1', [uploadId, Math.min(1, Math.max(0, fraction)), rows]).then(() => undefined);
-  await db.update(uploads).set({ status: 'importing', startedAt: new Date(), progress: 0, rowsProcessed: 0, error: null }).where(eq(uploads.id, uploadId));
+    pool
+      .query('update uploads set progress = $2, rows_processed = $3, updated_at = now() where id = $1', [
+        uploadId,
+        Math.min(1, Math.max(0, fraction)),
+        rows,
+      ])
+      .then(() => undefined);
+  await db
+    .update(uploads)
+    .set({ status: 'importing', startedAt: new Date(), progress: 0, rowsProcessed: 0, error: null })
+    .where(eq(uploads.id, uploadId));
 
   try {
-    if (!upload.storagePath || !upload.mapping || !upload.settings) throw new UploadRejection('The upload has no stored file or no confirmed mapping; upload the file again.');
-    const sniffed = await sniffFile(upload.storagePath).catch(() => ({ ok: false as const, message: 'The stored file is gone; upload the file again.' }));
+    if (!upload.storagePath || !upload.mapping || !upload.settings)
+      throw new UploadRejection('The upload has no stored file or no confirmed mapping; upload the file again.');
+    const sniffed = await sniffFile(upload.storagePath).catch(() => ({
+      ok: false as const,
+      message: 'The stored file is gone; upload the file again.',
+    }));
     if (!sniffed.ok) throw new UploadRejection(sniffed.message);
     const catalogue = await loadCatalogue(db);
-    const planned = planImport(upload.mapping as UploadMapping, upload.settings as UploadSettings, sniffed.layout, sniffed.preview, catalogue);
+    const planned = planImport(
+      upload.mapping as UploadMapping,
+      upload.settings as UploadSettings,
+      sniffed.layout,
+      sniffed.preview,
+      catalogue,
+    );
     if (!planned.ok) throw new UploadRejection(planned.message);
     const settings = planned.plan.settings;
 
-    const file = await readUploadFile(upload.storagePath, sniffed.layout, planned.plan, (fraction, rows) => progress(fraction * readShare, rows));
+    const file = await readUploadFile(upload.storagePath, sniffed.layout, planned.plan, (fraction, rows) =>
+      progress(fraction * readShare, rows),
+    );
     let readings = 0;
     for (const intake of file.bySeries.values()) readings += intake.readings.length;
     if (readings === 0) throw new UploadRejection(noUsableRowsMessage(file.rows, file.findings[0]));
@@ -131,7 +153,10 @@ export async function importUpload(deps: ImportUploadDeps, uploadId: number): Pr
 }
 
 /** The message for a file none of whose rows could be stored. */
-function noUsableRowsMessage(rows: number, first: { sourceRow: number | null; rule: string; detail: Record<string, unknown> } | undefined): string {
+function noUsableRowsMessage(
+  rows: number,
+  first: { sourceRow: number | null; rule: string; detail: Record<string, unknown> } | undefined,
+): string {
   if (rows === 0) return 'The file has a header row but no data rows.';
   if (!first) return `None of the ${rows} data rows holds a reading: every mapped value cell is empty.`;
   const why =

@@ -14,11 +14,19 @@ const timeLike = /time|date|stamp|interval|period|hour|^ts$|^when$/i;
 const valueLike = /value|reading|load|demand|kwh|mwh|kw|mw|temp|power|energy/i;
 
 /** Proposes a mapping and settings for a previewed file. */
-export function proposeMapping(layout: UploadLayout, preview: UploadPreview, catalogue: readonly CatalogueEntry[], fallbackTimeZone = 'UTC'): UploadProposal {
+export function proposeMapping(
+  layout: UploadLayout,
+  preview: UploadPreview,
+  catalogue: readonly CatalogueEntry[],
+  fallbackTimeZone = 'UTC',
+): UploadProposal {
   const notes: string[] = [];
   const byKey = new Map(catalogue.map((entry) => [entry.key.toLowerCase(), entry]));
   const column = (i: number) => preview.rows.map((row) => row[i] ?? '');
-  const parsesAsTime = (i: number) => column(i).filter((cell) => cell.trim() !== '').every((cell) => parseTimestamp(cell) !== null);
+  const parsesAsTime = (i: number) =>
+    column(i)
+      .filter((cell) => cell.trim() !== '')
+      .every((cell) => parseTimestamp(cell) !== null);
   const numeric = (i: number) => column(i).some((cell) => parseValueCell(cell, layout.decimalSeparator).kind === 'number');
 
   const columns = layout.columns;
@@ -30,21 +38,49 @@ export function proposeMapping(layout: UploadLayout, preview: UploadPreview, cat
     notes.push('No column holds timestamps Loadwright reads; choose the timestamp column.');
   } else {
     const timestampColumn = columns[timestampIndex]!;
-    const wide = columns.map((name, i) => ({ name, i, entry: byKey.get(name.trim().toLowerCase()) })).filter((c) => c.entry && c.i !== timestampIndex);
+    const wide = columns
+      .map((name, i) => ({ name, i, entry: byKey.get(name.trim().toLowerCase()) }))
+      .filter((c) => c.entry && c.i !== timestampIndex);
     if (wide.length > 0) {
-      mapping = { layout: 'wide', timestampColumn, seriesColumns: wide.map((c) => ({ column: c.name, seriesKey: c.entry!.key, unit: unitFromName(c.name) ?? (c.entry!.unit as UploadUnit) })) };
+      mapping = {
+        layout: 'wide',
+        timestampColumn,
+        seriesColumns: wide.map((c) => ({
+          column: c.name,
+          seriesKey: c.entry!.key,
+          unit: unitFromName(c.name) ?? (c.entry!.unit as UploadUnit),
+        })),
+      };
       mapped = wide.map((c) => c.entry!);
       const unmatched = columns.filter((name, i) => i !== timestampIndex && !byKey.has(name.trim().toLowerCase()));
       if (unmatched.length > 0) notes.push(`Columns not matched to a series and left out: ${unmatched.join(', ')}.`);
     } else {
-      const keyIndex = columns.findIndex((_, i) => i !== timestampIndex && column(i).length > 0 && column(i).filter((cell) => byKey.has(cell.trim().toLowerCase())).length * 2 >= column(i).length);
+      const keyIndex = columns.findIndex(
+        (_, i) =>
+          i !== timestampIndex &&
+          column(i).length > 0 &&
+          column(i).filter((cell) => byKey.has(cell.trim().toLowerCase())).length * 2 >= column(i).length,
+      );
       const candidates = columns.map((name, i) => ({ name, i })).filter((c) => c.i !== timestampIndex && c.i !== keyIndex && numeric(c.i));
       const value = candidates.find((c) => valueLike.test(c.name)) ?? candidates[0];
       if (!value) notes.push('No column holds numbers; choose the value column.');
       if (keyIndex < 0) notes.push('No column holds series keys from the catalogue; choose the series this file belongs to.');
       if (value) {
-        mapping = { layout: 'long', timestampColumn, valueColumn: value.name, seriesKeyColumn: keyIndex >= 0 ? columns[keyIndex]! : null, seriesKey: null };
-        if (keyIndex >= 0) mapped = [...new Set(column(keyIndex).map((cell) => byKey.get(cell.trim().toLowerCase())).filter((entry) => entry !== undefined))];
+        mapping = {
+          layout: 'long',
+          timestampColumn,
+          valueColumn: value.name,
+          seriesKeyColumn: keyIndex >= 0 ? columns[keyIndex]! : null,
+          seriesKey: null,
+        };
+        if (keyIndex >= 0)
+          mapped = [
+            ...new Set(
+              column(keyIndex)
+                .map((cell) => byKey.get(cell.trim().toLowerCase()))
+                .filter((entry) => entry !== undefined),
+            ),
+          ];
       }
     }
   }

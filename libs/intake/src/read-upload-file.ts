@@ -50,7 +50,12 @@ interface SeriesRoute {
 }
 
 /** Reads the file at `path` following the plan; `onProgress` hears the fraction of bytes read. */
-export async function readUploadFile(path: string, layout: UploadLayout, plan: ImportPlan, onProgress?: (fraction: number, rows: number) => Promise<void> | void): Promise<FileReadings> {
+export async function readUploadFile(
+  path: string,
+  layout: UploadLayout,
+  plan: ImportPlan,
+  onProgress?: (fraction: number, rows: number) => Promise<void> | void,
+): Promise<FileReadings> {
   const { settings } = plan;
   const bySeries = new Map<number, SeriesIntake>();
   const routes = new Map<string, SeriesRoute>();
@@ -64,7 +69,8 @@ export async function readUploadFile(path: string, layout: UploadLayout, plan: I
     let route = routes.get(series.key);
     if (route) return route;
     const convert = unitConversion(unit, series.unit, series.intervalMinutes);
-    if (typeof convert === 'string') throw new UploadRejection(`Row ${line}, column "${column}": unit ${unit} does not fit series "${series.key}": ${convert}.`);
+    if (typeof convert === 'string')
+      throw new UploadRejection(`Row ${line}, column "${column}": unit ${unit} does not fit series "${series.key}": ${convert}.`);
     const intake = { series, readings: new ReadingColumns(4096) };
     bySeries.set(series.id, intake);
     route = { intake, convert, grid: intervalGrid(series.intervalMinutes, series.timeZone) };
@@ -85,10 +91,14 @@ export async function readUploadFile(path: string, layout: UploadLayout, plan: I
     const column = columnName(plan.timestampIndex);
     if (!stamp) {
       if (text.trim() === '') throw new UploadRejection(`Row ${line}, column "${column}" is empty; every row needs its timestamp.`);
-      throw new UploadRejection(`Row ${line}, column "${column}": "${clip(text)}" is not a timestamp Loadwright reads; use ISO 8601 such as 2025-03-09T02:00:00-06:00 or 2025-03-09 02:00.`);
+      throw new UploadRejection(
+        `Row ${line}, column "${column}": "${clip(text)}" is not a timestamp Loadwright reads; use ISO 8601 such as 2025-03-09T02:00:00-06:00 or 2025-03-09 02:00.`,
+      );
     }
     if (stamp.year < plausibleYears.from || stamp.year > plausibleYears.to) {
-      throw new UploadRejection(`Row ${line}, column "${column}": "${clip(text)}" lies outside the years ${plausibleYears.from} to ${plausibleYears.to}; check the date and its format.`);
+      throw new UploadRejection(
+        `Row ${line}, column "${column}": "${clip(text)}" lies outside the years ${plausibleYears.from} to ${plausibleYears.to}; check the date and its format.`,
+      );
     }
     lastStampText = text;
     lastStamp = stamp;
@@ -109,12 +119,22 @@ export async function readUploadFile(path: string, layout: UploadLayout, plan: I
       const local = new Date(stamp.wallMs).toISOString().slice(0, 16).replace('T', ' ');
       const base = { seriesId: route.intake.series.id, value, sourceRow: line };
       if (lastInstants.length === 0) {
-        findings.push({ ...base, rule: 'dst_missing_hour', tsMs: null, detail: { local, timeZone: settings.timeZone, resolution: 'rejected' } });
+        findings.push({
+          ...base,
+          rule: 'dst_missing_hour',
+          tsMs: null,
+          detail: { local, timeZone: settings.timeZone, resolution: 'rejected' },
+        });
         return null;
       }
       if (lastInstants.length === 2) {
         if (settings.repeatedHourPolicy === 'reject') {
-          findings.push({ ...base, rule: 'dst_repeated_hour', tsMs: null, detail: { local, timeZone: settings.timeZone, resolution: 'rejected' } });
+          findings.push({
+            ...base,
+            rule: 'dst_repeated_hour',
+            tsMs: null,
+            detail: { local, timeZone: settings.timeZone, resolution: 'rejected' },
+          });
           return null;
         }
         const key = `${route.intake.series.id}:${stamp.wallMs}`;
@@ -122,7 +142,16 @@ export async function readUploadFile(path: string, layout: UploadLayout, plan: I
         repeatedSeen.set(key, seen + 1);
         ms = lastInstants[seen === 0 ? 0 : 1]!;
         flags = qualityFlag.dstAmbiguous;
-        findings.push({ ...base, rule: 'dst_repeated_hour', tsMs: ms, detail: { local, timeZone: settings.timeZone, resolution: seen === 0 ? 'daylight (first occurrence)' : 'standard (second occurrence)' } });
+        findings.push({
+          ...base,
+          rule: 'dst_repeated_hour',
+          tsMs: ms,
+          detail: {
+            local,
+            timeZone: settings.timeZone,
+            resolution: seen === 0 ? 'daylight (first occurrence)' : 'standard (second occurrence)',
+          },
+        });
       } else {
         ms = lastInstants[0]!;
       }
@@ -135,8 +164,13 @@ export async function readUploadFile(path: string, layout: UploadLayout, plan: I
     const cell = parseValueCell(text, settings.decimalSeparator);
     if (cell.kind === 'number') return cell.value;
     if (cell.kind === 'missing') return null;
-    if (cell.kind === 'formula') throw new UploadRejection(`Row ${line}, column "${columnName(index)}": "${clip(text)}" looks like a spreadsheet formula, not a number; export the values rather than the formulas.`);
-    throw new UploadRejection(`Row ${line}, column "${columnName(index)}": "${clip(text)}" is not a number${settings.decimalSeparator === '.' && /^-?\d+,\d+$/.test(text.trim()) ? ' (the upload reads "." as decimal separator)' : ''}.`);
+    if (cell.kind === 'formula')
+      throw new UploadRejection(
+        `Row ${line}, column "${columnName(index)}": "${clip(text)}" looks like a spreadsheet formula, not a number; export the values rather than the formulas.`,
+      );
+    throw new UploadRejection(
+      `Row ${line}, column "${columnName(index)}": "${clip(text)}" is not a number${settings.decimalSeparator === '.' && /^-?\d+,\d+$/.test(text.trim()) ? ' (the upload reads "." as decimal separator)' : ''}.`,
+    );
   };
 
   const take = (route: SeriesRoute, stamp: ParsedTimestamp, raw: number, line: number) => {
@@ -166,7 +200,14 @@ export async function readUploadFile(path: string, layout: UploadLayout, plan: I
           const key = (cells[keyIndex] ?? '').trim();
           series = plan.seriesByKey.get(key) ?? null;
           if (!series) {
-            findings.push({ rule: 'unknown_series', seriesId: null, tsMs: null, value: null, sourceRow: line, detail: { key: clip(key), column: columnName(keyIndex) } });
+            findings.push({
+              rule: 'unknown_series',
+              seriesId: null,
+              tsMs: null,
+              value: null,
+              sourceRow: line,
+              detail: { key: clip(key), column: columnName(keyIndex) },
+            });
             rejected++;
             continue;
           }

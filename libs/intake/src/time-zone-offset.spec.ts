@@ -7,7 +7,10 @@ const wall = (iso: string) => Date.parse(`${iso}Z`);
 describe('instantsForWallClock', () => {
   it('finds no instant in the spring-forward gap and two in the fall-back hour (America/Chicago, 2026)', () => {
     expect(instantsForWallClock('America/Chicago', wall('2026-03-08T02:30:00'))).toEqual([]);
-    expect(instantsForWallClock('America/Chicago', wall('2026-11-01T01:30:00'))).toEqual([Date.parse('2026-11-01T06:30:00Z'), Date.parse('2026-11-01T07:30:00Z')]);
+    expect(instantsForWallClock('America/Chicago', wall('2026-11-01T01:30:00'))).toEqual([
+      Date.parse('2026-11-01T06:30:00Z'),
+      Date.parse('2026-11-01T07:30:00Z'),
+    ]);
     expect(instantsForWallClock('America/Chicago', wall('2026-07-01T12:00:00'))).toEqual([Date.parse('2026-07-01T17:00:00Z')]);
   });
 

@@ -1,6 +1,15 @@
 /** Reading uploads and their findings for the API: list, one upload with its report, findings page by page. */
 import { and, count, desc, eq, sql } from 'drizzle-orm';
-import { validationRuleDescriptions, type Upload, type UploadFinding, type UploadMapping, type UploadReport, type UploadSettings, type UploadStatus, type ValidationRule } from '@loadwright/contracts';
+import {
+  validationRuleDescriptions,
+  type Upload,
+  type UploadFinding,
+  type UploadMapping,
+  type UploadReport,
+  type UploadSettings,
+  type UploadStatus,
+  type ValidationRule,
+} from '@loadwright/contracts';
 import { apiTokens, uploads, users, type Database } from '@loadwright/db';
 import { examplesPerRule } from './findings';
 
@@ -49,9 +58,16 @@ export async function findUpload(db: Database, id: number): Promise<Upload | nul
 }
 
 /** A page of uploads, newest first. */
-export async function listUploads(db: Database, query: { status?: UploadStatus; limit: number; offset: number }): Promise<{ items: Upload[]; total: number }> {
+export async function listUploads(
+  db: Database,
+  query: { status?: UploadStatus; limit: number; offset: number },
+): Promise<{ items: Upload[]; total: number }> {
   const where = query.status ? eq(uploads.status, query.status) : undefined;
-  const rows = await uploadQuery(db).where(where).orderBy(desc(uploads.createdAt), desc(uploads.id)).limit(query.limit).offset(query.offset);
+  const rows = await uploadQuery(db)
+    .where(where)
+    .orderBy(desc(uploads.createdAt), desc(uploads.id))
+    .limit(query.limit)
+    .offset(query.offset);
   const [total] = await db.select({ n: count() }).from(uploads).where(where);
   return { items: rows.map(toUpload), total: total?.n ?? 0 };
 }
@@ -73,14 +89,19 @@ function toFinding(row: FindingRow): UploadFinding {
 
 /** Counts per rule and the first examples of each. */
 export async function uploadReport(db: Database, uploadId: number): Promise<UploadReport> {
-  const counts = await db.execute(sql`select rule, count(*)::int as count from upload_findings where upload_id = ${uploadId} group by rule order by count(*) desc, rule`);
+  const counts = await db.execute(
+    sql`select rule, count(*)::int as count from upload_findings where upload_id = ${uploadId} group by rule order by count(*) desc, rule`,
+  );
   const examples = await db.execute(sql`
     select id, rule, series_key, ts, value, source_row, detail from (
       select f.*, s.key as series_key, row_number() over (partition by f.rule order by f.id) as n
       from upload_findings f left join series s on s.id = f.series_id where f.upload_id = ${uploadId}) ranked
     where n <= ${examplesPerRule} order by rule, id`);
   return {
-    counts: (counts.rows as { rule: ValidationRule; count: number }[]).map((row) => ({ ...row, description: validationRuleDescriptions[row.rule] })),
+    counts: (counts.rows as { rule: ValidationRule; count: number }[]).map((row) => ({
+      ...row,
+      description: validationRuleDescriptions[row.rule],
+    })),
     examples: (examples.rows as unknown as FindingRow[]).map((row) => toFinding({ ...row, ts: row.ts ? new Date(row.ts) : null })),
   };
 }
@@ -102,6 +123,9 @@ export async function* allFindings(db: Database, uploadId: number, pageSize = 50
 
 /** The upload that already holds these bytes (any status but failed), if any. */
 export async function uploadWithContent(db: Database, sha256: string): Promise<number | null> {
-  const [row] = await db.select({ id: uploads.id }).from(uploads).where(and(eq(uploads.contentSha256, sha256), sql`${uploads.status} <> 'failed'`));
+  const [row] = await db
+    .select({ id: uploads.id })
+    .from(uploads)
+    .where(and(eq(uploads.contentSha256, sha256), sql`${uploads.status} <> 'failed'`));
   return row?.id ?? null;
 }

@@ -40,7 +40,10 @@ describe('validateSeries', () => {
   });
 
   it('keeps a negative raw value, flags it and estimates it from the clean neighbours', () => {
-    const { rows, findings } = validateSeries(readings(range(0, 40), (h) => (h === 10 ? -daily(h) : daily(h))), base);
+    const { rows, findings } = validateSeries(
+      readings(range(0, 40), (h) => (h === 10 ? -daily(h) : daily(h))),
+      base,
+    );
     expect(rows.values[10]).toBe(-daily(10));
     expect(rows.quality[10]).toBe(qualityFlag.negative | qualityFlag.estimated);
     expect(rows.estimated[10]).toBe(Math.round(((daily(9) + daily(11)) / 2) * 1e6) / 1e6);
@@ -48,12 +51,18 @@ describe('validateSeries', () => {
   });
 
   it('flags a temperature outside −76…140 °F as impossible', () => {
-    const { findings } = validateSeries(readings(range(0, 30), (h) => (h === 15 ? 150 : 50 + (h % 5))), { ...base, kind: 'temperature', unit: 'degF' });
+    const { findings } = validateSeries(
+      readings(range(0, 30), (h) => (h === 15 ? 150 : 50 + (h % 5))),
+      { ...base, kind: 'temperature', unit: 'degF' },
+    );
     expect(findings.filter((f) => f.rule === 'impossible').map((f) => [f.tsMs! / hour, f.detail])).toEqual([[15, { low: -76, high: 140 }]]);
   });
 
   it('flags a load over ten times its robust maximum as impossible, not as a spike', () => {
-    const { findings } = validateSeries(readings(range(0, 60), (h) => (h === 30 ? 50_000 : daily(h))), base);
+    const { findings } = validateSeries(
+      readings(range(0, 60), (h) => (h === 30 ? 50_000 : daily(h))),
+      base,
+    );
     expect(findings.map((f) => f.rule)).toEqual(['impossible', 'estimated']);
   });
 });

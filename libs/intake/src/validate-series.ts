@@ -111,12 +111,25 @@ export function validateSeries(readings: SeriesReadings, options: ValidateOption
       const ts = grid.instantOf(index);
       gapTs.push(ts);
       gapEstimates.push(estimate);
-      findings.push({ rule: 'estimated', seriesId, tsMs: ts, value: null, sourceRow: null, detail: { method: 'linear interpolation', replaces: 'gap', gapIntervals: gap.count, estimate } });
+      findings.push({
+        rule: 'estimated',
+        seriesId,
+        tsMs: ts,
+        value: null,
+        sourceRow: null,
+        detail: { method: 'linear interpolation', replaces: 'gap', gapIntervals: gap.count, estimate },
+      });
     }
   }
 
   const total = n + gapTs.length;
-  const rows: ObservationRows = { ts: new Float64Array(total), values: new Float64Array(total), estimated: new Float64Array(total), quality: new Uint16Array(total), length: total };
+  const rows: ObservationRows = {
+    ts: new Float64Array(total),
+    values: new Float64Array(total),
+    estimated: new Float64Array(total),
+    quality: new Uint16Array(total),
+    length: total,
+  };
   rows.ts.set(readings.ts.subarray(0, n));
   rows.values.set(values);
   rows.estimated.set(estimated);

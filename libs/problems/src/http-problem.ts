@@ -14,6 +14,13 @@ export class HttpProblem extends Error {
   /** The response body for this problem. */
   toProblem(instance?: string): Problem {
     const { type, title, status } = problemTypes[this.kind];
-    return { type, title, status, ...(this.detail && { detail: this.detail }), ...(instance && { instance }), ...(this.errors && { errors: this.errors }) };
+    return {
+      type,
+      title,
+      status,
+      ...(this.detail && { detail: this.detail }),
+      ...(instance && { instance }),
+      ...(this.errors && { errors: this.errors }),
+    };
   }
 }

@@ -50,7 +50,12 @@ export async function readingsInRange(db: Executor, range: SeriesRange): Promise
     from observations
     where series_id = ${range.seriesId} and ts >= to_timestamp(${toSeconds(range.fromMs)}) and ts < to_timestamp(${toSeconds(range.toMs)})
     order by ts`);
-  return result.rows.map((row) => ({ ms: Number(row['ms']), value: numberOrNull(row['value']), estimated: numberOrNull(row['estimated']), quality: Number(row['quality']) }));
+  return result.rows.map((row) => ({
+    ms: Number(row['ms']),
+    value: numberOrNull(row['value']),
+    estimated: numberOrNull(row['estimated']),
+    quality: Number(row['quality']),
+  }));
 }
 
 /**
@@ -87,17 +92,24 @@ export async function bucketsInRange(db: Executor, range: SeriesRange, by: 'hour
 
 /** Rows in the range, and rows carrying each quality flag. */
 export async function qualityCounts(db: Executor, range: SeriesRange): Promise<{ count: number; byFlag: Record<QualityFlagName, number> }> {
-  const perFlag = qualityFlagNames.map((name) => sql`count(*) filter (where quality & ${qualityFlagBits[name]} <> 0)::int as ${sql.identifier(name)}`);
+  const perFlag = qualityFlagNames.map(
+    (name) => sql`count(*) filter (where quality & ${qualityFlagBits[name]} <> 0)::int as ${sql.identifier(name)}`,
+  );
   const result = await db.execute<Record<string, unknown>>(sql`
     select count(*)::int as total, ${sql.join(perFlag, sql`, `)}
     from observations
     where series_id = ${range.seriesId} and ts >= to_timestamp(${toSeconds(range.fromMs)}) and ts < to_timestamp(${toSeconds(range.toMs)})`);
   const row = result.rows[0]!;
-  return { count: Number(row['total']), byFlag: Object.fromEntries(qualityFlagNames.map((name) => [name, Number(row[name])])) as Record<QualityFlagName, number> };
+  return {
+    count: Number(row['total']),
+    byFlag: Object.fromEntries(qualityFlagNames.map((name) => [name, Number(row[name])])) as Record<QualityFlagName, number>,
+  };
 }
 
 /** Epoch ms of the newest stored reading of a series, or null. */
 export async function latestReadingMs(db: Executor, seriesId: number): Promise<number | null> {
-  const result = await db.execute<Record<string, unknown>>(sql`select extract(epoch from max(ts))::float8 * 1000 as ms from observations where series_id = ${seriesId}`);
+  const result = await db.execute<Record<string, unknown>>(
+    sql`select extract(epoch from max(ts))::float8 * 1000 as ms from observations where series_id = ${seriesId}`,
+  );
   return numberOrNull(result.rows[0]?.['ms']);
 }

@@ -29,13 +29,19 @@ export function autoResolution(spanMs: number, intervalMinutes: number): Reading
 }
 
 /** The range asked for, with defaults: up to just after the newest reading, `defaultHistoryDays` long. */
-export async function resolveRange(db: Pick<Database, 'execute'>, series: Series, query: Pick<ReadingHistoryQuery, 'from' | 'to'>): Promise<{ fromMs: number; toMs: number }> {
+export async function resolveRange(
+  db: Pick<Database, 'execute'>,
+  series: Series,
+  query: Pick<ReadingHistoryQuery, 'from' | 'to'>,
+): Promise<{ fromMs: number; toMs: number }> {
   const intervalMs = series.intervalMinutes * 60_000;
   let toMs = query.to ? Date.parse(query.to) : ((await latestReadingMs(db, series.id)) ?? Date.now() - intervalMs) + intervalMs;
   const fromMs = query.from ? Date.parse(query.from) : toMs - defaultHistoryDays * dayMs;
   if (!query.to && fromMs >= toMs) toMs = fromMs + defaultHistoryDays * dayMs;
   if (toMs - fromMs > maxHistoryDays * dayMs) {
-    throw new HttpProblem('invalidInput', `Ask for at most ${maxHistoryDays} days at once.`, [{ pointer: '/query/from', detail: `More than ${maxHistoryDays} days before to` }]);
+    throw new HttpProblem('invalidInput', `Ask for at most ${maxHistoryDays} days at once.`, [
+      { pointer: '/query/from', detail: `More than ${maxHistoryDays} days before to` },
+    ]);
   }
   return { fromMs, toMs };
 }
@@ -44,11 +50,16 @@ export async function resolveRange(db: Pick<Database, 'execute'>, series: Series
 export async function readingHistory(db: Pick<Database, 'execute'>, series: Series, query: ReadingHistoryQuery): Promise<ReadingHistory> {
   const { fromMs, toMs } = await resolveRange(db, series, query);
   const resolution = query.resolution === 'auto' ? autoResolution(toMs - fromMs, series.intervalMinutes) : query.resolution;
-  const rowsAsked = resolution === 'day' ? (toMs - fromMs) / dayMs : (toMs - fromMs) / (resolution === 'hour' ? 3_600_000 : series.intervalMinutes * 60_000);
+  const rowsAsked =
+    resolution === 'day'
+      ? (toMs - fromMs) / dayMs
+      : (toMs - fromMs) / (resolution === 'hour' ? 3_600_000 : series.intervalMinutes * 60_000);
   if (rowsAsked > maxHistoryRows) {
-    throw new HttpProblem('invalidInput', `That range holds about ${Math.round(rowsAsked)} ${resolution === 'interval' ? 'readings' : `${resolution}s`}; ask for a shorter range or a coarser resolution (at most ${maxHistoryRows} rows).`, [
-      { pointer: '/query/resolution', detail: 'Too many rows for this range' },
-    ]);
+    throw new HttpProblem(
+      'invalidInput',
+      `That range holds about ${Math.round(rowsAsked)} ${resolution === 'interval' ? 'readings' : `${resolution}s`}; ask for a shorter range or a coarser resolution (at most ${maxHistoryRows} rows).`,
+      [{ pointer: '/query/resolution', detail: 'Too many rows for this range' }],
+    );
   }
   const range = { seriesId: series.id, fromMs, toMs };
   const summary = await qualityCounts(db, range);
@@ -68,7 +79,13 @@ export async function readingHistory(db: Pick<Database, 'execute'>, series: Seri
     return {
       ...base,
       resolution,
-      points: rows.map((row) => ({ ts: new Date(row.ms).toISOString(), value: row.value, estimated: row.estimated, quality: row.quality, flags: qualityFlagsOf(row.quality) })),
+      points: rows.map((row) => ({
+        ts: new Date(row.ms).toISOString(),
+        value: row.value,
+        estimated: row.estimated,
+        quality: row.quality,
+        flags: qualityFlagsOf(row.quality),
+      })),
     };
   }
   const buckets = await bucketsInRange(db, range, resolution, series.timeZone);

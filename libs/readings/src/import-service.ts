@@ -99,7 +99,16 @@ export async function importBatch(db: Database, batch: ReadingBatch): Promise<Im
         action: batch.auditAction,
         targetType: 'series',
         targetId: series.id,
-        detail: { key: series.key, uploadId, received: batch.readings.length, inserted: result.inserted, unchanged: result.unchanged, revised: result.revised, rejected: result.rejected, findingCounts },
+        detail: {
+          key: series.key,
+          uploadId,
+          received: batch.readings.length,
+          inserted: result.inserted,
+          unchanged: result.unchanged,
+          revised: result.revised,
+          rejected: result.rejected,
+          findingCounts,
+        },
         ip: batch.ip,
       });
       const findings = [...result.findings.examples.values()].flat().map(toFinding);
@@ -160,7 +169,19 @@ async function findLanded(db: Database, contentSha256: string): Promise<LandedUp
 /** The answer for a batch that had landed before: every reading unchanged, nothing added. */
 function alreadyImported(series: Series, earlier: LandedUpload): ImportResult {
   const received = earlier.rowsTotal ?? 0;
-  return { seriesId: series.id, key: series.key, uploadId: earlier.id, alreadyImported: true, received, inserted: 0, unchanged: received, revised: 0, rejected: 0, findingCounts: {}, findings: [] };
+  return {
+    seriesId: series.id,
+    key: series.key,
+    uploadId: earlier.id,
+    alreadyImported: true,
+    received,
+    inserted: 0,
+    unchanged: received,
+    revised: 0,
+    rejected: 0,
+    findingCounts: {},
+    findings: [],
+  };
 }
 
 /** A finding in the contract's shape. */

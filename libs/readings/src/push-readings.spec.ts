@@ -7,13 +7,18 @@ const series = (overrides: Partial<Series> = {}): Series =>
 
 describe('pushedIntervalReadings', () => {
   it('reads offsets, numbers readings from 1 and converts units', () => {
-    const { readings, unit } = pushedIntervalReadings(series(), { unit: 'MW', readings: [{ ts: '2026-01-15T08:00:00-06:00', value: 1.2 }] });
+    const { readings, unit } = pushedIntervalReadings(series(), {
+      unit: 'MW',
+      readings: [{ ts: '2026-01-15T08:00:00-06:00', value: 1.2 }],
+    });
     expect(unit).toBe('MW');
     expect(readings).toEqual([{ ts: new Date('2026-01-15T14:00:00Z'), value: 1200, sourceRow: 1 }]);
   });
 
   it('moves end-marked readings back one interval to the interval start', () => {
-    const { readings } = pushedIntervalReadings(series({ timestampsMark: 'end' }), { readings: [{ ts: '2026-01-15T14:15:00Z', value: 5 }] });
+    const { readings } = pushedIntervalReadings(series({ timestampsMark: 'end' }), {
+      readings: [{ ts: '2026-01-15T14:15:00Z', value: 5 }],
+    });
     expect(readings[0]!.ts.toISOString()).toBe('2026-01-15T14:00:00.000Z');
   });
 

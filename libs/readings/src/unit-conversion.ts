@@ -9,7 +9,10 @@ const wattsPer: Partial<Record<SeriesUnit, number>> = { W: 1, kW: 1e3, MW: 1e6 }
 
 /** True when values in `from` can be converted to `to` (same kind). */
 export function canConvert(from: SeriesUnit, to: SeriesUnit): boolean {
-  return (unitsByKind.load.includes(from) && unitsByKind.load.includes(to)) || (unitsByKind.temperature.includes(from) && unitsByKind.temperature.includes(to));
+  return (
+    (unitsByKind.load.includes(from) && unitsByKind.load.includes(to)) ||
+    (unitsByKind.temperature.includes(from) && unitsByKind.temperature.includes(to))
+  );
 }
 
 /**

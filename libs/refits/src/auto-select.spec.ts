@@ -6,12 +6,23 @@ import { extendModel, modelAtOrigin } from './reanchor';
 import type { ModelDesign } from './model-plan';
 
 const startMs = Date.UTC(2025, 0, 6);
-const design: ModelDesign = { seasonal: { kind: 'profile', period: 168, form: 'additive' }, log: false, temperature: { heatingBase: 60, coolingBase: 72 }, dayTypes: false, holidays: null, timeZone: 'America/Chicago' };
+const design: ModelDesign = {
+  seasonal: { kind: 'profile', period: 168, form: 'additive' },
+  log: false,
+  temperature: { heatingBase: 60, coolingBase: 72 },
+  dayTypes: false,
+  holidays: null,
+  timeZone: 'America/Chicago',
+};
 
 /** `hours` of a synthetic feeder with its station's temperatures. */
 function feeder(hours: number, index = 2): LoadSeriesData {
   const temperature = stationTemperatures(startMs, hours);
-  return { timestamps: Float64Array.from({ length: hours }, (_, i) => startMs + i * 3_600_000), values: feederLoad(index, startMs, hours, temperature), temperature };
+  return {
+    timestamps: Float64Array.from({ length: hours }, (_, i) => startMs + i * 3_600_000),
+    values: feederLoad(index, startMs, hours, temperature),
+    temperature,
+  };
 }
 
 describe('autoSelect', () => {
@@ -21,7 +32,13 @@ describe('autoSelect', () => {
   it('scores every candidate on the same 3 × 24 h backtest and chooses by the stated rule', () => {
     const { candidates, backtest } = choice.selection;
     expect(backtest).toEqual({ origins: 3, horizon: 24 });
-    expect(candidates.map((c) => c.label)).toEqual([expect.stringMatching(/^cmle AR\(\d\)$/), 'ridge AR (lags 1–3, 24, 25, 168)', 'NLS ARMA(2,1)', 'lasso AR (lags 1–48, 168)', 'seasonal naive']);
+    expect(candidates.map((c) => c.label)).toEqual([
+      expect.stringMatching(/^cmle AR\(\d\)$/),
+      'ridge AR (lags 1–3, 24, 25, 168)',
+      'NLS ARMA(2,1)',
+      'lasso AR (lags 1–48, 168)',
+      'seasonal naive',
+    ]);
     const chosen = candidates.filter((c) => c.chosen);
     expect(chosen).toHaveLength(1);
     const naive = candidates.at(-1)!;
@@ -68,11 +85,19 @@ describe('backtestMean', () => {
   it('equals the full forecast of the model carried to the origin', () => {
     const data = feeder(24 * 7 * 8);
     const m = data.values.length - 72;
-    const fitted = fitLoadModel({ ...design, holidays: { country: 'US', extraDates: [] }, method: 'cmle', p: 3, q: 0 }, { timestamps: data.timestamps.subarray(0, m), values: data.values.subarray(0, m), temperature: data.temperature!.subarray(0, m) });
+    const fitted = fitLoadModel(
+      { ...design, holidays: { country: 'US', extraDates: [] }, method: 'cmle', p: 3, q: 0 },
+      { timestamps: data.timestamps.subarray(0, m), values: data.values.subarray(0, m), temperature: data.temperature!.subarray(0, m) },
+    );
     const extended = extendModel(fitted, data);
     for (const origin of [m, m + 24, m + 48]) {
       const quick = backtestMean(extended, origin, 24);
-      const full = forecastLoadModel(modelAtOrigin(extended, origin), { temperature: data.temperature!.subarray(origin, origin + 24) }, 24, []).mean;
+      const full = forecastLoadModel(
+        modelAtOrigin(extended, origin),
+        { temperature: data.temperature!.subarray(origin, origin + 24) },
+        24,
+        [],
+      ).mean;
       for (let h = 0; h < 24; h++) expect(quick[h]).toBeCloseTo(full[h], 8);
     }
   });

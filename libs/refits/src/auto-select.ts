@@ -85,32 +85,58 @@ export function autoSelect(design: ModelDesign, data: LoadSeriesData, options: A
   const remainder = designModel.remainder;
   // The order by AIC from Yule-Walker fits (one autocovariance pass each), then one conditional-MLE fit.
   const order = selectOrder(remainder, { method: 'yule-walker', maxP, criterion: 'aic' });
-  const candidates: ModelCandidate[] = [{ label: `cmle AR(${order.best.p})`, method: 'cmle', fit: cmleAr(remainder, order.best.p), fitMs: clock() - started, error: null }];
+  const candidates: ModelCandidate[] = [
+    { label: `cmle AR(${order.best.p})`, method: 'cmle', fit: cmleAr(remainder, order.best.p), fitMs: clock() - started, error: null },
+  ];
   // Expected CPU milliseconds of each optional candidate on a year of hourly data (measured on the
   // benchmark fleet), scaled by length: a candidate starts only if it should finish within the budget.
   const scale = remainder.length / 8760;
   const optional: Array<{ label: string; method: FittedMethod; costMs: number; run: () => FitResult }> = [
-    { label: 'ridge AR (lags 1–3, 24, 25, 168)', method: 'ridge', costMs: 25, run: () => fitArmaPart({ method: 'ridge', p: 168, q: 0, lags: [1, 2, 3, 24, 25, 168], select: 'bic' }, remainder) },
+    {
+      label: 'ridge AR (lags 1–3, 24, 25, 168)',
+      method: 'ridge',
+      costMs: 25,
+      run: () => fitArmaPart({ method: 'ridge', p: 168, q: 0, lags: [1, 2, 3, 24, 25, 168], select: 'bic' }, remainder),
+    },
     { label: 'NLS ARMA(2,1)', method: 'nls', costMs: 20, run: () => nlsArma(remainder, 2, 1) },
-    { label: 'lasso AR (lags 1–48, 168)', method: 'lasso', costMs: 110, run: () => fitArmaPart({ method: 'lasso', p: 168, q: 0, lags: regularisedLags(48, [168]), select: 'bic' }, remainder) },
+    {
+      label: 'lasso AR (lags 1–48, 168)',
+      method: 'lasso',
+      costMs: 110,
+      run: () => fitArmaPart({ method: 'lasso', p: 168, q: 0, lags: regularisedLags(48, [168]), select: 'bic' }, remainder),
+    },
   ];
   for (const candidate of optional) {
     if (clock() - started + candidate.costMs * scale > budgetMs) {
-      candidates.push({ label: candidate.label, method: candidate.method, fit: null, fitMs: 0, error: `left out: the ${budgetMs} ms time budget was spent` });
+      candidates.push({
+        label: candidate.label,
+        method: candidate.method,
+        fit: null,
+        fitMs: 0,
+        error: `left out: the ${budgetMs} ms time budget was spent`,
+      });
       continue;
     }
     const at = clock();
     try {
       candidates.push({ label: candidate.label, method: candidate.method, fit: candidate.run(), fitMs: clock() - at, error: null });
     } catch (error) {
-      candidates.push({ label: candidate.label, method: candidate.method, fit: null, fitMs: clock() - at, error: describeRefitError(error) });
+      candidates.push({
+        label: candidate.label,
+        method: candidate.method,
+        fit: null,
+        fitMs: clock() - at,
+        error: describeRefitError(error),
+      });
     }
   }
 
   const naivePeriod = design.seasonal.kind === 'difference' ? design.seasonal.lag : 168;
   const origins = holdout === 0 ? [] : Array.from({ length: originCount }, (_, i) => m + i * horizon);
   const actual = (o: number, h: number) => data.values[o + h];
-  const naiveErrors = origins.flatMap((o) => Array.from({ length: horizon }, (_, h) => actual(o, h) - data.values[o + h - naivePeriod * Math.ceil((h + 1) / naivePeriod)]));
+  const naiveErrors = origins.flatMap((o) =>
+    Array.from({ length: horizon }, (_, h) => actual(o, h) - data.values[o + h - naivePeriod * Math.ceil((h + 1) / naivePeriod)]),
+  );
   const naiveMae = meanAbs(naiveErrors);
 
   const scored = candidates.map((candidate) => {
@@ -137,7 +163,9 @@ export function autoSelect(design: ModelDesign, data: LoadSeriesData, options: A
     reason = `The window is too short for a backtest (${n} hours); ${winner?.candidate.label ?? 'seasonal naive'} has the lowest AIC.`;
   } else {
     const best = Math.min(...usable.map((s) => s.mae!));
-    const tied = usable.filter((s) => s.mae! <= best * TIE).sort((a, b) => (a.candidate.fit!.aic ?? Infinity) - (b.candidate.fit!.aic ?? Infinity));
+    const tied = usable
+      .filter((s) => s.mae! <= best * TIE)
+      .sort((a, b) => (a.candidate.fit!.aic ?? Infinity) - (b.candidate.fit!.aic ?? Infinity));
     winner = tied[0] ?? null;
     if (!winner || winner.mae! >= naiveMae) {
       reason = winner

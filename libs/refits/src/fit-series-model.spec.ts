@@ -15,7 +15,11 @@ function inputs(settings: ModelSettingsRequest, withTemperature: boolean): Refit
   return {
     series: { id: 1, key: 'feeder', name: 'Feeder', unit: 'kW', intervalMinutes: 60, timeZone: 'America/Chicago', temperatureSeriesId: 2 },
     settings,
-    window: { timestamps: Float64Array.from({ length: hours }, (_, i) => startMs + i * 3_600_000), values: feederLoad(4, startMs, hours, temperature), bridgedHours: 3 },
+    window: {
+      timestamps: Float64Array.from({ length: hours }, (_, i) => startMs + i * 3_600_000),
+      values: feederLoad(4, startMs, hours, temperature),
+      bridgedHours: 3,
+    },
     temperature: withTemperature
       ? { usable: true, station, training: temperature.slice(0, hours), future: temperature.slice(hours) }
       : { usable: false, station, reason: 'no temperature forecast covers the next 168 hours', fallback: true },
@@ -26,9 +30,17 @@ describe('fitSeriesModel', () => {
   const fixed: Array<[string, Partial<ModelSettingsRequest>, string]> = [
     ['Yule-Walker with the order by AIC', { method: 'yule-walker', maxArOrder: 8 }, 'yule-walker'],
     ['conditional MLE of a fixed order', { method: 'cmle', arOrder: 3 }, 'cmle'],
-    ['NLS ARMA with a daily profile and day types', { method: 'nls', arOrder: 2, maOrder: 1, seasonal: { kind: 'profile', slot: 'hour-of-day', form: 'additive' } }, 'nls'],
+    [
+      'NLS ARMA with a daily profile and day types',
+      { method: 'nls', arOrder: 2, maOrder: 1, seasonal: { kind: 'profile', slot: 'hour-of-day', form: 'additive' } },
+      'nls',
+    ],
     ['lasso over 1..24 and 168', { method: 'lasso', arOrder: 24, extraLags: [168] }, 'lasso'],
-    ['ridge with weekly differencing and log', { method: 'ridge', arOrder: 3, seasonal: { kind: 'difference', lag: 168 }, log: true }, 'ridge'],
+    [
+      'ridge with weekly differencing and log',
+      { method: 'ridge', arOrder: 3, seasonal: { kind: 'difference', lag: 168 }, log: true },
+      'ridge',
+    ],
     ['seasonal naive', { method: 'seasonal-naive', seasonal: { kind: 'none' } }, 'seasonal-naive'],
   ];
   for (const [name, change, method] of fixed) {
@@ -55,7 +67,13 @@ describe('fitSeriesModel', () => {
   });
 
   it('uses degree-hours with the station forecast, and the balance points of the settings', () => {
-    const outcome = fitSeriesModel(inputs({ ...defaultModelSettings, method: 'cmle', arOrder: 2, temperature: { enabled: true, heatingBase: 55, coolingBase: 75 } }, true), null);
+    const outcome = fitSeriesModel(
+      inputs(
+        { ...defaultModelSettings, method: 'cmle', arOrder: 2, temperature: { enabled: true, heatingBase: 55, coolingBase: 75 } },
+        true,
+      ),
+      null,
+    );
     expect(outcome.model.spec.temperature).toEqual({ heatingBase: 55, coolingBase: 75 });
     expect(outcome.model.regression.names).toEqual(expect.arrayContaining(['heating-degree-hours', 'cooling-degree-hours']));
     expect(outcome.diagnostics.temperature.used).toBe(true);

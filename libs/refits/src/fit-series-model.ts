@@ -44,18 +44,29 @@ export function fitSeriesModel(inputs: RefitInputs, holidays: HolidaySpec | null
   const { settings, window, temperature, series } = inputs;
   const useTemperature = temperature.usable;
   const design = modelDesign(settings, series.timeZone, useTemperature ? temperature.station.unit : null, holidays);
-  const data: LoadSeriesData = { timestamps: window.timestamps, values: window.values, temperature: useTemperature ? temperature.training : undefined };
+  const data: LoadSeriesData = {
+    timestamps: window.timestamps,
+    values: window.values,
+    temperature: useTemperature ? temperature.training : undefined,
+  };
 
   let at = performance.now();
   const cpuAt = cpuMilliseconds();
-  const chosen = settings.method === 'auto' ? autoSelect(design, data, { maxArOrder: settings.maxArOrder, ...autoOptions }) : fitFixedMethod(settings, design, data);
+  const chosen =
+    settings.method === 'auto'
+      ? autoSelect(design, data, { maxArOrder: settings.maxArOrder, ...autoOptions })
+      : fitFixedMethod(settings, design, data);
   const fitMs = performance.now() - at;
   const fitCpu = cpuMilliseconds() - cpuAt;
 
   at = performance.now();
   const warnings: FitDiagnostics['warnings'] = [];
   if (!temperature.usable && temperature.fallback) warnings.push({ code: 'temperature-fallback', message: temperature.reason });
-  if (window.bridgedHours > 0) warnings.push({ code: 'bridged-hours', message: `${window.bridgedHours} missing or excluded hours of the training window were bridged by straight lines` });
+  if (window.bridgedHours > 0)
+    warnings.push({
+      code: 'bridged-hours',
+      message: `${window.bridgedHours} missing or excluded hours of the training window were bridged by straight lines`,
+    });
   const diagnostics: FitDiagnostics = {
     ...residualChecks(chosen.model),
     temperature: !temperature.usable
@@ -69,13 +80,22 @@ export function fitSeriesModel(inputs: RefitInputs, holidays: HolidaySpec | null
 
   at = performance.now();
   const levels = [...new Set([...settings.levels, 80, 95])].sort((a, b) => a - b);
-  const forecast = forecastLoadModel(chosen.model, { temperature: useTemperature ? temperature.future : undefined }, settings.horizonHours, levels);
+  const forecast = forecastLoadModel(
+    chosen.model,
+    { temperature: useTemperature ? temperature.future : undefined },
+    settings.horizonHours,
+    levels,
+  );
   const forecastMs = performance.now() - at;
   return { ...chosen, diagnostics, forecast, data, timings: { fit: fitMs, fitCpu, diagnose: diagnoseMs, forecast: forecastMs } };
 }
 
 /** A fixed method from the settings; orders left empty are chosen by AIC on the design's remainder. */
-function fitFixedMethod(settings: ModelSettingsRequest, design: ModelDesign, data: LoadSeriesData): { model: FittedLoadModel; method: FittedMethod; selection: null } {
+function fitFixedMethod(
+  settings: ModelSettingsRequest,
+  design: ModelDesign,
+  data: LoadSeriesData,
+): { model: FittedLoadModel; method: FittedMethod; selection: null } {
   const method = settings.method;
   if (method === 'seasonal-naive') return { model: fitLoadModel(seasonalNaiveSpec(design), data), method, selection: null };
   if (method === 'ridge' || method === 'lasso') {
@@ -89,7 +109,8 @@ function fitFixedMethod(settings: ModelSettingsRequest, design: ModelDesign, dat
     return { model: fitLoadModel({ ...design, method: 'nls', p, q }, data), method, selection: null };
   }
   if (method === 'auto') throw new Error('fitFixedMethod is for fixed methods');
-  if (settings.arOrder !== null) return { model: fitLoadModel({ ...design, method, p: settings.arOrder, q: 0 }, data), method, selection: null };
+  if (settings.arOrder !== null)
+    return { model: fitLoadModel({ ...design, method, p: settings.arOrder, q: 0 }, data), method, selection: null };
   // Order by AIC: the design is estimated once at the largest order, then the order chosen on its remainder.
   const model = fitLoadModel({ ...design, method, p: settings.maxArOrder, q: 0 }, data);
   const order = selectOrder(model.remainder, { method, maxP: settings.maxArOrder, criterion: 'aic', budgetMs: 500 });

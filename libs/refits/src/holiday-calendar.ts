@@ -66,7 +66,11 @@ export async function readHolidaySpec(db: Queryable): Promise<HolidaySpec | null
   let spec: HolidaySpec | null = null;
   if (place.country) {
     const { rows } = await db.query({ text: `select to_char(day, 'YYYY-MM-DD') as day from holidays order by day` });
-    spec = { country: place.country, ...(place.region ? { region: place.region } : {}), extraDates: (rows as Array<{ day: string }>).map((r) => r.day) };
+    spec = {
+      country: place.country,
+      ...(place.region ? { region: place.region } : {}),
+      extraDates: (rows as Array<{ day: string }>).map((r) => r.day),
+    };
   }
   cache.set(db, { at: Date.now(), spec });
   return spec;

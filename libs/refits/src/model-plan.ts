@@ -19,7 +19,12 @@ export function defaultBalancePoints(unit: string): BalancePoints {
  * regressors: with an hour-of-week profile (which carries the weekday pattern) a holiday indicator alone,
  * otherwise Saturday and Sunday-or-holiday indicators.
  */
-export function modelDesign(settings: ModelSettingsRequest, timeZone: string, temperatureUnit: string | null, holidays: HolidaySpec | null): ModelDesign {
+export function modelDesign(
+  settings: ModelSettingsRequest,
+  timeZone: string,
+  temperatureUnit: string | null,
+  holidays: HolidaySpec | null,
+): ModelDesign {
   const seasonal: SeasonalSpec =
     settings.seasonal.kind === 'none'
       ? { kind: 'none' }
@@ -32,7 +37,10 @@ export function modelDesign(settings: ModelSettingsRequest, timeZone: string, te
     seasonal,
     log: settings.log,
     temperature: defaults
-      ? { heatingBase: settings.temperature.heatingBase ?? defaults.heatingBase, coolingBase: settings.temperature.coolingBase ?? defaults.coolingBase }
+      ? {
+          heatingBase: settings.temperature.heatingBase ?? defaults.heatingBase,
+          coolingBase: settings.temperature.coolingBase ?? defaults.coolingBase,
+        }
       : null,
     dayTypes: settings.dayTypes && !weeklyProfile,
     holidays: settings.dayTypes ? holidays : null,

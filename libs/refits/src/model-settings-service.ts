@@ -13,7 +13,14 @@ export class NoModelError extends Error {
 
 /** The settings of load series `seriesId` (defaults when none were stored). */
 export async function readModelSettings(db: Database, pool: pg.Pool, seriesId: number): Promise<ModelSettings> {
-  const { rows } = await pool.query<{ kind: string; t_id: number | null; t_key: string | null; t_name: string | null; t_unit: string | null; created_at: Date }>(
+  const { rows } = await pool.query<{
+    kind: string;
+    t_id: number | null;
+    t_key: string | null;
+    t_name: string | null;
+    t_unit: string | null;
+    created_at: Date;
+  }>(
     `select s.kind, s.created_at, t.id as t_id, t.key as t_key, t.name as t_name, t.unit as t_unit
        from series s left join series t on t.id = s.temperature_series_id where s.id = $1`,
     [seriesId],
@@ -37,9 +44,17 @@ export async function readModelSettings(db: Database, pool: pg.Pool, seriesId: n
 }
 
 /** Stores new settings for `seriesId` (insert or replace). */
-export async function writeModelSettings(db: Pick<Database, 'insert'>, seriesId: number, settings: ModelSettingsRequest, updatedById: number | null): Promise<void> {
+export async function writeModelSettings(
+  db: Pick<Database, 'insert'>,
+  seriesId: number,
+  settings: ModelSettingsRequest,
+  updatedById: number | null,
+): Promise<void> {
   const values = rowValuesFromSettings(settings, updatedById);
-  await db.insert(modelSpecs).values({ seriesId, ...values }).onConflictDoUpdate({ target: modelSpecs.seriesId, set: values });
+  await db
+    .insert(modelSpecs)
+    .values({ seriesId, ...values })
+    .onConflictDoUpdate({ target: modelSpecs.seriesId, set: values });
 }
 
 /** The newest fit of `seriesId`, or null. */

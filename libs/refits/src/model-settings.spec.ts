@@ -12,8 +12,21 @@ function roundTrip(settings: ModelSettingsRequest): ModelSettingsRequest {
 describe('model settings in the database', () => {
   const cases: ModelSettingsRequest[] = [
     defaultModelSettings,
-    { ...defaultModelSettings, method: 'nls', arOrder: 2, maOrder: 1, seasonal: { kind: 'profile', slot: 'hour-of-day', form: 'multiplicative' }, log: true },
-    { ...defaultModelSettings, method: 'lasso', extraLags: [168], seasonal: { kind: 'difference', lag: 24 }, temperature: { enabled: true, heatingBase: 58, coolingBase: 75 } },
+    {
+      ...defaultModelSettings,
+      method: 'nls',
+      arOrder: 2,
+      maOrder: 1,
+      seasonal: { kind: 'profile', slot: 'hour-of-day', form: 'multiplicative' },
+      log: true,
+    },
+    {
+      ...defaultModelSettings,
+      method: 'lasso',
+      extraLags: [168],
+      seasonal: { kind: 'difference', lag: 24 },
+      temperature: { enabled: true, heatingBase: 58, coolingBase: 75 },
+    },
     { ...defaultModelSettings, method: 'seasonal-naive', seasonal: { kind: 'none' }, dayTypes: false, levels: [50, 80, 95] },
   ];
   for (const settings of cases) {

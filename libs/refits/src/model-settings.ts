@@ -77,7 +77,13 @@ export function rowValuesFromSettings(settings: ModelSettingsRequest, updatedByI
     maxMaOrder: settings.maxMaOrder,
     extraLags: settings.extraLags,
     seasonalTreatment:
-      seasonal.kind === 'none' ? 'none' : seasonal.kind === 'difference' ? 'seasonal_difference' : seasonal.slot === 'hour-of-day' ? 'hour_of_day_profile' : 'hour_of_week_profile',
+      seasonal.kind === 'none'
+        ? 'none'
+        : seasonal.kind === 'difference'
+          ? 'seasonal_difference'
+          : seasonal.slot === 'hour-of-day'
+            ? 'hour_of_day_profile'
+            : 'hour_of_week_profile',
     profileForm: seasonal.kind === 'profile' ? seasonal.form : 'additive',
     differenceLag: seasonal.kind === 'difference' ? seasonal.lag : 168,
     logTransform: settings.log,

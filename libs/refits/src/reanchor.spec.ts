@@ -39,7 +39,10 @@ function cut(model: FittedLoadModel, m: number): FittedLoadModel {
 describe('extendModel', () => {
   const specs: Array<[string, LoadModelSpec]> = [
     ['an additive weekly profile with degree-hours and holidays', base],
-    ['a multiplicative daily profile with day types and log', { ...base, seasonal: { kind: 'profile', period: 24, form: 'multiplicative' }, dayTypes: true, log: true }],
+    [
+      'a multiplicative daily profile with day types and log',
+      { ...base, seasonal: { kind: 'profile', period: 24, form: 'multiplicative' }, dayTypes: true, log: true },
+    ],
     ['weekly differencing', { ...base, seasonal: { kind: 'difference', lag: 168 }, holidays: null }],
   ];
   for (const [name, spec] of specs) {
@@ -49,7 +52,8 @@ describe('extendModel', () => {
       const extended = extendModel(cut(full, m), data);
       expect(extended.remainder.length).toBe(full.remainder.length);
       for (let t = 0; t < full.remainder.length; t++) expect(extended.remainder[t]).toBeCloseTo(full.remainder[t], 8);
-      for (let j = 0; j < full.regressors.length; j++) for (let t = m; t < hours; t++) expect(extended.regressors[j][t]).toBe(full.regressors[j][t]);
+      for (let j = 0; j < full.regressors.length; j++)
+        for (let t = m; t < hours; t++) expect(extended.regressors[j][t]).toBe(full.regressors[j][t]);
     });
   }
 

@@ -7,7 +7,13 @@ export class RefitDataError extends Error {
 }
 
 /** Engine refusals that come from the data, not from a passing fault. */
-const permanentEngineCodes = new Set<ForecastingErrorCode>(['too-few-observations', 'constant-series', 'non-finite-input', 'invalid-argument', 'non-stationary']);
+const permanentEngineCodes = new Set<ForecastingErrorCode>([
+  'too-few-observations',
+  'constant-series',
+  'non-finite-input',
+  'invalid-argument',
+  'non-stationary',
+]);
 
 /** True when retrying would fail again the same way (bad data or settings). */
 export function isPermanentRefitError(error: unknown): boolean {

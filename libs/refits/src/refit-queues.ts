@@ -43,9 +43,17 @@ export type JobInserter = (jobs: PgBoss.JobInsert[], connection: Queryable) => P
 
 /** A JobInserter that needs no running pg-boss: pg-boss's insert statement run on the caller's connection. */
 export function createJobInserter(): JobInserter {
-  const boss = new PgBoss({ db: { executeSql: async () => ({ rows: [] }) }, schema: 'pgboss', supervise: false, schedule: false, migrate: false });
+  const boss = new PgBoss({
+    db: { executeSql: async () => ({ rows: [] }) },
+    schema: 'pgboss',
+    supervise: false,
+    schedule: false,
+    migrate: false,
+  });
   return async (jobs, connection) => {
-    await boss.insert(jobs, { db: { executeSql: (text, values) => connection.query({ text, values }) as Promise<{ rows: unknown[] }> as Promise<{ rows: any[] }> } });
+    await boss.insert(jobs, {
+      db: { executeSql: (text, values) => connection.query({ text, values }) as Promise<{ rows: unknown[] }> as Promise<{ rows: any[] }> },
+    });
   };
 }
 

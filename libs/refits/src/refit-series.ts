@@ -21,10 +21,17 @@ export interface Attempt {
 }
 
 /** How a refit job ended. */
-export type RefitSeriesResult = WriteResult | { written: false; reason: 'failed'; error: string } | { written: false; reason: 'skipped-done' };
+export type RefitSeriesResult =
+  WriteResult | { written: false; reason: 'failed'; error: string } | { written: false; reason: 'skipped-done' };
 
 /** Refits `seriesId` for run `runId`; see the file comment. */
-export async function refitSeries(pool: pg.Pool, runId: number, seriesId: number, attempt: Attempt, autoOptions: AutoOptions = {}): Promise<RefitSeriesResult> {
+export async function refitSeries(
+  pool: pg.Pool,
+  runId: number,
+  seriesId: number,
+  attempt: Attempt,
+  autoOptions: AutoOptions = {},
+): Promise<RefitSeriesResult> {
   const startedMs = performance.now();
   const marked = await pool.query<{ status: string }>(
     `update refit_run_series set status = 'running', attempts = attempts + 1, started_at = coalesce(started_at, now())
@@ -48,7 +55,10 @@ export async function refitSeries(pool: pg.Pool, runId: number, seriesId: number
       await markFailed(pool, runId, seriesId, message, performance.now() - startedMs);
       return { written: false, reason: 'failed', error: message };
     }
-    await pool.query(`update refit_run_series set status = 'queued', error = $3 where run_id = $1 and series_id = $2 and status = 'running'`, [runId, seriesId, message]);
+    await pool.query(
+      `update refit_run_series set status = 'queued', error = $3 where run_id = $1 and series_id = $2 and status = 'running'`,
+      [runId, seriesId, message],
+    );
     throw error;
   }
 }

@@ -27,7 +27,9 @@ export async function listRuns(pool: pg.Pool, limit: number): Promise<RefitRunSu
 
 /** The newest unfinished run, or null. */
 export async function currentRun(pool: pg.Pool): Promise<RefitRunSummary | null> {
-  const { rows } = await pool.query<RunRow>(`select ${runColumns} where r.finished_at is null order by r.created_at desc, r.id desc limit 1`);
+  const { rows } = await pool.query<RunRow>(
+    `select ${runColumns} where r.finished_at is null order by r.created_at desc, r.id desc limit 1`,
+  );
   return (await summarise(pool, rows))[0] ?? null;
 }
 

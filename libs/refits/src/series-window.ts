@@ -77,10 +77,14 @@ export async function readRefitInputs(db: Queryable, seriesId: number): Promise<
   if (series.intervalMinutes !== 60) {
     throw new RefitDataError(`${series.key} records every ${series.intervalMinutes} minutes; the refit models hourly series only`);
   }
-  const specRows = (await db.query({ text: 'select * from model_specs where series_id = $1', values: [seriesId] })).rows as Array<Record<string, unknown>>;
+  const specRows = (await db.query({ text: 'select * from model_specs where series_id = $1', values: [seriesId] })).rows as Array<
+    Record<string, unknown>
+  >;
   const settings = specRows[0] ? settingsFromRow(camelRow(specRows[0]) as unknown as ModelSpecRow) : defaultModelSettings;
   const window = await readTrainingWindow(db, series, settings.trainingWindowDays);
-  const temperature = settings.temperature.enabled ? await readTemperature(db, series, window, settings.horizonHours) : { usable: false as const, station: null, reason: 'temperature regressors are switched off in the settings', fallback: false };
+  const temperature = settings.temperature.enabled
+    ? await readTemperature(db, series, window, settings.horizonHours)
+    : { usable: false as const, station: null, reason: 'temperature regressors are switched off in the settings', fallback: false };
   return { series, settings, window, temperature };
 }
 
@@ -159,7 +163,10 @@ async function readStationHourly(db: Queryable, stationId: number, fromMs: numbe
 
 /** The last `days` of hourly values up to the last reading, checked for length, gaps and variation. */
 async function readTrainingWindow(db: Queryable, series: RefitSeries, days: number): Promise<TrainingWindow> {
-  const { rows } = await db.query({ text: 'select (extract(epoch from max(ts)) * 1000)::float8 as last from observations where series_id = $1', values: [series.id] });
+  const { rows } = await db.query({
+    text: 'select (extract(epoch from max(ts)) * 1000)::float8 as last from observations where series_id = $1',
+    values: [series.id],
+  });
   const last = (rows[0] as { last: number | null }).last;
   if (last === null) throw new RefitDataError(`${series.key} has no readings yet`);
   const hours = days * 24;
@@ -171,11 +178,15 @@ async function readTrainingWindow(db: Queryable, series: RefitSeries, days: numb
   const values = raw.slice(first, end);
   const n = values.length;
   if (n < MIN_TRAINING_HOURS) {
-    throw new RefitDataError(`${series.key} has ${n} usable hours in its training window; the refit needs at least ${MIN_TRAINING_HOURS} (two weeks)`);
+    throw new RefitDataError(
+      `${series.key} has ${n} usable hours in its training window; the refit needs at least ${MIN_TRAINING_HOURS} (two weeks)`,
+    );
   }
   const missing = countMissing(values);
   if (missing > MAX_MISSING_SHARE * n) {
-    throw new RefitDataError(`${series.key} misses ${missing} of ${n} hours (${Math.round((100 * missing) / n)} %) in its training window; at most ${MAX_MISSING_SHARE * 100} % can be bridged`);
+    throw new RefitDataError(
+      `${series.key} misses ${missing} of ${n} hours (${Math.round((100 * missing) / n)} %) in its training window; at most ${MAX_MISSING_SHARE * 100} % can be bridged`,
+    );
   }
   const bridgedHours = fillInteriorGaps(values, Number.POSITIVE_INFINITY);
   let min = Infinity;
@@ -185,7 +196,9 @@ async function readTrainingWindow(db: Queryable, series: RefitSeries, days: numb
     if (values[t] > max) max = values[t];
   }
   if (max - min <= 1e-9 * Math.max(1, Math.abs(max))) {
-    throw new RefitDataError(`${series.key} holds the same value (${max}) in every hour of its training window: there is no variation to model`);
+    throw new RefitDataError(
+      `${series.key} holds the same value (${max}) in every hour of its training window: there is no variation to model`,
+    );
   }
   // Grid hour i of `raw` is last − (hours − 1 − i) hours.
   const startMs = last - (hours - 1 - first) * HOUR_MS;
@@ -195,7 +208,8 @@ async function readTrainingWindow(db: Queryable, series: RefitSeries, days: numb
 
 /** The station's temperatures aligned with the training hours and the horizon, or why not. */
 async function readTemperature(db: Queryable, series: RefitSeries, window: TrainingWindow, horizon: number): Promise<TemperatureInputs> {
-  if (series.temperatureSeriesId === null) return { usable: false, station: null, reason: 'the series has no linked temperature series', fallback: false };
+  if (series.temperatureSeriesId === null)
+    return { usable: false, station: null, reason: 'the series has no linked temperature series', fallback: false };
   const { rows } = await db.query({ text: 'select id, key, name, unit from series where id = $1', values: [series.temperatureSeriesId] });
   const station = rows[0] as Station;
   const n = window.values.length;
@@ -205,7 +219,12 @@ async function readTemperature(db: Queryable, series: RefitSeries, window: Train
   const training = all.slice(0, n);
   const coverage = 1 - countMissing(training) / n;
   if (coverage < MIN_TEMPERATURE_COVERAGE) {
-    return { usable: false, station, reason: `${station.name} covers ${Math.round(coverage * 100)} % of the training hours (needs ${MIN_TEMPERATURE_COVERAGE * 100} %)`, fallback: true };
+    return {
+      usable: false,
+      station,
+      reason: `${station.name} covers ${Math.round(coverage * 100)} % of the training hours (needs ${MIN_TEMPERATURE_COVERAGE * 100} %)`,
+      fallback: true,
+    };
   }
   fillInteriorGaps(training, Number.POSITIVE_INFINITY);
   fillEdges(training);
@@ -234,5 +253,7 @@ function fillEdges(values: Float64Array): void {
 
 /** A snake_case row with camelCase keys (model_specs read through plain SQL). */
 function camelRow(row: Record<string, unknown>): Record<string, unknown> {
-  return Object.fromEntries(Object.entries(row).map(([key, value]) => [key.replace(/_([a-z0-9])/g, (_, c: string) => c.toUpperCase()), value]));
+  return Object.fromEntries(
+    Object.entries(row).map(([key, value]) => [key.replace(/_([a-z0-9])/g, (_, c: string) => c.toUpperCase()), value]),
+  );
 }

@@ -82,15 +82,20 @@ export async function resolveScope(pool: pg.Pool, scope: RefitScope): Promise<nu
        select s.id from series s join tree using (id) where s.kind = 'load' and s.archived_at is null order by s.id`,
       [scope.seriesId],
     );
-    if (rows.length === 0) throw new RefitScopeError('invalidInput', `Series ${scope.seriesId} and the series below it hold no active load series.`);
+    if (rows.length === 0)
+      throw new RefitScopeError('invalidInput', `Series ${scope.seriesId} and the series below it hold no active load series.`);
     return rows.map((r) => r.id);
   }
   const wanted = [...new Set(scope.seriesIds)];
-  const { rows } = await pool.query<{ id: number; kind: string; archived_at: Date | null }>('select id, kind, archived_at from series where id = any($1::int[])', [wanted]);
+  const { rows } = await pool.query<{ id: number; kind: string; archived_at: Date | null }>(
+    'select id, kind, archived_at from series where id = any($1::int[])',
+    [wanted],
+  );
   const found = new Map(rows.map((r) => [r.id, r]));
   const missing = wanted.filter((id) => !found.has(id));
   if (missing.length > 0) throw new RefitScopeError('notFound', `No series with id ${missing.slice(0, 10).join(', ')}.`);
   const unusable = rows.filter((r) => r.kind !== 'load' || r.archived_at !== null).map((r) => r.id);
-  if (unusable.length > 0) throw new RefitScopeError('invalidInput', `Series ${unusable.slice(0, 10).join(', ')} cannot be refitted (temperature or archived).`);
+  if (unusable.length > 0)
+    throw new RefitScopeError('invalidInput', `Series ${unusable.slice(0, 10).join(', ')} cannot be refitted (temperature or archived).`);
   return wanted.sort((a, b) => a - b);
 }

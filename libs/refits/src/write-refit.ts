@@ -40,7 +40,10 @@ export async function writeRefit(
   const client = await pool.connect();
   try {
     await client.query('begin');
-    const state = await client.query<{ status: string }>('select status from refit_run_series where run_id = $1 and series_id = $2 for update', [runId, seriesId]);
+    const state = await client.query<{ status: string }>(
+      'select status from refit_run_series where run_id = $1 and series_id = $2 for update',
+      [runId, seriesId],
+    );
     if (state.rows.length === 0) {
       await client.query('rollback');
       return { written: false, reason: 'not-in-run' };
@@ -50,7 +53,10 @@ export async function writeRefit(
       return { written: false, reason: 'already-done' };
     }
     const fitId = await insertFit(client, inputs, outcome);
-    await client.query(`update forecast_versions set state = 'superseded', superseded_at = now() where series_id = $1 and state = 'draft'`, [seriesId]);
+    await client.query(
+      `update forecast_versions set state = 'superseded', superseded_at = now() where series_id = $1 and state = 'draft'`,
+      [seriesId],
+    );
     const warnings = outcome.diagnostics.warnings;
     const version = await client.query<{ id: string }>(
       `insert into forecast_versions (series_id, fit_id, refit_run_id, state, origin, horizon_hours, levels, warnings)
@@ -91,12 +97,32 @@ async function insertFit(client: pg.PoolClient, inputs: RefitInputs, outcome: Se
   const { model, data } = outcome;
   const arma = model.arma;
   const parameters: Record<string, unknown> = arma
-    ? { mean: arma.mean, ar: arma.ar, ma: arma.ma, regression: { names: model.regression.names, coefficients: model.regression.coefficients, dropped: model.regression.dropped } }
+    ? {
+        mean: arma.mean,
+        ar: arma.ar,
+        ma: arma.ma,
+        regression: { names: model.regression.names, coefficients: model.regression.coefficients, dropped: model.regression.dropped },
+      }
     : { seasonalNaive: model.seasonalNaive };
-  if (model.profile) parameters['profile'] = { slot: model.profile.slot, form: model.profile.form, level: model.profile.level, effect: Array.from(model.profile.effect) };
+  if (model.profile)
+    parameters['profile'] = {
+      slot: model.profile.slot,
+      form: model.profile.form,
+      level: model.profile.level,
+      effect: Array.from(model.profile.effect),
+    };
   const standardErrors = arma ? { ...arma.stderr, regression: model.regression.stderr } : null;
-  const methodColumn = { 'yule-walker': 'yule_walker', cmle: 'conditional_mle', nls: 'nls_arma', ridge: 'ridge_ar', lasso: 'lasso_ar', 'seasonal-naive': 'seasonal_naive' }[outcome.method];
-  const hash = createHash('sha256').update(new Uint8Array(data.values.buffer, data.values.byteOffset, data.values.byteLength)).digest('hex');
+  const methodColumn = {
+    'yule-walker': 'yule_walker',
+    cmle: 'conditional_mle',
+    nls: 'nls_arma',
+    ridge: 'ridge_ar',
+    lasso: 'lasso_ar',
+    'seasonal-naive': 'seasonal_naive',
+  }[outcome.method];
+  const hash = createHash('sha256')
+    .update(new Uint8Array(data.values.buffer, data.values.byteOffset, data.values.byteLength))
+    .digest('hex');
   const n = data.values.length;
   const { rows } = await client.query<{ id: string }>(
     `insert into fits (series_id, spec_snapshot, method, ar_order, ma_order, parameters, standard_errors, sigma2, log_likelihood, aic, aicc, bic,
@@ -148,7 +174,8 @@ function pointColumns(outcome: SeriesModelOutcome) {
     upper95: Array.from(i95.upper),
   };
   for (const [name, values] of Object.entries(columns)) {
-    if (values.some((v) => !Number.isFinite(v))) throw new RefitDataError(`the forecast's ${name} is not finite: the model is unusable for this series`);
+    if (values.some((v) => !Number.isFinite(v)))
+      throw new RefitDataError(`the forecast's ${name} is not finite: the model is unusable for this series`);
   }
   return columns;
 }

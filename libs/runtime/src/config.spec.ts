@@ -17,7 +17,14 @@ describe('loadConfig', () => {
   it('names every bad variable with what it needs and what it got', () => {
     const attempt = () => loadConfig({ PORT: 'eighty', WORKER_PROCESSES: '0', DATABASE_URL: 'mysql://x', LOG_LEVEL: 'loud' });
     expect(attempt).toThrow(ConfigError);
-    const message = (() => { try { attempt(); return ''; } catch (e) { return (e as Error).message; } })();
+    const message = (() => {
+      try {
+        attempt();
+        return '';
+      } catch (e) {
+        return (e as Error).message;
+      }
+    })();
     expect(message).toContain('PORT must be a whole number from 1 to 65535 (got "eighty")');
     expect(message).toContain('WORKER_PROCESSES must be at least 1 (got "0")');
     expect(message).toContain('DATABASE_URL must be a postgres:// URL');

@@ -22,8 +22,8 @@ const parent = alias(series, 'parent');
 const station = alias(series, 'station');
 
 /** Newest reading of the row's series: a backwards scan of the (series_id, ts) primary key. */
-const latestReading = sql<Date | null>`(select max(o.ts) from observations o where o.series_id = ${series.id})`.mapWith((v: string | Date | null) =>
-  v === null ? null : new Date(v),
+const latestReading = sql<Date | null>`(select max(o.ts) from observations o where o.series_id = ${series.id})`.mapWith(
+  (v: string | Date | null) => (v === null ? null : new Date(v)),
 );
 
 /** Escapes LIKE wildcards so a search for "n_1" finds that text, not "n-1". */
@@ -62,7 +62,11 @@ function listOrder(filter: SeriesListFilter): SQL[] {
       return [direction(sql`lower(${series.name})`), direction(series.key), asc(series.id)];
     case 'level':
       // The level enum sorts system, zone, substation, feeder; temperature series (no level) come last.
-      return [filter.order === 'desc' ? sql`${series.level} desc nulls last` : sql`${series.level} asc nulls last`, asc(series.key), asc(series.id)];
+      return [
+        filter.order === 'desc' ? sql`${series.level} desc nulls last` : sql`${series.level} asc nulls last`,
+        asc(series.key),
+        asc(series.id),
+      ];
     case 'updated':
       return [direction(series.updatedAt), asc(series.id)];
     case 'key':
@@ -156,7 +160,9 @@ export async function readingStats(
   db: Executor,
   id: number,
 ): Promise<{ count: number; firstAt: Date | null; latestAt: Date | null; clean: number; byQuality: Record<QualityFlagName, number> }> {
-  const perFlag = qualityFlagNames.map((name) => sql`count(*) filter (where quality & ${qualityFlagBits[name]} <> 0)::int as ${sql.identifier(name)}`);
+  const perFlag = qualityFlagNames.map(
+    (name) => sql`count(*) filter (where quality & ${qualityFlagBits[name]} <> 0)::int as ${sql.identifier(name)}`,
+  );
   const result = await db.execute<Record<string, unknown>>(sql`
     select count(*)::int as total, min(ts) as first_at, max(ts) as latest_at,
       count(*) filter (where quality = 0)::int as clean, ${sql.join(perFlag, sql`, `)}
@@ -186,6 +192,10 @@ export async function insertSeries(db: Executor, values: NewSeries): Promise<Ser
 
 /** Updates a series and returns it. */
 export async function updateSeriesRow(db: Executor, id: number, values: Partial<NewSeries>): Promise<Series> {
-  const [row] = await db.update(series).set({ ...values, updatedAt: new Date() }).where(eq(series.id, id)).returning();
+  const [row] = await db
+    .update(series)
+    .set({ ...values, updatedAt: new Date() })
+    .where(eq(series.id, id))
+    .returning();
   return row!;
 }

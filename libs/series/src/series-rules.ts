@@ -26,11 +26,17 @@ export interface RuleBreak {
 export async function assertSeriesRelations(db: Executor, candidate: SeriesCandidate, selfId?: number): Promise<void> {
   const taken = await findSeriesByKey(db, candidate.key);
   if (taken && taken.id !== selfId) {
-    throw new HttpProblem('conflict', `The key "${candidate.key}" is already used by series ${taken.id} (${taken.name}). Choose another key.`, [
-      { pointer: '/key', detail: `Already used by ${taken.name}` },
-    ]);
+    throw new HttpProblem(
+      'conflict',
+      `The key "${candidate.key}" is already used by series ${taken.id} (${taken.name}). Choose another key.`,
+      [{ pointer: '/key', detail: `Already used by ${taken.name}` }],
+    );
   }
-  const breaks = [...(await parentBreaks(db, candidate, selfId)), ...(await stationBreaks(db, candidate)), ...(await childBreaks(db, candidate, selfId))];
+  const breaks = [
+    ...(await parentBreaks(db, candidate, selfId)),
+    ...(await stationBreaks(db, candidate)),
+    ...(await childBreaks(db, candidate, selfId)),
+  ];
   if (breaks.length > 0) throw new HttpProblem('invalidInput', breaks.map((b) => `${b.pointer}: ${b.detail}`).join('; '), breaks);
 }
 
@@ -41,9 +47,15 @@ async function parentBreaks(db: Executor, candidate: SeriesCandidate, selfId?: n
   const parent = await findSeriesById(db, candidate.parentId);
   if (!parent) return [{ pointer, detail: `No series with id ${candidate.parentId}` }];
   if (parent.archivedAt) return [{ pointer, detail: `${parent.key} is archived; restore it first or choose a live parent` }];
-  if (parent.kind !== 'load' || !parent.level) return [{ pointer, detail: `${parent.key} is a temperature series and cannot be a parent in the network hierarchy` }];
+  if (parent.kind !== 'load' || !parent.level)
+    return [{ pointer, detail: `${parent.key} is a temperature series and cannot be a parent in the network hierarchy` }];
   if (candidate.level && seriesLevelDepth[parent.level] >= seriesLevelDepth[candidate.level]) {
-    return [{ pointer, detail: `${parent.key} is a ${parent.level}; the parent of a ${candidate.level} must be of a higher level (system > zone > substation > feeder)` }];
+    return [
+      {
+        pointer,
+        detail: `${parent.key} is a ${parent.level}; the parent of a ${candidate.level} must be of a higher level (system > zone > substation > feeder)`,
+      },
+    ];
   }
   return [];
 }
@@ -65,5 +77,10 @@ async function childBreaks(db: Executor, candidate: SeriesCandidate, selfId?: nu
   if (!candidate.level) return [{ pointer: '/level', detail: 'This series has children, so it must stay in the network hierarchy' }];
   const tooHigh = levels.filter((level) => seriesLevelDepth[level] <= seriesLevelDepth[candidate.level!]);
   if (tooHigh.length === 0) return [];
-  return [{ pointer: '/level', detail: `This series has ${tooHigh.join(' and ')} children; a ${candidate.level} must sit above them. Move the children first` }];
+  return [
+    {
+      pointer: '/level',
+      detail: `This series has ${tooHigh.join(' and ')} children; a ${candidate.level} must sit above them. Move the children first`,
+    },
+  ];
 }

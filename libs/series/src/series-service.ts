@@ -39,7 +39,20 @@ export interface ChangeAuthor {
 }
 
 /** The fields a steward edits, in the order audit details list them. */
-const editableFields = ['key', 'name', 'kind', 'level', 'parentId', 'unit', 'intervalMinutes', 'timeZone', 'timestampsMark', 'temperatureSeriesId', 'peerGroup', 'description'] as const;
+const editableFields = [
+  'key',
+  'name',
+  'kind',
+  'level',
+  'parentId',
+  'unit',
+  'intervalMinutes',
+  'timeZone',
+  'timestampsMark',
+  'temperatureSeriesId',
+  'peerGroup',
+  'description',
+] as const;
 
 /** One page of the catalogue. A parent named by id or key that does not exist is a 400 on `parent`. */
 export async function listSeries(db: Executor, query: SeriesListQuery): Promise<SeriesPage> {
@@ -47,7 +60,10 @@ export async function listSeries(db: Executor, query: SeriesListQuery): Promise<
   let parentId: number | undefined;
   if (parentRef !== undefined) {
     const parent = await findSeriesByRef(db, parentRef);
-    if (!parent) throw new HttpProblem('invalidInput', `No series "${parentRef}" to list the children of.`, [{ pointer: '/query/parent', detail: `No series "${parentRef}"` }]);
+    if (!parent)
+      throw new HttpProblem('invalidInput', `No series "${parentRef}" to list the children of.`, [
+        { pointer: '/query/parent', detail: `No series "${parentRef}"` },
+      ]);
     parentId = parent.id;
   }
   const { rows, total } = await listSeriesRows(db, { ...filter, parentId });
@@ -99,7 +115,13 @@ export async function createSeries(db: Database, input: CreateSeriesRequest, aut
     description: input.description || null,
   };
   const id = await db.transaction(async (tx) => {
-    await assertSeriesRelations(tx, { key: values.key, kind: values.kind, level: values.level ?? null, parentId: values.parentId ?? null, temperatureSeriesId: values.temperatureSeriesId ?? null });
+    await assertSeriesRelations(tx, {
+      key: values.key,
+      kind: values.kind,
+      level: values.level ?? null,
+      parentId: values.parentId ?? null,
+      temperatureSeriesId: values.temperatureSeriesId ?? null,
+    });
     const created = await insertUnique(() => insertSeries(tx, values), values.key);
     await recordAudit(tx, { ...author, action: 'series.created', targetType: 'series', targetId: created.id, detail: pick(created) });
     return created.id;
@@ -113,7 +135,9 @@ export async function updateSeries(db: Database, id: number, patch: UpdateSeries
     const current = await findSeriesById(tx, id);
     if (!current) throw new HttpProblem('notFound', `No series with id ${id}.`);
     if (patch.kind !== undefined && patch.kind !== current.kind) {
-      throw new HttpProblem('invalidInput', `A series cannot change from ${current.kind} to ${patch.kind}; create a new series instead.`, [{ pointer: '/kind', detail: 'The kind cannot change' }]);
+      throw new HttpProblem('invalidInput', `A series cannot change from ${current.kind} to ${patch.kind}; create a new series instead.`, [
+        { pointer: '/kind', detail: 'The kind cannot change' },
+      ]);
     }
     const merged = createSeriesRequestSchema.safeParse({ ...pick(current), ...patch });
     if (!merged.success) {
@@ -123,11 +147,23 @@ export async function updateSeries(db: Database, id: number, patch: UpdateSeries
     const next = merged.data;
     if ((next.unit !== current.unit || next.intervalMinutes !== current.intervalMinutes) && (await hasReadings(tx, id))) {
       const field = next.unit !== current.unit ? 'unit' : 'intervalMinutes';
-      throw new HttpProblem('conflict', `${current.key} already holds readings in ${current.unit} every ${current.intervalMinutes} minutes; the ${field === 'unit' ? 'unit' : 'interval'} cannot change. Create a new series for the new ${field === 'unit' ? 'unit' : 'interval'}.`, [
-        { pointer: `/${field}`, detail: 'Cannot change once readings are stored' },
-      ]);
+      throw new HttpProblem(
+        'conflict',
+        `${current.key} already holds readings in ${current.unit} every ${current.intervalMinutes} minutes; the ${field === 'unit' ? 'unit' : 'interval'} cannot change. Create a new series for the new ${field === 'unit' ? 'unit' : 'interval'}.`,
+        [{ pointer: `/${field}`, detail: 'Cannot change once readings are stored' }],
+      );
     }
-    await assertSeriesRelations(tx, { key: next.key, kind: next.kind, level: next.level ?? null, parentId: next.parentId ?? null, temperatureSeriesId: next.temperatureSeriesId ?? null }, id);
+    await assertSeriesRelations(
+      tx,
+      {
+        key: next.key,
+        kind: next.kind,
+        level: next.level ?? null,
+        parentId: next.parentId ?? null,
+        temperatureSeriesId: next.temperatureSeriesId ?? null,
+      },
+      id,
+    );
     const values: Partial<NewSeries> = {
       key: next.key,
       name: next.name,
@@ -156,7 +192,11 @@ export async function archiveSeries(db: Database, id: number, author: ChangeAuth
     if (!current) throw new HttpProblem('notFound', `No series with id ${id}.`);
     if (current.archivedAt) throw new HttpProblem('conflict', `${current.key} is already archived.`);
     const { active } = await countChildren(tx, id);
-    if (active > 0) throw new HttpProblem('conflict', `${current.key} has ${active} live ${active === 1 ? 'child' : 'children'}; archive or move ${active === 1 ? 'it' : 'them'} first.`);
+    if (active > 0)
+      throw new HttpProblem(
+        'conflict',
+        `${current.key} has ${active} live ${active === 1 ? 'child' : 'children'}; archive or move ${active === 1 ? 'it' : 'them'} first.`,
+      );
     await updateSeriesRow(tx, id, { archivedAt: new Date() });
     await recordAudit(tx, { ...author, action: 'series.archived', targetType: 'series', targetId: id, detail: { key: current.key } });
   });
@@ -198,7 +238,9 @@ async function insertUnique<T>(write: () => Promise<T>, key: string): Promise<T>
   } catch (error) {
     const cause = (error as { cause?: { code?: string; constraint?: string } }).cause ?? (error as { code?: string; constraint?: string });
     if (cause.code === '23505' && cause.constraint === 'series_key_key') {
-      throw new HttpProblem('conflict', `The key "${key}" is already used by another series. Choose another key.`, [{ pointer: '/key', detail: 'Already used' }]);
+      throw new HttpProblem('conflict', `The key "${key}" is already used by another series. Choose another key.`, [
+        { pointer: '/key', detail: 'Already used' },
+      ]);
     }
     throw error;
   }

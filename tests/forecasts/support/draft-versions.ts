@@ -59,13 +59,28 @@ export async function writeDraftVersion(db: Database, spec: DraftSpec): Promise<
       .where(and(eq(forecastVersions.seriesId, spec.seriesId), eq(forecastVersions.state, 'draft')));
     const [version] = await tx
       .insert(forecastVersions)
-      .values({ seriesId: spec.seriesId, fitId: fit!.id, origin: spec.origin, horizonHours: hours, ...(spec.issuedAt && { issuedAt: spec.issuedAt }) })
+      .values({
+        seriesId: spec.seriesId,
+        fitId: fit!.id,
+        origin: spec.origin,
+        horizonHours: hours,
+        ...(spec.issuedAt && { issuedAt: spec.issuedAt }),
+      })
       .returning({ id: forecastVersions.id });
     const points = Array.from({ length: hours }, (_, i) => {
       const ts = new Date(spec.origin.getTime() + i * 3_600_000);
       const mean = meanAt(i, ts);
       const se = seAt(i);
-      return { versionId: version!.id, ts, mean, stdError: se, lower80: mean - z80 * se, upper80: mean + z80 * se, lower95: mean - z95 * se, upper95: mean + z95 * se };
+      return {
+        versionId: version!.id,
+        ts,
+        mean,
+        stdError: se,
+        lower80: mean - z80 * se,
+        upper80: mean + z80 * se,
+        lower95: mean - z95 * se,
+        upper95: mean + z95 * se,
+      };
     });
     await tx.insert(forecastPoints).values(points);
     return version!.id;

@@ -11,7 +11,10 @@ export interface Tokens {
 /** Creates a read and a read-write token and returns their secrets. */
 export async function createTokens(db: Database): Promise<Tokens> {
   const secrets = {} as Tokens;
-  for (const [field, scope] of [['read', 'read'], ['readWrite', 'read-write']] as const) {
+  for (const [field, scope] of [
+    ['read', 'read'],
+    ['readWrite', 'read-write'],
+  ] as const) {
     const { token, prefix, hash } = newApiTokenSecret();
     await db.insert(apiTokens).values({ name: `series tests ${scope}`, prefix, secretHash: hash, scope });
     secrets[field] = token;

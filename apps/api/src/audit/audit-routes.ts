@@ -34,11 +34,12 @@ export function auditRoutes({ db }: AppContext): RouteDefinition[] {
         const entries = rows.map(({ entry, userName, tokenName }) => ({
           id: entry.id,
           at: entry.at.toISOString(),
-          actor: entry.actorUserId !== null
-            ? { kind: 'user' as const, id: entry.actorUserId, name: userName }
-            : entry.actorTokenId !== null
-              ? { kind: 'token' as const, id: entry.actorTokenId, name: tokenName }
-              : { kind: entry.detail['visitor'] === true ? ('visitor' as const) : ('system' as const), id: null, name: null },
+          actor:
+            entry.actorUserId !== null
+              ? { kind: 'user' as const, id: entry.actorUserId, name: userName }
+              : entry.actorTokenId !== null
+                ? { kind: 'token' as const, id: entry.actorTokenId, name: tokenName }
+                : { kind: entry.detail['visitor'] === true ? ('visitor' as const) : ('system' as const), id: null, name: null },
           action: entry.action,
           targetType: entry.targetType,
           targetId: entry.targetId,

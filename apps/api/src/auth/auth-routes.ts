@@ -28,7 +28,10 @@ export function authRoutes(context: AppContext): RouteDefinition[] {
   const { db, sessionSecret, secureCookies } = context;
 
   const findUserByEmail = async (email: string) => {
-    const [user] = await db.select().from(users).where(eq(sql`lower(${users.email})`, email.toLowerCase()));
+    const [user] = await db
+      .select()
+      .from(users)
+      .where(eq(sql`lower(${users.email})`, email.toLowerCase()));
     return user;
   };
 
@@ -51,19 +54,33 @@ export function authRoutes(context: AppContext): RouteDefinition[] {
         const minutes = await lockedMinutes(db, subjects);
         if (minutes > 0) {
           await recordAudit(db, { actor, action: 'session.sign_in_locked', detail: { email }, ip });
-          throw new HttpProblem('tooManyAttempts', `Too many failed sign-ins. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}, or reset your password.`);
+          throw new HttpProblem(
+            'tooManyAttempts',
+            `Too many failed sign-ins. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}, or reset your password.`,
+          );
         }
         const user = await findUserByEmail(email);
         const passwordMatches = await verifyPassword(user?.passwordHash, body.password);
         if (!user || !passwordMatches || !user.active) {
           await recordFailure(db, subjects);
-          await recordAudit(db, { actor, action: 'session.sign_in_failed', targetType: user ? 'user' : undefined, targetId: user?.id, detail: { email }, ip });
+          await recordAudit(db, {
+            actor,
+            action: 'session.sign_in_failed',
+            targetType: user ? 'user' : undefined,
+            targetId: user?.id,
+            detail: { email },
+            ip,
+          });
           throw new HttpProblem('unauthenticated', wrongCredentials);
         }
         await clearFailures(db, subjects[0]!);
         const sessionId = await openSession(db, user.id, ip, req.headers['user-agent']);
         await setSessionCookies(res, { secret: sessionSecret, secure: secureCookies, sessionId, userId: user.id });
-        await recordAudit(db, { actor: { kind: 'user', userId: user.id, email: user.email, displayName: user.displayName, role: user.role, sessionId }, action: 'session.signed_in', ip });
+        await recordAudit(db, {
+          actor: { kind: 'user', userId: user.id, email: user.email, displayName: user.displayName, role: user.role, sessionId },
+          action: 'session.signed_in',
+          ip,
+        });
         return sessionInfo(user);
       },
     }),
@@ -104,13 +121,21 @@ export function authRoutes(context: AppContext): RouteDefinition[] {
         if (actor.kind !== 'user') throw new HttpProblem('forbidden', 'Only a signed-in person can change a password.');
         const [user] = await db.select().from(users).where(eq(users.id, actor.userId));
         if (!(await verifyPassword(user?.passwordHash, body.currentPassword))) {
-          throw new HttpProblem('invalidInput', 'Your current password is not right.', [{ pointer: '/currentPassword', detail: 'Not your current password' }]);
+          throw new HttpProblem('invalidInput', 'Your current password is not right.', [
+            { pointer: '/currentPassword', detail: 'Not your current password' },
+          ]);
         }
         const passwordHash = await hashPassword(body.newPassword);
         await db.transaction(async (tx) => {
           await tx.update(users).set({ passwordHash }).where(eq(users.id, actor.userId));
           await revokeSessionsOf(tx, actor.userId, actor.sessionId);
-          await recordAudit(tx, { actor, action: 'user.password_changed', targetType: 'user', targetId: actor.userId, ip: clientAddress(req) });
+          await recordAudit(tx, {
+            actor,
+            action: 'user.password_changed',
+            targetType: 'user',
+            targetId: actor.userId,
+            ip: clientAddress(req),
+          });
         });
         return { message: 'Password changed. Your other sessions were signed out.' };
       },
@@ -130,7 +155,13 @@ export function authRoutes(context: AppContext): RouteDefinition[] {
           const secret = await issueLink(db, user.id, 'password_reset', null);
           const link = `${context.publicUrl}/set-password?token=${encodeURIComponent(secret)}`;
           await context.mailer.send(passwordResetMessage(user.email, user.displayName, link, linkLifetimes.password_reset));
-          await recordAudit(db, { actor, action: 'user.password_reset_requested', targetType: 'user', targetId: user.id, ip: clientAddress(req) });
+          await recordAudit(db, {
+            actor,
+            action: 'user.password_reset_requested',
+            targetType: 'user',
+            targetId: user.id,
+            ip: clientAddress(req),
+          });
         }
         return { message: 'If that address belongs to an active account, a reset link is on its way. It expires in 30 minutes.' };
       },
@@ -150,10 +181,19 @@ export function authRoutes(context: AppContext): RouteDefinition[] {
           if (!link) return null;
           await tx.update(users).set({ passwordHash }).where(eq(users.id, link.userId));
           await revokeSessionsOf(tx, link.userId);
-          await recordAudit(tx, { actor, action: link.purpose === 'invite' ? 'user.invite_accepted' : 'user.password_reset', targetType: 'user', targetId: link.userId, ip: clientAddress(req) });
+          await recordAudit(tx, {
+            actor,
+            action: link.purpose === 'invite' ? 'user.invite_accepted' : 'user.password_reset',
+            targetType: 'user',
+            targetId: link.userId,
+            ip: clientAddress(req),
+          });
           return link;
         });
-        if (!outcome) throw new HttpProblem('invalidInput', 'This link has expired or was already used. Ask for a new one.', [{ pointer: '/token', detail: 'Expired or already used' }]);
+        if (!outcome)
+          throw new HttpProblem('invalidInput', 'This link has expired or was already used. Ask for a new one.', [
+            { pointer: '/token', detail: 'Expired or already used' },
+          ]);
         return { message: 'Password set. You can sign in now.' };
       },
     }),

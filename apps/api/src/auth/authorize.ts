@@ -7,7 +7,8 @@ import type { Actor } from '@loadwright/audit';
 /** Throws 401 when nobody is identified for a protected route, 403 when the caller lacks the permission. */
 export function authorize(access: Access, actor: Actor): void {
   if (access === 'public') return;
-  if (actor.kind === 'anonymous') throw new HttpProblem('unauthenticated', actor.reason ?? 'Sign in, or send a valid API token, to use this.');
+  if (actor.kind === 'anonymous')
+    throw new HttpProblem('unauthenticated', actor.reason ?? 'Sign in, or send a valid API token, to use this.');
   const allowed = actor.kind === 'user' ? roleHas(actor.role, access) : scopeHas(actor.scope, access);
   if (!allowed) {
     const who = actor.kind === 'user' ? `The ${actor.role} role` : `A ${actor.scope} token`;

@@ -28,7 +28,13 @@ export function createGatekeeper({ db, secret, secureCookies }: GatekeeperOption
     const [row] = await db
       .select({ id: apiTokens.id, name: apiTokens.name, scope: apiTokens.scope, lastUsedAt: apiTokens.lastUsedAt })
       .from(apiTokens)
-      .where(and(eq(apiTokens.secretHash, hashApiToken(token)), isNull(apiTokens.revokedAt), sql`(${apiTokens.expiresAt} IS NULL OR ${apiTokens.expiresAt} > now())`));
+      .where(
+        and(
+          eq(apiTokens.secretHash, hashApiToken(token)),
+          isNull(apiTokens.revokedAt),
+          sql`(${apiTokens.expiresAt} IS NULL OR ${apiTokens.expiresAt} > now())`,
+        ),
+      );
     if (!row) return { kind: 'anonymous', reason: 'The API token is unknown, revoked or expired.' };
     // Record use at most once a minute: enough for "last used", without a write per request.
     if (!row.lastUsedAt || Date.now() - row.lastUsedAt.getTime() > 60_000) {
@@ -44,14 +50,23 @@ export function createGatekeeper({ db, secret, secureCookies }: GatekeeperOption
       .select({ userId: users.id, email: users.email, displayName: users.displayName, role: users.role, lastSeenAt: sessions.lastSeenAt })
       .from(sessions)
       .innerJoin(users, eq(users.id, sessions.userId))
-      .where(and(eq(sessions.id, claims.sessionId), isNull(sessions.revokedAt), gt(sessions.expiresAt, sql`now()`), eq(users.active, true)));
+      .where(
+        and(eq(sessions.id, claims.sessionId), isNull(sessions.revokedAt), gt(sessions.expiresAt, sql`now()`), eq(users.active, true)),
+      );
     if (!row || row.userId !== claims.userId) return { kind: 'anonymous', reason: 'Your session has ended. Sign in again.' };
     const secondsLeft = claims.expiresAt - Date.now() / 1000;
     if (secondsLeft < sessionTokenTtlSeconds / 2) {
       await setSessionCookies(res, { secret, secure: secureCookies, sessionId: claims.sessionId, userId: row.userId });
       await db.update(sessions).set({ lastSeenAt: new Date() }).where(eq(sessions.id, claims.sessionId));
     }
-    return { kind: 'user', userId: row.userId, email: row.email, displayName: row.displayName, role: row.role, sessionId: claims.sessionId };
+    return {
+      kind: 'user',
+      userId: row.userId,
+      email: row.email,
+      displayName: row.displayName,
+      role: row.role,
+      sessionId: claims.sessionId,
+    };
   }
 
   return {

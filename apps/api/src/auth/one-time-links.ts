@@ -15,8 +15,13 @@ type Purpose = keyof typeof linkLifetimes;
 export async function issueLink(db: Database, userId: number, purpose: Purpose, createdById: number | null): Promise<string> {
   const { secret, hash } = newLinkSecret();
   await db.transaction(async (tx) => {
-    await tx.update(oneTimeTokens).set({ usedAt: new Date() }).where(and(eq(oneTimeTokens.userId, userId), eq(oneTimeTokens.purpose, purpose), isNull(oneTimeTokens.usedAt)));
-    await tx.insert(oneTimeTokens).values({ userId, purpose, tokenHash: hash, createdById, expiresAt: new Date(Date.now() + linkLifetimes[purpose] * 60_000) });
+    await tx
+      .update(oneTimeTokens)
+      .set({ usedAt: new Date() })
+      .where(and(eq(oneTimeTokens.userId, userId), eq(oneTimeTokens.purpose, purpose), isNull(oneTimeTokens.usedAt)));
+    await tx
+      .insert(oneTimeTokens)
+      .values({ userId, purpose, tokenHash: hash, createdById, expiresAt: new Date(Date.now() + linkLifetimes[purpose] * 60_000) });
   });
   return secret;
 }
@@ -36,7 +41,13 @@ export async function issuedRecently(db: Database, userId: number, purpose: Purp
   const rows = await db
     .select({ id: oneTimeTokens.id })
     .from(oneTimeTokens)
-    .where(and(eq(oneTimeTokens.userId, userId), eq(oneTimeTokens.purpose, purpose), gt(oneTimeTokens.createdAt, sql`now() - make_interval(mins => ${minutes})`)))
+    .where(
+      and(
+        eq(oneTimeTokens.userId, userId),
+        eq(oneTimeTokens.purpose, purpose),
+        gt(oneTimeTokens.createdAt, sql`now() - make_interval(mins => ${minutes})`),
+      ),
+    )
     .limit(1);
   return rows.length > 0;
 }

@@ -8,7 +8,13 @@ import { sessionMaxAgeSeconds } from './session-token';
 export async function openSession(db: Database, userId: number, ip: string, userAgent: string | undefined): Promise<string> {
   const [row] = await db
     .insert(sessions)
-    .values({ userId, ip, userAgent: userAgent?.slice(0, 300) ?? null, expiresAt: new Date(Date.now() + sessionMaxAgeSeconds * 1000), lastSeenAt: new Date() })
+    .values({
+      userId,
+      ip,
+      userAgent: userAgent?.slice(0, 300) ?? null,
+      expiresAt: new Date(Date.now() + sessionMaxAgeSeconds * 1000),
+      lastSeenAt: new Date(),
+    })
     .returning({ id: sessions.id });
   await db.update(users).set({ lastSignInAt: new Date() }).where(eq(users.id, userId));
   return row!.id;
@@ -16,7 +22,10 @@ export async function openSession(db: Database, userId: number, ip: string, user
 
 /** Ends one session at once. */
 export async function revokeSession(db: Pick<Database, 'update'>, sessionId: string): Promise<void> {
-  await db.update(sessions).set({ revokedAt: new Date() }).where(and(eq(sessions.id, sessionId), isNull(sessions.revokedAt)));
+  await db
+    .update(sessions)
+    .set({ revokedAt: new Date() })
+    .where(and(eq(sessions.id, sessionId), isNull(sessions.revokedAt)));
 }
 
 /** Ends every live session of a person (role change, deactivation, password change), optionally sparing one. */
@@ -34,5 +43,8 @@ export function permissionsOf(role: Role): Permission[] {
 
 /** What the web app needs to know about the signed-in person. */
 export function sessionInfo(user: { id: number; email: string; displayName: string; role: Role }): SessionInfo {
-  return { user: { id: user.id, email: user.email, displayName: user.displayName, role: user.role }, permissions: permissionsOf(user.role) };
+  return {
+    user: { id: user.id, email: user.email, displayName: user.displayName, role: user.role },
+    permissions: permissionsOf(user.role),
+  };
 }

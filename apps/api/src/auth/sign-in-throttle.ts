@@ -22,7 +22,8 @@ export async function lockedMinutes(db: Database, subjects: Subject[]): Promise<
       .select({ lockedUntil: loginThrottles.lockedUntil })
       .from(loginThrottles)
       .where(and(eq(loginThrottles.subjectKind, subject.kind), eq(loginThrottles.subject, subject.value)));
-    if (row?.lockedUntil && row.lockedUntil.getTime() > Date.now()) longest = Math.max(longest, Math.ceil((row.lockedUntil.getTime() - Date.now()) / 60_000));
+    if (row?.lockedUntil && row.lockedUntil.getTime() > Date.now())
+      longest = Math.max(longest, Math.ceil((row.lockedUntil.getTime() - Date.now()) / 60_000));
   }
   return longest;
 }

@@ -17,7 +17,10 @@ export const apiNotFound: RequestHandler = (req, _res, next) => {
 export const problemHandler: ErrorRequestHandler = (error, req, res, _next) => {
   const problem = toHttpProblem(error);
   if (problem.kind === 'internal') req.log?.error({ err: error }, 'unhandled error');
-  res.status(problem.toProblem().status).type(problemContentType).send(JSON.stringify(problem.toProblem(req.originalUrl)));
+  res
+    .status(problem.toProblem().status)
+    .type(problemContentType)
+    .send(JSON.stringify(problem.toProblem(req.originalUrl)));
 };
 
 function toHttpProblem(error: unknown): HttpProblem {
@@ -27,8 +30,10 @@ function toHttpProblem(error: unknown): HttpProblem {
     return new HttpProblem('invalidInput', 'Correct the fields listed in errors and try again.', errors);
   }
   const status = (error as { status?: number; type?: string }).status;
-  if ((error as { type?: string }).type === 'entity.too.large') return new HttpProblem('payloadTooLarge', 'The request body is larger than the server accepts.');
-  if ((error as { type?: string }).type === 'entity.parse.failed') return new HttpProblem('invalidInput', 'The request body is not valid JSON.');
+  if ((error as { type?: string }).type === 'entity.too.large')
+    return new HttpProblem('payloadTooLarge', 'The request body is larger than the server accepts.');
+  if ((error as { type?: string }).type === 'entity.parse.failed')
+    return new HttpProblem('invalidInput', 'The request body is not valid JSON.');
   if (status === 404) return new HttpProblem('notFound');
   return new HttpProblem('internal', 'The error was logged. Try again, and tell your administrator if it persists.');
 }

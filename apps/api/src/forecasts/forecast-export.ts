@@ -9,7 +9,13 @@
  * never change after approval.
  */
 import { once } from 'node:events';
-import { exportIntervalConvention, type ExportedPoint, type ExportedSeries, type ForecastExportQuery, type ForecastSeries } from '@loadwright/contracts';
+import {
+  exportIntervalConvention,
+  type ExportedPoint,
+  type ExportedSeries,
+  type ForecastExportQuery,
+  type ForecastSeries,
+} from '@loadwright/contracts';
 import { forecastVersions, type Database } from '@loadwright/db';
 import { and, eq, inArray } from 'drizzle-orm';
 import type { Response } from 'express';
@@ -50,10 +56,16 @@ async function planExport(db: Database, query: ForecastExportQuery): Promise<Exp
   const ids = inScope.map((row) => row.id);
   for (let start = 0; start < ids.length; start += 5_000) {
     const rows = await db
-      .select({ versionId: forecastVersions.id, seriesId: forecastVersions.seriesId, issuedAt: forecastVersions.issuedAt, approvedAt: forecastVersions.approvedAt })
+      .select({
+        versionId: forecastVersions.id,
+        seriesId: forecastVersions.seriesId,
+        issuedAt: forecastVersions.issuedAt,
+        approvedAt: forecastVersions.approvedAt,
+      })
       .from(forecastVersions)
       .where(and(eq(forecastVersions.state, 'approved'), inArray(forecastVersions.seriesId, ids.slice(start, start + 5_000))));
-    for (const row of rows) entries.push({ series: bySeries.get(row.seriesId)!, versionId: row.versionId, issuedAt: row.issuedAt, approvedAt: row.approvedAt });
+    for (const row of rows)
+      entries.push({ series: bySeries.get(row.seriesId)!, versionId: row.versionId, issuedAt: row.issuedAt, approvedAt: row.approvedAt });
   }
   entries.sort((a, b) => a.series.id - b.series.id);
   const exported = new Set(entries.map((entry) => entry.series.id));
@@ -141,7 +153,22 @@ function fileDate(): string {
 /** The CSV's columns: who, which version, the interval and its zone, then the numbers. */
 function csvHeader(levels: readonly number[]): string {
   const bounds = levels.flatMap((level) => [`lower_${level}`, `upper_${level}`]);
-  return csvLine(['series_id', 'series_key', 'series_name', 'level', 'unit', 'version_id', 'approved_at', 'interval_start', 'interval_end', 'time_zone', 'mean', 'model_mean', 'adjusted', ...bounds]);
+  return csvLine([
+    'series_id',
+    'series_key',
+    'series_name',
+    'level',
+    'unit',
+    'version_id',
+    'approved_at',
+    'interval_start',
+    'interval_end',
+    'time_zone',
+    'mean',
+    'model_mean',
+    'adjusted',
+    ...bounds,
+  ]);
 }
 
 /** Streams the approved forecasts in scope as CSV (RFC 4180, UTF-8, CRLF, one header row). */
@@ -159,13 +186,30 @@ async function writeCsv(db: Database, res: Response, query: ForecastExportQuery,
   if (!(await send(res, csvHeader(query.levels)))) return;
   const zone = textCell(query.tz);
   for await (const entry of exportedSeries(db, plan, query)) {
-    const fixed = [String(entry.id), textCell(entry.key), textCell(entry.name), textCell(entry.level), textCell(entry.unit), String(entry.versionId), textCell(entry.approvedAt)];
+    const fixed = [
+      String(entry.id),
+      textCell(entry.key),
+      textCell(entry.name),
+      textCell(entry.level),
+      textCell(entry.unit),
+      String(entry.versionId),
+      textCell(entry.approvedAt),
+    ];
     let chunk = '';
     for (const point of entry.points) {
       const bounds = query.levels.flatMap((level) =>
         level === 80 ? [numberCell(point.lower80), numberCell(point.upper80)] : [numberCell(point.lower95), numberCell(point.upper95)],
       );
-      chunk += csvLine([...fixed, textCell(point.intervalStart), textCell(point.intervalEnd), zone, numberCell(point.mean), numberCell(point.modelMean), point.adjusted ? 'true' : 'false', ...bounds]);
+      chunk += csvLine([
+        ...fixed,
+        textCell(point.intervalStart),
+        textCell(point.intervalEnd),
+        zone,
+        numberCell(point.mean),
+        numberCell(point.modelMean),
+        point.adjusted ? 'true' : 'false',
+        ...bounds,
+      ]);
     }
     if (!(await send(res, chunk))) return;
   }
@@ -183,7 +227,12 @@ async function writeJson(db: Database, res: Response, query: ForecastExportQuery
   res.status(200);
   res.setHeader('Content-Type', 'application/json; charset=utf-8');
   res.setHeader('Cache-Control', 'no-store');
-  const head = { generatedAt: new Date().toISOString(), timeZone: query.tz, intervalConvention: exportIntervalConvention, levels: query.levels };
+  const head = {
+    generatedAt: new Date().toISOString(),
+    timeZone: query.tz,
+    intervalConvention: exportIntervalConvention,
+    levels: query.levels,
+  };
   if (!(await send(res, `${JSON.stringify(head).slice(0, -1)},"series":[`))) return;
   let first = true;
   for await (const entry of exportedSeries(db, plan, query)) {

@@ -37,7 +37,8 @@ export function forecastRoutes({ db }: AppContext): RouteDefinition[] {
       path: '/series/:id/forecast',
       access: 'data.read',
       tag,
-      summary: 'Review a series: current draft and approved version with adjusted numbers and local daily peaks, actuals so far, and their differences',
+      summary:
+        'Review a series: current draft and approved version with adjusted numbers and local daily peaks, actuals so far, and their differences',
       params: idParams,
       response: forecastReviewSchema,
       handler: ({ params }) => reviewForecast(db, params.id),
@@ -99,7 +100,8 @@ export function forecastRoutes({ db }: AppContext): RouteDefinition[] {
       path: '/forecast-approvals/preview',
       access: 'forecasts.approve',
       tag,
-      summary: 'What approving the current drafts of some series or of a group would change: peaks and energy against the approved versions',
+      summary:
+        'What approving the current drafts of some series or of a group would change: peaks and energy against the approved versions',
       body: approvalPreviewRequestSchema,
       response: approvalPreviewSchema,
       handler: ({ body }) => previewApprovals(db, body),
@@ -119,7 +121,8 @@ export function forecastRoutes({ db }: AppContext): RouteDefinition[] {
       path: '/exports/forecasts.csv',
       access: 'data.read',
       tag,
-      summary: 'Approved forecasts as CSV (streamed): one series, a group or the whole system, in UTC or a chosen time zone, with explicit interval columns',
+      summary:
+        'Approved forecasts as CSV (streamed): one series, a group or the whole system, in UTC or a chosen time zone, with explicit interval columns',
       query: forecastExportQuerySchema,
       produces: 'text/csv',
       status: 200,

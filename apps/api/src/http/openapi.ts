@@ -15,7 +15,11 @@ export function openApiPath(path: string): string {
 export function buildOpenApiDocument(routes: RouteDefinition[], version: string) {
   const registry = new OpenAPIRegistry();
   registry.registerComponent('securitySchemes', 'sessionCookie', { type: 'apiKey', in: 'cookie', name: 'lw_session' });
-  registry.registerComponent('securitySchemes', 'bearerToken', { type: 'http', scheme: 'bearer', description: 'An API token created by an admin' });
+  registry.registerComponent('securitySchemes', 'bearerToken', {
+    type: 'http',
+    scheme: 'bearer',
+    description: 'An API token created by an admin',
+  });
   const problem = { description: 'Problem details (RFC 9457)', content: { 'application/problem+json': { schema: problemSchema } } };
   for (const route of routes) {
     const success = route.status ?? (route.response ? 200 : 204);
@@ -45,7 +49,11 @@ export function buildOpenApiDocument(routes: RouteDefinition[], version: string)
   }
   return new OpenApiGeneratorV31(registry.definitions).generateDocument({
     openapi: '3.1.0',
-    info: { title: 'Loadwright API', version, description: 'Load forecasts, histories and their status for downstream systems. Send an API token as a bearer token.' },
+    info: {
+      title: 'Loadwright API',
+      version,
+      description: 'Load forecasts, histories and their status for downstream systems. Send an API token as a bearer token.',
+    },
     servers: [{ url: '/' }],
   });
 }

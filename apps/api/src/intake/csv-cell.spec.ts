@@ -3,7 +3,14 @@ import { csvLine, csvNumber, csvText } from './csv-cell';
 
 describe('csvText', () => {
   it('prefixes every formula starter with an apostrophe (OWASP CSV injection)', () => {
-    expect(['=SUM(A1)', '+1', '-2+3', '@cmd', '\tx', '\rx'].map(csvText)).toEqual([`"'=SUM(A1)"`, `"'+1"`, `"'-2+3"`, `"'@cmd"`, `"'\tx"`, `"'\rx"`]);
+    expect(['=SUM(A1)', '+1', '-2+3', '@cmd', '\tx', '\rx'].map(csvText)).toEqual([
+      `"'=SUM(A1)"`,
+      `"'+1"`,
+      `"'-2+3"`,
+      `"'@cmd"`,
+      `"'\tx"`,
+      `"'\rx"`,
+    ]);
   });
 
   it('quotes plain text and doubles inner quotes', () => {

@@ -58,13 +58,26 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
     new Promise<StoredFile>((resolve, reject) => {
       receiver(req, res, (error: unknown) => {
         if (error instanceof multer.MulterError && error.code === 'LIMIT_FILE_SIZE') {
-          reject(new HttpProblem('payloadTooLarge', `The file is larger than the upload limit of ${Math.round(maxBytes / 1048576)} MB; split it into smaller files.`));
+          reject(
+            new HttpProblem(
+              'payloadTooLarge',
+              `The file is larger than the upload limit of ${Math.round(maxBytes / 1048576)} MB; split it into smaller files.`,
+            ),
+          );
         } else if (error instanceof multer.MulterError) {
-          reject(new HttpProblem('invalidInput', `Send one file in the form field "file" (${error.message}).`, [{ pointer: '/file', detail: error.message }]));
+          reject(
+            new HttpProblem('invalidInput', `Send one file in the form field "file" (${error.message}).`, [
+              { pointer: '/file', detail: error.message },
+            ]),
+          );
         } else if (error) {
           reject(error);
         } else if (!req.file) {
-          reject(new HttpProblem('invalidInput', 'Send the file as multipart/form-data in the form field "file".', [{ pointer: '/file', detail: 'Choose a CSV file' }]));
+          reject(
+            new HttpProblem('invalidInput', 'Send the file as multipart/form-data in the form field "file".', [
+              { pointer: '/file', detail: 'Choose a CSV file' },
+            ]),
+          );
         } else {
           resolve(req.file as StoredFile);
         }
@@ -82,10 +95,19 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
     const sniffed = row?.path ? await sniffFile(row.path).catch(() => null) : null;
     if (!sniffed?.ok) return { upload, report, ...empty };
     const catalogue = await loadCatalogue(db);
-    return { upload, report, layout: sniffed.layout, preview: sniffed.preview, proposal: proposeMapping(sniffed.layout, sniffed.preview, catalogue) };
+    return {
+      upload,
+      report,
+      layout: sniffed.layout,
+      preview: sniffed.preview,
+      proposal: proposeMapping(sniffed.layout, sniffed.preview, catalogue),
+    };
   };
 
-  const who = (actor: Actor) => ({ uploadedById: actor.kind === 'user' ? actor.userId : null, uploadedByTokenId: actor.kind === 'token' ? actor.tokenId : null });
+  const who = (actor: Actor) => ({
+    uploadedById: actor.kind === 'user' ? actor.userId : null,
+    uploadedByTokenId: actor.kind === 'token' ? actor.tokenId : null,
+  });
 
   return [
     defineRoute({
@@ -93,7 +115,8 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
       path: '/uploads',
       access: 'data.upload',
       tag,
-      summary: 'Upload a CSV file (multipart field "file"): stored, hashed and previewed with a proposed mapping; the same bytes again answer with the earlier upload',
+      summary:
+        'Upload a CSV file (multipart field "file"): stored, hashed and previewed with a proposed mapping; the same bytes again answer with the earlier upload',
       response: uploadReceiptSchema,
       handler: async ({ req, res, actor }) => {
         const file = await receive(req, res);
@@ -102,7 +125,11 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
           await rm(file.path, { force: true });
           const found = await detail(earlier);
           const done = found.upload.status === 'done';
-          return { ...found, duplicateOf: earlier, message: `${done ? 'Already imported' : 'Already uploaded'} as upload ${earlier}; nothing was added.` };
+          return {
+            ...found,
+            duplicateOf: earlier,
+            message: `${done ? 'Already imported' : 'Already uploaded'} as upload ${earlier}; nothing was added.`,
+          };
         }
         const sniffed = await sniffFile(file.path);
         const fileName = file.originalname.slice(0, 255) || 'upload.csv';
@@ -122,7 +149,14 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
           return { ...(await detail(id)), duplicateOf: id, message: `Already uploaded as upload ${id}; nothing was added.` };
         }
         const id = inserted[0]!.id;
-        await recordAudit(db, { actor, action: 'upload.received', targetType: 'upload', targetId: id, detail: { fileName, byteSize: file.size, accepted: sniffed.ok }, ip: clientAddress(req) });
+        await recordAudit(db, {
+          actor,
+          action: 'upload.received',
+          targetType: 'upload',
+          targetId: id,
+          detail: { fileName, byteSize: file.size, accepted: sniffed.ok },
+          ip: clientAddress(req),
+        });
         res.status(201);
         return { ...(await detail(id)), duplicateOf: null, message: sniffed.ok ? null : sniffed.message };
       },
@@ -132,27 +166,29 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
       path: '/uploads/:id/mapping',
       access: 'data.upload',
       tag,
-      summary: 'Confirm the column mapping, unit, time zone, interval convention and repeated-hour policy; checks them against the file and queues the import',
+      summary:
+        'Confirm the column mapping, unit, time zone, interval convention and repeated-hour policy; checks them against the file and queues the import',
       params: idParams,
       body: confirmUploadRequestSchema,
       response: uploadSchema,
       handler: async ({ params, body, actor, req }) => {
         const [row] = await db.select().from(uploads).where(eq(uploads.id, params.id));
         if (!row) throw new HttpProblem('notFound', `No upload with id ${params.id}.`);
-        if (row.status !== 'received') throw new HttpProblem('conflict', `Upload ${row.id} is ${row.status}; only a received upload takes a mapping.`);
+        if (row.status !== 'received')
+          throw new HttpProblem('conflict', `Upload ${row.id} is ${row.status}; only a received upload takes a mapping.`);
         const sniffed = row.storagePath ? await sniffFile(row.storagePath).catch(() => null) : null;
         if (!sniffed?.ok) throw new HttpProblem('conflict', `The stored file of upload ${row.id} is gone; upload it again.`);
         const planned = planImport(body.mapping, body.settings, sniffed.layout, sniffed.preview, await loadCatalogue(db));
         if (!planned.ok) throw new HttpProblem('invalidInput', planned.message, [{ pointer: '/mapping', detail: planned.message }]);
-        if (!(await importQueueReady(pool))) throw new HttpProblem('unavailable', 'The import queue is not running: start a worker (npm start runs one) and confirm again.');
+        if (!(await importQueueReady(pool)))
+          throw new HttpProblem('unavailable', 'The import queue is not running: start a worker (npm start runs one) and confirm again.');
         const client = await pool.connect();
         try {
           await client.query('begin');
-          const updated = await client.query(`update uploads set status = 'queued', mapping = $2, settings = $3, updated_at = now() where id = $1 and status = 'received'`, [
-            row.id,
-            JSON.stringify(body.mapping satisfies UploadMapping),
-            JSON.stringify(body.settings satisfies UploadSettings),
-          ]);
+          const updated = await client.query(
+            `update uploads set status = 'queued', mapping = $2, settings = $3, updated_at = now() where id = $1 and status = 'received'`,
+            [row.id, JSON.stringify(body.mapping satisfies UploadMapping), JSON.stringify(body.settings satisfies UploadSettings)],
+          );
           if (updated.rowCount !== 1) throw new HttpProblem('conflict', `Upload ${row.id} was confirmed meanwhile.`);
           await enqueueImport(client, row.id);
           await client.query('commit');
@@ -162,7 +198,14 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
         } finally {
           client.release();
         }
-        await recordAudit(db, { actor, action: 'upload.mapped', targetType: 'upload', targetId: row.id, detail: { layout: body.mapping.layout, unit: body.settings.unit, timeZone: body.settings.timeZone }, ip: clientAddress(req) });
+        await recordAudit(db, {
+          actor,
+          action: 'upload.mapped',
+          targetType: 'upload',
+          targetId: row.id,
+          detail: { layout: body.mapping.layout, unit: body.settings.unit, timeZone: body.settings.timeZone },
+          ip: clientAddress(req),
+        });
         return (await findUpload(db, row.id))!;
       },
     }),
@@ -174,13 +217,27 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
       summary: 'Discard an upload that is still awaiting its mapping (its stored file is deleted; nothing was imported)',
       params: idParams,
       handler: async ({ params, actor, req }) => {
-        const [row] = await db.select({ id: uploads.id, status: uploads.status, path: uploads.storagePath, fileName: uploads.fileName }).from(uploads).where(eq(uploads.id, params.id));
+        const [row] = await db
+          .select({ id: uploads.id, status: uploads.status, path: uploads.storagePath, fileName: uploads.fileName })
+          .from(uploads)
+          .where(eq(uploads.id, params.id));
         if (!row) throw new HttpProblem('notFound', `No upload with id ${params.id}.`);
-        if (row.status !== 'received') throw new HttpProblem('conflict', `Upload ${row.id} is ${row.status}; only an upload awaiting its mapping can be discarded.`);
-        const deleted = await db.delete(uploads).where(and(eq(uploads.id, row.id), eq(uploads.status, 'received'))).returning({ id: uploads.id });
+        if (row.status !== 'received')
+          throw new HttpProblem('conflict', `Upload ${row.id} is ${row.status}; only an upload awaiting its mapping can be discarded.`);
+        const deleted = await db
+          .delete(uploads)
+          .where(and(eq(uploads.id, row.id), eq(uploads.status, 'received')))
+          .returning({ id: uploads.id });
         if (deleted.length === 0) throw new HttpProblem('conflict', `Upload ${row.id} was confirmed meanwhile.`);
         if (row.path) await rm(row.path, { force: true });
-        await recordAudit(db, { actor, action: 'upload.discarded', targetType: 'upload', targetId: row.id, detail: { fileName: row.fileName }, ip: clientAddress(req) });
+        await recordAudit(db, {
+          actor,
+          action: 'upload.discarded',
+          targetType: 'upload',
+          targetId: row.id,
+          detail: { fileName: row.fileName },
+          ip: clientAddress(req),
+        });
       },
     }),
     defineRoute({
@@ -198,7 +255,8 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
       path: '/uploads/:id',
       access: 'data.upload',
       tag,
-      summary: 'One upload: status, progress 0–100, counts, the validation report (counts and up to 10 examples per rule); while awaiting its mapping also the preview and proposal',
+      summary:
+        'One upload: status, progress 0–100, counts, the validation report (counts and up to 10 examples per rule); while awaiting its mapping also the preview and proposal',
       params: idParams,
       response: uploadDetailSchema,
       handler: ({ params }) => detail(params.id),
@@ -208,7 +266,7 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
       path: '/uploads/:id/report.csv',
       access: 'data.upload',
       tag,
-      summary: "Every finding of an upload as CSV (spreadsheet formulas in text neutralised)",
+      summary: 'Every finding of an upload as CSV (spreadsheet formulas in text neutralised)',
       params: idParams,
       produces: 'text/csv',
       status: 200,
@@ -220,7 +278,18 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
         res.setHeader('Content-Disposition', `attachment; filename="upload-${upload.id}-findings.csv"`);
         res.write(csvLine(['rule', 'series', 'ts', 'value', 'source_row', 'detail'].map(csvText)));
         for await (const page of allFindings(db, upload.id)) {
-          const text = page.map((f) => csvLine([csvText(f.rule), csvText(f.seriesKey), csvText(f.ts), csvNumber(f.value), csvNumber(f.sourceRow), csvText(JSON.stringify(f.detail))])).join('');
+          const text = page
+            .map((f) =>
+              csvLine([
+                csvText(f.rule),
+                csvText(f.seriesKey),
+                csvText(f.ts),
+                csvNumber(f.value),
+                csvNumber(f.sourceRow),
+                csvText(JSON.stringify(f.detail)),
+              ]),
+            )
+            .join('');
           if (!res.write(text)) await new Promise((resolve) => res.once('drain', resolve));
         }
         res.end();

@@ -60,7 +60,14 @@ export function modelRoutes({ db, pool }: AppContext): RouteDefinition[] {
         await db.transaction(async (tx) => {
           await writeModelSettings(tx, params.id, body, actor.kind === 'user' ? actor.userId : null);
           const { seriesId: _s, temperatureSeries: _t, updatedAt: _u, updatedBy: _b, ...previous } = before;
-          await recordAudit(tx, { actor, action: 'model.settings_changed', targetType: 'series', targetId: params.id, detail: { before: previous, after: body }, ip: clientAddress(req) });
+          await recordAudit(tx, {
+            actor,
+            action: 'model.settings_changed',
+            targetType: 'series',
+            targetId: params.id,
+            detail: { before: previous, after: body },
+            ip: clientAddress(req),
+          });
         });
         return settingsOf(params.id);
       },
@@ -92,7 +99,10 @@ export function modelRoutes({ db, pool }: AppContext): RouteDefinition[] {
         const year = new Date().getUTCFullYear();
         const from = query.from ?? `${year}-01-01`;
         const to = query.to ?? `${year + 1}-12-31`;
-        if (from > to) throw new HttpProblem('invalidInput', 'The start date must not be after the end date.', [{ pointer: '/from', detail: 'after to' }]);
+        if (from > to)
+          throw new HttpProblem('invalidInput', 'The start date must not be after the end date.', [
+            { pointer: '/from', detail: 'after to' },
+          ]);
         const place = await readHolidayPlace(pool);
         const { rows } = await pool.query(
           `select id, to_char(day, 'YYYY-MM-DD') as day, name, kind, source, updated_at from holidays where day between $1::date and $2::date order by day, name`,
@@ -106,7 +116,7 @@ export function modelRoutes({ db, pool }: AppContext): RouteDefinition[] {
       path: '/holidays',
       access: 'models.edit',
       tag: 'Models',
-      summary: "Add a day to the holiday calendar (e.g. a plant shutdown); counts as a holiday from the next refit on",
+      summary: 'Add a day to the holiday calendar (e.g. a plant shutdown); counts as a holiday from the next refit on',
       body: createHolidayRequestSchema,
       response: holidaySchema,
       status: 201,
@@ -119,7 +129,14 @@ export function modelRoutes({ db, pool }: AppContext): RouteDefinition[] {
         );
         if (rows.length === 0) throw new HttpProblem('conflict', `${body.day} is already in the calendar as "${body.name}".`);
         const holiday = holidayOut(rows[0]);
-        await recordAudit(db, { actor, action: 'holiday.added', targetType: 'holiday', targetId: holiday.id, detail: { day: holiday.day, name: holiday.name, kind: holiday.kind }, ip: clientAddress(req) });
+        await recordAudit(db, {
+          actor,
+          action: 'holiday.added',
+          targetType: 'holiday',
+          targetId: holiday.id,
+          detail: { day: holiday.day, name: holiday.name, kind: holiday.kind },
+          ip: clientAddress(req),
+        });
         return holiday;
       },
     }),
@@ -133,9 +150,16 @@ export function modelRoutes({ db, pool }: AppContext): RouteDefinition[] {
       response: seedHolidaysResultSchema,
       handler: async ({ body, actor, req }) => {
         const place = await readHolidayPlace(pool);
-        if (!place.country) throw new HttpProblem('conflict', 'The organisation has no holiday country set; an admin sets it in the settings.');
+        if (!place.country)
+          throw new HttpProblem('conflict', 'The organisation has no holiday country set; an admin sets it in the settings.');
         const added = await seedHolidayYears(pool, place, body.years);
-        await recordAudit(db, { actor, action: 'holiday.seeded', targetType: 'holiday', detail: { years: body.years, added, country: place.country, region: place.region }, ip: clientAddress(req) });
+        await recordAudit(db, {
+          actor,
+          action: 'holiday.seeded',
+          targetType: 'holiday',
+          detail: { years: body.years, added, country: place.country, region: place.region },
+          ip: clientAddress(req),
+        });
         return { added };
       },
     }),
@@ -147,9 +171,18 @@ export function modelRoutes({ db, pool }: AppContext): RouteDefinition[] {
       summary: 'Remove a day from the holiday calendar',
       params: idParams,
       handler: async ({ params, actor, req }) => {
-        const { rows } = await pool.query(`delete from holidays where id = $1 returning to_char(day, 'YYYY-MM-DD') as day, name, source`, [params.id]);
+        const { rows } = await pool.query(`delete from holidays where id = $1 returning to_char(day, 'YYYY-MM-DD') as day, name, source`, [
+          params.id,
+        ]);
         if (rows.length === 0) throw new HttpProblem('notFound', `No holiday with id ${params.id}.`);
-        await recordAudit(db, { actor, action: 'holiday.removed', targetType: 'holiday', targetId: params.id, detail: rows[0], ip: clientAddress(req) });
+        await recordAudit(db, {
+          actor,
+          action: 'holiday.removed',
+          targetType: 'holiday',
+          targetId: params.id,
+          detail: rows[0],
+          ip: clientAddress(req),
+        });
       },
     }),
   ];
@@ -157,5 +190,12 @@ export function modelRoutes({ db, pool }: AppContext): RouteDefinition[] {
 
 /** A holidays row as the contract shapes it. */
 function holidayOut(row: Record<string, any>) {
-  return { id: row['id'], day: row['day'], name: row['name'], kind: row['kind'], source: row['source'], updatedAt: (row['updated_at'] as Date).toISOString() };
+  return {
+    id: row['id'],
+    day: row['day'],
+    name: row['name'],
+    kind: row['kind'],
+    source: row['source'],
+    updatedAt: (row['updated_at'] as Date).toISOString(),
+  };
 }

@@ -9,7 +9,11 @@ import { listCaughtMail, readCaughtMail } from '@loadwright/mail';
 /** The routes under /api/outbox. */
 export function outboxRoutes({ outboxFolder }: AppContext): RouteDefinition[] {
   const folder = () => {
-    if (!outboxFolder) throw new HttpProblem('notFound', 'There is no Outbox: mail goes to the server in SMTP_URL. The Outbox exists only with the local mail catcher.');
+    if (!outboxFolder)
+      throw new HttpProblem(
+        'notFound',
+        'There is no Outbox: mail goes to the server in SMTP_URL. The Outbox exists only with the local mail catcher.',
+      );
     return outboxFolder;
   };
   return [

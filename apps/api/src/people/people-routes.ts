@@ -61,10 +61,26 @@ export function peopleRoutes(context: AppContext): RouteDefinition[] {
       response: personSchema,
       status: 201,
       handler: async ({ body, actor, req }) => {
-        const [existing] = await db.select({ id: users.id }).from(users).where(eq(sql`lower(${users.email})`, body.email.toLowerCase()));
-        if (existing) throw new HttpProblem('conflict', `${body.email} already has an account.`, [{ pointer: '/email', detail: 'Already has an account' }]);
-        const [user] = await db.insert(users).values({ email: body.email, displayName: body.displayName, role: body.role, passwordHash: null }).returning();
-        await recordAudit(db, { actor, action: 'user.invited', targetType: 'user', targetId: user!.id, detail: { email: body.email, role: body.role }, ip: clientAddress(req) });
+        const [existing] = await db
+          .select({ id: users.id })
+          .from(users)
+          .where(eq(sql`lower(${users.email})`, body.email.toLowerCase()));
+        if (existing)
+          throw new HttpProblem('conflict', `${body.email} already has an account.`, [
+            { pointer: '/email', detail: 'Already has an account' },
+          ]);
+        const [user] = await db
+          .insert(users)
+          .values({ email: body.email, displayName: body.displayName, role: body.role, passwordHash: null })
+          .returning();
+        await recordAudit(db, {
+          actor,
+          action: 'user.invited',
+          targetType: 'user',
+          targetId: user!.id,
+          detail: { email: body.email, role: body.role },
+          ip: clientAddress(req),
+        });
         await sendInvite(user!, actor);
         return toPerson(user!);
       },
@@ -82,17 +98,36 @@ export function peopleRoutes(context: AppContext): RouteDefinition[] {
         const updated = await db.transaction(async (tx) => {
           const [user] = await tx.select().from(users).where(eq(users.id, params.id)).for('update');
           if (!user) throw new HttpProblem('notFound', `No person with id ${params.id}.`);
-          const losesAdmin = user.role === 'admin' && user.active && ((body.role !== undefined && body.role !== 'admin') || body.active === false);
+          const losesAdmin =
+            user.role === 'admin' && user.active && ((body.role !== undefined && body.role !== 'admin') || body.active === false);
           if (losesAdmin) {
-            const [{ count }] = (await tx.select({ count: sql<number>`count(*)::int` }).from(users).where(and(eq(users.role, 'admin'), eq(users.active, true), ne(users.id, user.id)))) as [{ count: number }];
+            const [{ count }] = (await tx
+              .select({ count: sql<number>`count(*)::int` })
+              .from(users)
+              .where(and(eq(users.role, 'admin'), eq(users.active, true), ne(users.id, user.id)))) as [{ count: number }];
             if (count === 0) throw new HttpProblem('conflict', 'This is the last active admin. Make someone else an admin first.');
           }
           const [row] = await tx.update(users).set(body).where(eq(users.id, user.id)).returning();
           const roleChanged = body.role !== undefined && body.role !== user.role;
           const deactivated = body.active === false && user.active;
           if (roleChanged || deactivated) await revokeSessionsOf(tx, user.id);
-          const changes = Object.fromEntries(Object.entries(body).map(([key, value]) => [key, { from: user[key as keyof typeof body], to: value }]));
-          await recordAudit(tx, { actor, action: roleChanged ? 'user.role_changed' : deactivated ? 'user.deactivated' : body.active ? 'user.reactivated' : 'user.updated', targetType: 'user', targetId: user.id, detail: changes, ip: clientAddress(req) });
+          const changes = Object.fromEntries(
+            Object.entries(body).map(([key, value]) => [key, { from: user[key as keyof typeof body], to: value }]),
+          );
+          await recordAudit(tx, {
+            actor,
+            action: roleChanged
+              ? 'user.role_changed'
+              : deactivated
+                ? 'user.deactivated'
+                : body.active
+                  ? 'user.reactivated'
+                  : 'user.updated',
+            targetType: 'user',
+            targetId: user.id,
+            detail: changes,
+            ip: clientAddress(req),
+          });
           return row!;
         });
         return toPerson(updated);
@@ -109,7 +144,8 @@ export function peopleRoutes(context: AppContext): RouteDefinition[] {
       handler: async ({ params, actor, req }) => {
         const [user] = await db.select().from(users).where(eq(users.id, params.id));
         if (!user) throw new HttpProblem('notFound', `No person with id ${params.id}.`);
-        if (user.passwordHash !== null) throw new HttpProblem('conflict', `${user.displayName} has already set a password; they can use "Forgot password" instead.`);
+        if (user.passwordHash !== null)
+          throw new HttpProblem('conflict', `${user.displayName} has already set a password; they can use "Forgot password" instead.`);
         await sendInvite(user, actor);
         await recordAudit(db, { actor, action: 'user.invite_resent', targetType: 'user', targetId: user.id, ip: clientAddress(req) });
         return { message: `A new invite link was sent to ${user.email}.` };

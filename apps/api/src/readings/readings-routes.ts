@@ -36,15 +36,22 @@ async function xmlBody(req: Request, res: Response): Promise<string> {
   await new Promise<void>((resolve, reject) =>
     readXmlBody(req, res, (error?: unknown) => {
       if ((error as { type?: string } | undefined)?.type === 'entity.too.large') {
-        reject(new HttpProblem('payloadTooLarge', `Green Button files of up to ${maxGreenButtonBytes / 1024 / 1024} MB are accepted; split the download by date range.`));
+        reject(
+          new HttpProblem(
+            'payloadTooLarge',
+            `Green Button files of up to ${maxGreenButtonBytes / 1024 / 1024} MB are accepted; split the download by date range.`,
+          ),
+        );
       } else if (error) reject(error);
       else resolve();
     }),
   );
   if (typeof req.body !== 'string' || req.body.trim() === '') {
-    throw new HttpProblem('invalidInput', `Send the Green Button XML file as the request body with Content-Type ${greenButtonMediaTypes.slice(0, 2).join(' or ')}.`, [
-      { pointer: '', detail: 'Expected an XML body' },
-    ]);
+    throw new HttpProblem(
+      'invalidInput',
+      `Send the Green Button XML file as the request body with Content-Type ${greenButtonMediaTypes.slice(0, 2).join(' or ')}.`,
+      [{ pointer: '', detail: 'Expected an XML body' }],
+    );
   }
   return req.body;
 }
@@ -121,7 +128,8 @@ export function readingsRoutes({ db }: AppContext): RouteDefinition[] {
           usage = parseGreenButton(xml);
           readings = greenButtonReadings(usage, series);
         } catch (error) {
-          if (error instanceof GreenButtonFormatError) throw new HttpProblem('invalidInput', error.message, [{ pointer: '', detail: error.message }]);
+          if (error instanceof GreenButtonFormatError)
+            throw new HttpProblem('invalidInput', error.message, [{ pointer: '', detail: error.message }]);
           throw error;
         }
         const result = await importBatch(db, {

@@ -1,5 +1,12 @@
 /** Refit runs: start one now (POST /api/refits) and follow them (GET /api/refits, /current, /:id). */
-import { currentRefitSchema, refitRunDetailSchema, refitRunListQuerySchema, refitRunListSchema, refitRunSummarySchema, startRefitRequestSchema } from '@loadwright/contracts';
+import {
+  currentRefitSchema,
+  refitRunDetailSchema,
+  refitRunListQuerySchema,
+  refitRunListSchema,
+  refitRunSummarySchema,
+  startRefitRequestSchema,
+} from '@loadwright/contracts';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
 import { recordAudit } from '@loadwright/audit';
@@ -57,16 +64,28 @@ export function refitRoutes({ db, pool }: AppContext): RouteDefinition[] {
       response: refitRunSummarySchema,
       status: 202,
       handler: async ({ body, actor, req }) => {
-        if (!(await refitQueueReady(pool))) throw new HttpProblem('unavailable', 'The job queue is not ready: no worker has started against this database yet.');
+        if (!(await refitQueueReady(pool)))
+          throw new HttpProblem('unavailable', 'The job queue is not ready: no worker has started against this database yet.');
         let started;
         try {
-          started = await startRefitRun(pool, insertJobs, { trigger: 'manual', scope: body.scope, requestedById: actor.kind === 'user' ? actor.userId : null });
+          started = await startRefitRun(pool, insertJobs, {
+            trigger: 'manual',
+            scope: body.scope,
+            requestedById: actor.kind === 'user' ? actor.userId : null,
+          });
         } catch (error) {
           if (error instanceof RefitScopeError) throw new HttpProblem(error.kind, error.message);
           throw error;
         }
         if (!started) throw new HttpProblem('conflict', 'The run could not be created.');
-        await recordAudit(db, { actor, action: 'refit.started', targetType: 'refit_run', targetId: started.runId, detail: { scope: body.scope, series: started.seriesIds.length }, ip: clientAddress(req) });
+        await recordAudit(db, {
+          actor,
+          action: 'refit.started',
+          targetType: 'refit_run',
+          targetId: started.runId,
+          detail: { scope: body.scope, series: started.seriesIds.length },
+          ip: clientAddress(req),
+        });
         const [summary] = await listRunsById(started.runId);
         return summary!;
       },

@@ -58,9 +58,23 @@ export function tokenRoutes({ db }: AppContext): RouteDefinition[] {
         const expiresAt = body.expiresInDays === null ? null : new Date(Date.now() + body.expiresInDays * 86_400_000);
         const [row] = await db
           .insert(apiTokens)
-          .values({ name: body.name, scope: body.scope, prefix, secretHash: hash, expiresAt, createdById: actor.kind === 'user' ? actor.userId : null })
+          .values({
+            name: body.name,
+            scope: body.scope,
+            prefix,
+            secretHash: hash,
+            expiresAt,
+            createdById: actor.kind === 'user' ? actor.userId : null,
+          })
           .returning({ id: apiTokens.id });
-        await recordAudit(db, { actor, action: 'token.created', targetType: 'api_token', targetId: row!.id, detail: { name: body.name, scope: body.scope, prefix }, ip: clientAddress(req) });
+        await recordAudit(db, {
+          actor,
+          action: 'token.created',
+          targetType: 'api_token',
+          targetId: row!.id,
+          detail: { name: body.name, scope: body.scope, prefix },
+          ip: clientAddress(req),
+        });
         const [created] = await listTokens(row!.id);
         return { token: created!, secret: token };
       },
@@ -73,9 +87,20 @@ export function tokenRoutes({ db }: AppContext): RouteDefinition[] {
       summary: 'Revoke a token at once',
       params: z.object({ id: z.coerce.number().int().positive() }),
       handler: async ({ params, actor, req }) => {
-        const [row] = await db.update(apiTokens).set({ revokedAt: new Date() }).where(and(eq(apiTokens.id, params.id), isNull(apiTokens.revokedAt))).returning({ id: apiTokens.id, name: apiTokens.name });
+        const [row] = await db
+          .update(apiTokens)
+          .set({ revokedAt: new Date() })
+          .where(and(eq(apiTokens.id, params.id), isNull(apiTokens.revokedAt)))
+          .returning({ id: apiTokens.id, name: apiTokens.name });
         if (!row) throw new HttpProblem('notFound', `No live token with id ${params.id}.`);
-        await recordAudit(db, { actor, action: 'token.revoked', targetType: 'api_token', targetId: row.id, detail: { name: row.name }, ip: clientAddress(req) });
+        await recordAudit(db, {
+          actor,
+          action: 'token.revoked',
+          targetType: 'api_token',
+          targetId: row.id,
+          detail: { name: row.name },
+          ip: clientAddress(req),
+        });
       },
     }),
   ];

@@ -32,7 +32,13 @@ function sectionRoutes(section: ProductSection): Routes {
   const loadComponent = page ?? (() => import('./shared/upcoming-section/upcoming-section').then((m) => m.UpcomingSection));
   const paths = [section.path, ...(sectionSubpaths[section.path] ?? []).map((sub) => `${section.path}/${sub}`)];
   return paths.flatMap((path): Route[] => [
-    { path, title: section.label, data: { section }, canMatch: [holds(section.permission)], loadComponent: (section.available && subpathPages[path]) || loadComponent },
+    {
+      path,
+      title: section.label,
+      data: { section },
+      canMatch: [holds(section.permission)],
+      loadComponent: (section.available && subpathPages[path]) || loadComponent,
+    },
     { path, title: 'Not allowed', data: { section }, loadComponent: () => import('./shared/refused/refused').then((m) => m.Refused) },
   ]);
 }

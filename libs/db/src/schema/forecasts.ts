@@ -1,17 +1,5 @@
 import { sql } from 'drizzle-orm';
-import {
-  bigint,
-  check,
-  doublePrecision,
-  index,
-  integer,
-  jsonb,
-  pgEnum,
-  pgTable,
-  primaryKey,
-  text,
-  uniqueIndex,
-} from 'drizzle-orm/pg-core';
+import { bigint, check, doublePrecision, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, uniqueIndex } from 'drizzle-orm/pg-core';
 import { fits } from './models';
 import { users } from './people';
 import { refitRuns } from './refits';
@@ -47,15 +35,22 @@ export const forecastVersions = pgTable(
     /** First forecast instant (the hour after the last actual used). */
     origin: instant('origin').notNull(),
     horizonHours: integer('horizon_hours').notNull(),
-    levels: integer('levels').array().notNull().default(sql`'{80,95}'::integer[]`),
+    levels: integer('levels')
+      .array()
+      .notNull()
+      .default(sql`'{80,95}'::integer[]`),
     warnings: jsonb('warnings').$type<ForecastWarning[]>().notNull().default([]),
     approvedById: integer('approved_by_id').references(() => users.id, { onDelete: 'set null' }),
     approvedAt: instant('approved_at'),
     supersededAt: instant('superseded_at'),
   },
   (t) => [
-    uniqueIndex('forecast_versions_one_draft_key').on(t.seriesId).where(sql`${t.state} = 'draft'`),
-    uniqueIndex('forecast_versions_one_approved_key').on(t.seriesId).where(sql`${t.state} = 'approved'`),
+    uniqueIndex('forecast_versions_one_draft_key')
+      .on(t.seriesId)
+      .where(sql`${t.state} = 'draft'`),
+    uniqueIndex('forecast_versions_one_approved_key')
+      .on(t.seriesId)
+      .where(sql`${t.state} = 'approved'`),
     uniqueIndex('forecast_versions_run_series_key')
       .on(t.refitRunId, t.seriesId)
       .where(sql`${t.refitRunId} is not null`),
@@ -87,7 +82,10 @@ export const forecastPoints = pgTable(
   },
   (t) => [
     primaryKey({ name: 'forecast_points_pkey', columns: [t.versionId, t.ts] }),
-    check('forecast_points_bounds_check', sql`${t.lower95} <= ${t.lower80} and ${t.lower80} <= ${t.upper80} and ${t.upper80} <= ${t.upper95}`),
+    check(
+      'forecast_points_bounds_check',
+      sql`${t.lower95} <= ${t.lower80} and ${t.lower80} <= ${t.upper80} and ${t.upper80} <= ${t.upper95}`,
+    ),
   ],
 );
 

@@ -43,7 +43,10 @@ export const missRules = pgTable(
     kind: missRuleKind('kind').notNull(),
     bandLevel: smallint('band_level'),
     threshold: doublePrecision('threshold'),
-    recipients: text('recipients').array().notNull().default(sql`'{}'::text[]`),
+    recipients: text('recipients')
+      .array()
+      .notNull()
+      .default(sql`'{}'::text[]`),
     active: boolean('active').notNull().default(true),
     createdById: integer('created_by_id').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),

@@ -1,17 +1,5 @@
 import { sql } from 'drizzle-orm';
-import {
-  bigint,
-  boolean,
-  check,
-  doublePrecision,
-  index,
-  integer,
-  jsonb,
-  pgEnum,
-  pgTable,
-  smallint,
-  text,
-} from 'drizzle-orm/pg-core';
+import { bigint, boolean, check, doublePrecision, index, integer, jsonb, pgEnum, pgTable, smallint, text } from 'drizzle-orm/pg-core';
 import { users } from './people';
 import { series } from './series';
 import { createdAt, instant, updatedAt } from './timestamps';
@@ -53,7 +41,10 @@ export const modelSpecs = pgTable(
     maxArOrder: smallint('max_ar_order').notNull().default(48),
     maxMaOrder: smallint('max_ma_order').notNull().default(2),
     /** Extra lags offered to ridge/lasso beyond 1..max_ar_order, e.g. 168 for last week. */
-    extraLags: integer('extra_lags').array().notNull().default(sql`'{}'::integer[]`),
+    extraLags: integer('extra_lags')
+      .array()
+      .notNull()
+      .default(sql`'{}'::integer[]`),
     seasonalTreatment: seasonalTreatment('seasonal_treatment').notNull().default('hour_of_week_profile'),
     /** Form of the hour-of-week or hour-of-day profile. */
     profileForm: profileForm('profile_form').notNull().default('additive'),
@@ -69,15 +60,24 @@ export const modelSpecs = pgTable(
     useDayType: boolean('use_day_type').notNull().default(true),
     trainingWindowDays: integer('training_window_days').notNull().default(365),
     horizonHours: integer('horizon_hours').notNull().default(168),
-    levels: integer('levels').array().notNull().default(sql`'{80,95}'::integer[]`),
+    levels: integer('levels')
+      .array()
+      .notNull()
+      .default(sql`'{80,95}'::integer[]`),
     updatedById: integer('updated_by_id').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
   (t) => [
-    check('model_specs_orders_check', sql`coalesce(${t.arOrder}, 0) >= 0 and coalesce(${t.maOrder}, 0) >= 0 and ${t.maxArOrder} >= 0 and ${t.maxMaOrder} >= 0`),
+    check(
+      'model_specs_orders_check',
+      sql`coalesce(${t.arOrder}, 0) >= 0 and coalesce(${t.maOrder}, 0) >= 0 and ${t.maxArOrder} >= 0 and ${t.maxMaOrder} >= 0`,
+    ),
     check('model_specs_difference_lag_check', sql`${t.differenceLag} in (24, 168)`),
-    check('model_specs_balance_points_check', sql`${t.heatingBase} is null or ${t.coolingBase} is null or ${t.heatingBase} <= ${t.coolingBase}`),
+    check(
+      'model_specs_balance_points_check',
+      sql`${t.heatingBase} is null or ${t.coolingBase} is null or ${t.heatingBase} <= ${t.coolingBase}`,
+    ),
     check('model_specs_horizon_check', sql`${t.horizonHours} between 1 and 8784`),
     check('model_specs_training_window_check', sql`${t.trainingWindowDays} between 7 and 3660`),
     check('model_specs_levels_check', sql`cardinality(${t.levels}) >= 1 and 0 < all(${t.levels}) and 100 > all(${t.levels})`),

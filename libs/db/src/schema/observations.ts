@@ -1,12 +1,5 @@
 import { sql } from 'drizzle-orm';
-import {
-  check,
-  doublePrecision,
-  integer,
-  pgTable,
-  primaryKey,
-  smallint,
-} from 'drizzle-orm/pg-core';
+import { check, doublePrecision, integer, pgTable, primaryKey, smallint } from 'drizzle-orm/pg-core';
 import { instant } from './timestamps';
 
 /**

@@ -1,17 +1,5 @@
 import { sql } from 'drizzle-orm';
-import {
-  bigint,
-  check,
-  index,
-  integer,
-  jsonb,
-  pgEnum,
-  pgTable,
-  primaryKey,
-  smallint,
-  text,
-  uniqueIndex,
-} from 'drizzle-orm/pg-core';
+import { bigint, check, index, integer, jsonb, pgEnum, pgTable, primaryKey, smallint, text, uniqueIndex } from 'drizzle-orm/pg-core';
 import { fits } from './models';
 import { users } from './people';
 import { series } from './series';
@@ -47,7 +35,9 @@ export const refitRuns = pgTable(
     finishedAt: instant('finished_at'),
   },
   (t) => [
-    uniqueIndex('refit_runs_scheduled_for_key').on(t.scheduledFor).where(sql`${t.trigger} = 'schedule'`),
+    uniqueIndex('refit_runs_scheduled_for_key')
+      .on(t.scheduledFor)
+      .where(sql`${t.trigger} = 'schedule'`),
     index('refit_runs_created_at_idx').on(t.createdAt.desc()),
     check('refit_runs_schedule_has_time_check', sql`${t.trigger} <> 'schedule' or ${t.scheduledFor} is not null`),
   ],

@@ -1,14 +1,5 @@
 import { sql } from 'drizzle-orm';
-import {
-  type AnyPgColumn,
-  check,
-  index,
-  integer,
-  pgEnum,
-  pgTable,
-  smallint,
-  text,
-} from 'drizzle-orm/pg-core';
+import { type AnyPgColumn, check, index, integer, pgEnum, pgTable, smallint, text } from 'drizzle-orm/pg-core';
 import { createdAt, instant, updatedAt } from './timestamps';
 
 /** What a series measures. */
@@ -60,10 +51,7 @@ export const series = pgTable(
       'series_level_matches_kind_check',
       sql`(${t.kind} = 'load' and ${t.level} is not null) or (${t.kind} = 'temperature' and ${t.level} is null and ${t.temperatureSeriesId} is null)`,
     ),
-    check(
-      'series_unit_matches_kind_check',
-      sql`(${t.kind} = 'load') = (${t.unit} in ('W', 'kW', 'MW'))`,
-    ),
+    check('series_unit_matches_kind_check', sql`(${t.kind} = 'load') = (${t.unit} in ('W', 'kW', 'MW'))`),
     check('series_parent_not_self_check', sql`${t.parentId} <> ${t.id}`),
   ],
 );

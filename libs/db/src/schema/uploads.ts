@@ -1,16 +1,5 @@
 import { sql } from 'drizzle-orm';
-import {
-  bigint,
-  check,
-  doublePrecision,
-  index,
-  integer,
-  jsonb,
-  pgEnum,
-  pgTable,
-  text,
-  uniqueIndex,
-} from 'drizzle-orm/pg-core';
+import { bigint, check, doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, uniqueIndex } from 'drizzle-orm/pg-core';
 import { validationRules } from '../../../contracts/src/uploads';
 import { apiTokens } from './api-tokens';
 import { users } from './people';
@@ -70,7 +59,9 @@ export const uploads = pgTable(
     finishedAt: instant('finished_at'),
   },
   (t) => [
-    uniqueIndex('uploads_content_sha256_key').on(t.contentSha256).where(sql`${t.status} <> 'failed'`),
+    uniqueIndex('uploads_content_sha256_key')
+      .on(t.contentSha256)
+      .where(sql`${t.status} <> 'failed'`),
     index('uploads_created_at_idx').on(t.createdAt.desc()),
     index('uploads_status_idx').on(t.status),
     check('uploads_progress_check', sql`${t.progress} between 0 and 1`),
@@ -100,8 +91,5 @@ export const uploadFindings = pgTable(
     resolvedById: integer('resolved_by_id').references(() => users.id, { onDelete: 'set null' }),
     resolution: text('resolution'),
   },
-  (t) => [
-    index('upload_findings_upload_rule_idx').on(t.uploadId, t.rule),
-    index('upload_findings_series_ts_idx').on(t.seriesId, t.ts),
-  ],
+  (t) => [index('upload_findings_upload_rule_idx').on(t.uploadId, t.rule), index('upload_findings_series_ts_idx').on(t.seriesId, t.ts)],
 );

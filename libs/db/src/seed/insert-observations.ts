@@ -21,7 +21,11 @@ export const defaultBatchRows = 10_000;
  * each sending three arrays that `unnest()` turns back into rows (three bind parameters instead of
  * three per row). NaN values are skipped: a missing reading is an absent row. Returns rows written.
  */
-export async function insertObservations(executor: Executor, readings: readonly SeriesReadings[], batchRows = defaultBatchRows): Promise<number> {
+export async function insertObservations(
+  executor: Executor,
+  readings: readonly SeriesReadings[],
+  batchRows = defaultBatchRows,
+): Promise<number> {
   let seriesIds: number[] = [];
   let instants: string[] = [];
   let values: number[] = [];

@@ -81,14 +81,26 @@ async function seedInto(db: Database, options: SeedDemoOptions): Promise<SeedDem
       },
       mailFrom: `Loadwright at ${scenario.organisation.name} <loadwright@${scenario.organisation.emailDomain}>`,
     });
-    await tx.insert(users).values(
-      scenario.accounts.map((account, i) => ({ email: account.email, displayName: account.displayName, role: account.role, passwordHash: passwordHashes[i]! })),
-    );
+    await tx
+      .insert(users)
+      .values(
+        scenario.accounts.map((account, i) => ({
+          email: account.email,
+          displayName: account.displayName,
+          role: account.role,
+          passwordHash: passwordHashes[i]!,
+        })),
+      );
     const ids = await insertDemoCatalogue(tx, scenario);
     await tx.insert(holidays).values(demoHolidayRows(scenario)).onConflictDoNothing();
     return insertObservations(
       tx,
-      data.series.map((series) => ({ seriesId: ids.get(series.key)!, startMs: data.startMs, intervalMs: data.intervalMs, values: series.values })),
+      data.series.map((series) => ({
+        seriesId: ids.get(series.key)!,
+        startMs: data.startMs,
+        intervalMs: data.intervalMs,
+        values: series.values,
+      })),
       options.batchRows ?? defaultBatchRows,
     );
   });
@@ -109,5 +121,10 @@ function demoHolidayRows(scenario: DemoScenario) {
   const firstYear = new Date(scenario.start).getUTCFullYear();
   const lastYear = new Date(scenario.end).getUTCFullYear() + 1;
   const years = Array.from({ length: lastYear - firstYear + 1 }, (_, i) => firstYear + i);
-  return publicHolidays(years, scenario.holidays).map((day) => ({ day: day.date, name: day.name, kind: 'public' as const, source: 'package' as const }));
+  return publicHolidays(years, scenario.holidays).map((day) => ({
+    day: day.date,
+    name: day.name,
+    kind: 'public' as const,
+    source: 'package' as const,
+  }));
 }

@@ -72,7 +72,8 @@ export function autocovariance(x: ArrayLike<number>, maxLag: number): Float64Arr
 export function autocorrelation(x: ArrayLike<number>, maxLag: number): Float64Array {
   const gamma = autocovariance(x, maxLag);
   const gamma0 = gamma[0];
-  if (!(gamma0 > 0)) throw new ForecastingError('constant-series', 'autocorrelation', 'the series is constant, so its autocorrelation is undefined');
+  if (!(gamma0 > 0))
+    throw new ForecastingError('constant-series', 'autocorrelation', 'the series is constant, so its autocorrelation is undefined');
   const rho = new Float64Array(maxLag + 1);
   for (let k = 0; k <= maxLag; k++) rho[k] = gamma[k] / gamma0;
   return rho;

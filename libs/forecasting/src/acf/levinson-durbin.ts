@@ -33,7 +33,11 @@ export interface LevinsonDurbinResult {
 export function levinsonDurbin(gamma: ArrayLike<number>, p: number): LevinsonDurbinResult {
   assertFinite('levinsonDurbin', gamma, 'autocovariances');
   if (!Number.isInteger(p) || p < 1 || p >= gamma.length) {
-    throw new ForecastingError('invalid-argument', 'levinsonDurbin', `needs an order 1 ≤ p < ${gamma.length} (autocovariances given), got ${p}`);
+    throw new ForecastingError(
+      'invalid-argument',
+      'levinsonDurbin',
+      `needs an order 1 ≤ p < ${gamma.length} (autocovariances given), got ${p}`,
+    );
   }
   if (!(gamma[0] > 0)) throw new ForecastingError('constant-series', 'levinsonDurbin', 'γ(0) must be positive; the series is constant');
   let phi = new Float64Array(p);
@@ -46,7 +50,11 @@ export function levinsonDurbin(gamma: ArrayLike<number>, p: number): LevinsonDur
     for (let j = 1; j < k; j++) numerator -= previous[j - 1] * gamma[k - j];
     const reflection = numerator / variances[k - 1];
     if (!(Math.abs(reflection) < 1)) {
-      throw new ForecastingError('non-stationary', 'levinsonDurbin', `partial autocorrelation at lag ${k} is ${reflection}; the autocovariances are not positive definite`);
+      throw new ForecastingError(
+        'non-stationary',
+        'levinsonDurbin',
+        `partial autocorrelation at lag ${k} is ${reflection}; the autocovariances are not positive definite`,
+      );
     }
     for (let j = 1; j < k; j++) phi[j - 1] = previous[j - 1] - reflection * previous[k - j - 1];
     phi[k - 1] = reflection;

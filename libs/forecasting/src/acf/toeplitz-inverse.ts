@@ -35,7 +35,11 @@ export function toeplitzInverseDiagonal(gamma: ArrayLike<number>, p: number): Fl
     for (let j = 1; j < k; j++) numerator -= phi[j - 1] * gamma[k - j];
     const reflection = numerator / v;
     if (!(Math.abs(reflection) < 1)) {
-      throw new ForecastingError('non-stationary', 'toeplitzInverseDiagonal', `the autocovariances are not positive definite (|φ_${k}${k}| ≥ 1)`);
+      throw new ForecastingError(
+        'non-stationary',
+        'toeplitzInverseDiagonal',
+        `the autocovariances are not positive definite (|φ_${k}${k}| ≥ 1)`,
+      );
     }
     for (let j = 1; j < k; j++) next[j - 1] = phi[j - 1] - reflection * phi[k - j - 1];
     next[k - 1] = reflection;

@@ -36,7 +36,12 @@ describe('cmleAr', () => {
     //   s <- 1 - sum(b[-1]); g <- c(1/s, rep(b[1]/s^2, p)); sqrt(t(g) %*% V %*% g) }  (R 4.2.2, printed with %.15g)
     const expected = [0.161865022062778, 0.132438789315701, 0.106319206162406];
     const x = loadSeries('lh');
-    expectRelative([1, 2, 3].map((p) => cmleAr(x, p).stderr.mean!), expected, 1e-8, 'stderr μ');
+    expectRelative(
+      [1, 2, 3].map((p) => cmleAr(x, p).stderr.mean!),
+      expected,
+      1e-8,
+      'stderr μ',
+    );
   });
 
   it('agrees with R arima(method = "CSS") for a pure AR, as conditional least squares must (lh ols[2].arima_css)', () => {
@@ -63,13 +68,20 @@ describe('cmleAr against statsmodels AutoReg (second reference)', () => {
   // k = p + 2 parameters in its AIC, as we do; its bse use σ² = RSS/(n − p), so they are not compared here.
   for (const name of ['lh', 'LakeHuron'] as const) {
     it(`reproduces AutoReg's coefficients, σ², log-likelihood and AIC on ${name} (p = 1, 2, 3)`, () => {
-      const reference = JSON.parse(readFileSync(new URL(`../../../../fixtures/reference/ref/${name}.statsmodels.json`, import.meta.url), 'utf8'));
+      const reference = JSON.parse(
+        readFileSync(new URL(`../../../../fixtures/reference/ref/${name}.statsmodels.json`, import.meta.url), 'utf8'),
+      );
       const x = loadSeries(name);
       for (const p of [1, 2, 3]) {
         const autoreg = reference.autoreg[p];
         const fit = cmleAr(x, p);
         expectRelative([fit.intercept, ...fit.ar], autoreg.params, 1e-8, `${name} AR(${p}) params`);
-        expectRelative([fit.sigma2, fit.loglik!, fit.aic!], [autoreg.sigma2, autoreg.llf, autoreg.aic], 1e-8, `${name} AR(${p}) σ², ℓ, AIC`);
+        expectRelative(
+          [fit.sigma2, fit.loglik!, fit.aic!],
+          [autoreg.sigma2, autoreg.llf, autoreg.aic],
+          1e-8,
+          `${name} AR(${p}) σ², ℓ, AIC`,
+        );
       }
     });
   }

@@ -64,10 +64,15 @@ export function cmleAr(x: ArrayLike<number>, p: number): CmleFit {
   const intercept = solution.coefficients[0];
   const ar = Array.from(solution.coefficients.subarray(1));
   if (!isCausalAr(ar)) {
-    throw new ForecastingError('non-stationary', fn, `the least-squares AR(${p}) polynomial has a root on or inside the unit circle; difference the series or remove its trend`);
+    throw new ForecastingError(
+      'non-stationary',
+      fn,
+      `the least-squares AR(${p}) polynomial has a root on or inside the unit circle; difference the series or remove its trend`,
+    );
   }
   const rss = solution.rss;
-  if (!(rss > 0)) throw new ForecastingError('singular-matrix', fn, 'the residual sum of squares is 0: the series follows an exact AR recursion');
+  if (!(rss > 0))
+    throw new ForecastingError('singular-matrix', fn, 'the residual sum of squares is 0: the series follows an exact AR recursion');
   const residuals = new Float64Array(n);
   residuals.set(solution.residuals, p);
 

@@ -10,7 +10,11 @@ import { yuleWalker } from './yule-walker';
 // √(1 − φ₂²)/√n for each coefficient of an AR(2); Yule-Walker and conditional least squares share this limit.
 const models: Array<{ name: string; model: ArmaParameters; asymptoticSd: number[] }> = [
   { name: 'AR(1) φ = 0.7, μ = 5, σ² = 2', model: { mean: 5, ar: [0.7], ma: [], sigma2: 2 }, asymptoticSd: [Math.sqrt(1 - 0.49)] },
-  { name: 'AR(2) φ = (0.6, −0.3), μ = −3, σ² = 1', model: { mean: -3, ar: [0.6, -0.3], ma: [], sigma2: 1 }, asymptoticSd: [Math.sqrt(0.91), Math.sqrt(0.91)] },
+  {
+    name: 'AR(2) φ = (0.6, −0.3), μ = −3, σ² = 1',
+    model: { mean: -3, ar: [0.6, -0.3], ma: [], sigma2: 1 },
+    asymptoticSd: [Math.sqrt(0.91), Math.sqrt(0.91)],
+  },
 ];
 const estimators: Array<[string, (x: Float64Array, p: number) => FitResult]> = [
   ['Yule-Walker', yuleWalker],
@@ -30,7 +34,7 @@ describe('AR estimators recover simulated parameters', () => {
           // σ̂² has asymptotic SE σ²√(2/n) for Gaussian innovations.
           expect(Math.abs(fit.sigma2 - model.sigma2), `σ², n = ${n}`).toBeLessThan(3 * model.sigma2 * Math.sqrt(2 / n));
           // The reported SE itself converges to the asymptotic one.
-          model.ar.forEach((_, i) => expect(fit.stderr.ar![i] * Math.sqrt(n) / asymptoticSd[i]).toBeCloseTo(1, 0));
+          model.ar.forEach((_, i) => expect((fit.stderr.ar![i] * Math.sqrt(n)) / asymptoticSd[i]).toBeCloseTo(1, 0));
         }
       });
 

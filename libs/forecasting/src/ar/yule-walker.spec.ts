@@ -65,7 +65,9 @@ describe('yuleWalker against statsmodels yule_walker(method="mle") (second refer
   // default method='adjusted' (divisor n − k) differs at the second digit and is not ours.
   for (const name of ['lh', 'LakeHuron'] as const) {
     it(`matches statsmodels' φ and σ² on ${name} (p = 1, 2, 3)`, () => {
-      const reference = JSON.parse(readFileSync(new URL(`../../../../fixtures/reference/ref/${name}.statsmodels.json`, import.meta.url), 'utf8'));
+      const reference = JSON.parse(
+        readFileSync(new URL(`../../../../fixtures/reference/ref/${name}.statsmodels.json`, import.meta.url), 'utf8'),
+      );
       const x = loadSeries(name);
       for (const p of [1, 2, 3]) {
         const fit = yuleWalker(x, p);

@@ -52,7 +52,12 @@ export function yuleWalker(x: ArrayLike<number>, p: number): FitResult {
   const phi = p > 0 ? levinsonDurbin(gamma, p) : null;
   const ar = phi ? Array.from(phi.phi) : [];
   const sigma2 = phi ? phi.variances[p] : gamma[0];
-  if (!(sigma2 > 0)) throw new ForecastingError('non-stationary', fn, 'the innovation variance vanished; the series is (numerically) a perfect AR recursion');
+  if (!(sigma2 > 0))
+    throw new ForecastingError(
+      'non-stationary',
+      fn,
+      'the innovation variance vanished; the series is (numerically) a perfect AR recursion',
+    );
 
   const precision = p > 0 ? toeplitzInverseDiagonal(gamma, p) : new Float64Array(0);
   const arStderr = ar.map((_, i) => Math.sqrt((sigma2 * precision[i]) / n));

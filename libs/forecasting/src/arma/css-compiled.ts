@@ -22,7 +22,13 @@
 import type { CssLayout } from './css';
 
 /** A compiled pass: returns the CSS (Infinity on overflow), fills jtj (k × k), jte and, if given, hessian. */
-export type CompiledPass = (x: Float64Array, beta: Float64Array, jtj: Float64Array, jte: Float64Array, hessian: Float64Array | null) => number;
+export type CompiledPass = (
+  x: Float64Array,
+  beta: Float64Array,
+  jtj: Float64Array,
+  jte: Float64Array,
+  hessian: Float64Array | null,
+) => number;
 
 const cache = new Map<string, CompiledPass | null>();
 
@@ -66,8 +72,7 @@ function compile(layout: CssLayout, withHessian: boolean): CompiledPass | null {
   add(`const n = x.length;`);
   add(`for (let t = ${p}; t < n; t++) {`);
   for (let i = 0; i <= p; i++) add(`  const w${i} = x[t - ${i}] - mu;`);
-  const feedback = (value: (l: number) => string) =>
-    Array.from({ length: q }, (_, j) => ` - b${p + j} * ${value(j + 1)}`).join('');
+  const feedback = (value: (l: number) => string) => Array.from({ length: q }, (_, j) => ` - b${p + j} * ${value(j + 1)}`).join('');
   add(`  const et = w0${Array.from({ length: p }, (_, i) => ` - b${i} * w${i + 1}`).join('')}${feedback((l) => `e${l}`)};`);
   for (let c = 0; c < k; c++) {
     const direct = c < p ? `-w${c + 1}` : isMa(c) ? `-e${c - p + 1}` : 'directMean';

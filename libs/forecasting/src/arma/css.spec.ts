@@ -76,8 +76,7 @@ describe('cssNormalEquations', () => {
         const gradient = (shifted(i, h) - shifted(i, -h)) / (2 * h);
         expect(Math.abs(2 * jte[i] - gradient)).toBeLessThan(1e-6 * (1 + Math.abs(gradient)));
         for (let j = 0; j < k; j++) {
-          const second =
-            (shifted(i, h, j, h) - shifted(i, h, j, -h) - shifted(i, -h, j, h) + shifted(i, -h, j, -h)) / (4 * h * h);
+          const second = (shifted(i, h, j, h) - shifted(i, h, j, -h) - shifted(i, -h, j, h) + shifted(i, -h, j, -h)) / (4 * h * h);
           expect(Math.abs(2 * hessian[i * k + j] - second)).toBeLessThan(1e-4 * (1 + Math.abs(second)));
         }
       }
@@ -101,7 +100,7 @@ describe('compiled and generic passes', () => {
   for (const layout of layouts) {
     it(`agree for ARMA(${layout.p},${layout.q})${layout.includeMean ? ' with mean' : ''} (1e-12 relative)`, () => {
       const k = layout.p + layout.q + (layout.includeMean ? 1 : 0);
-      const beta = Float64Array.from({ length: k }, (_, i) => (i === layout.p + layout.q ? 2.4 : 0.3 / (i + 2) * (i % 2 === 0 ? 1 : -1)));
+      const beta = Float64Array.from({ length: k }, (_, i) => (i === layout.p + layout.q ? 2.4 : (0.3 / (i + 2)) * (i % 2 === 0 ? 1 : -1)));
       const workspace = createCssWorkspace(lh.length, layout);
       const withHessian = compiledPass(layout, true) !== null;
       const run = (pass: typeof genericNormalEquations) => {

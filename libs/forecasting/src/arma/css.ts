@@ -41,12 +41,7 @@ export function cssParameterCount(layout: CssLayout): number {
  * The conditional sum of squares at `beta`; writes e_1..e_n into `residuals` (length n, leading
  * p entries 0). Returns Infinity when the recursion overflows.
  */
-export function cssSumOfSquares(
-  x: Float64Array,
-  beta: Float64Array,
-  layout: CssLayout,
-  residuals: Float64Array,
-): number {
+export function cssSumOfSquares(x: Float64Array, beta: Float64Array, layout: CssLayout, residuals: Float64Array): number {
   const { p, q } = layout;
   const n = x.length;
   const mu = layout.includeMean ? beta[p + q] : 0;

@@ -16,7 +16,8 @@ describe('exactLogLikelihood against R arima(method = "ML")', () => {
     const fits: Array<{ label: string; fit: any; p: number; q: number }> = [];
     for (const order of ['1,1', '2,1', '1,2']) {
       const [p, q] = order.split(',').map(Number);
-      for (const variant of ['default', 'tight']) fits.push({ label: `ARMA(${order}) ${variant}`, fit: reference.arma[order].ml[variant], p, q });
+      for (const variant of ['default', 'tight'])
+        fits.push({ label: `ARMA(${order}) ${variant}`, fit: reference.arma[order].ml[variant], p, q });
     }
     for (const p of ['1', '2', '3']) fits.push({ label: `AR(${p}) tight`, fit: reference.ml_ar[p].tight, p: Number(p), q: 0 });
     for (const { label, fit, p, q } of fits) {

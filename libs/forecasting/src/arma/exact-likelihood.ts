@@ -36,9 +36,11 @@ export function exactLogLikelihood(x: ArrayLike<number>, params: ArmaParameters)
   assertFinite(FN, ar, 'ar coefficients');
   assertFinite(FN, ma, 'ma coefficients');
   if (!Number.isFinite(mean)) throw new ForecastingError('non-finite-input', FN, `mean is ${mean}`);
-  if (!(sigma2 > 0) || !Number.isFinite(sigma2)) throw new ForecastingError('invalid-argument', FN, `σ² must be positive and finite, got ${sigma2}`);
+  if (!(sigma2 > 0) || !Number.isFinite(sigma2))
+    throw new ForecastingError('invalid-argument', FN, `σ² must be positive and finite, got ${sigma2}`);
   if (x.length === 0) throw new ForecastingError('invalid-argument', FN, 'the series is empty');
-  if (!isStationary(ar)) throw new ForecastingError('non-stationary', FN, 'the AR part is not stationary, so the process has no stationary covariances');
+  if (!isStationary(ar))
+    throw new ForecastingError('non-stationary', FN, 'the AR part is not stationary, so the process has no stationary covariances');
   const { sumLogR, weightedSquares } = innovations(x, mean, ar, ma);
   const n = x.length;
   return -(n / 2) * Math.log(2 * Math.PI * sigma2) - sumLogR / 2 - weightedSquares / (2 * sigma2);

@@ -51,14 +51,22 @@ export function hannanRissanen(x: ArrayLike<number>, p: number, q: number): Arma
 
   const m = Math.min(Math.max(p + q, Math.min(Math.floor(Math.log(n) ** 2), LONG_AR_CAP)), Math.floor(n / 4));
   if (m < p + q || m < 1) {
-    throw new ForecastingError('too-few-observations', FN, `needs a long autoregression of order ≥ ${p + q}, the series (n = ${n}) allows ${m}`);
+    throw new ForecastingError(
+      'too-few-observations',
+      FN,
+      `needs a long autoregression of order ≥ ${p + q}, the series (n = ${n}) allows ${m}`,
+    );
   }
   const innovations = longAutoregressionResiduals(y, m);
   const first = m + q;
   const rows = n - first;
   const k = p + q;
   if (rows <= k + 1) {
-    throw new ForecastingError('too-few-observations', FN, `step 2 needs more than ${k + 1} rows, has ${rows} (n = ${n}, long AR order ${m})`);
+    throw new ForecastingError(
+      'too-few-observations',
+      FN,
+      `step 2 needs more than ${k + 1} rows, has ${rows} (n = ${n}, long AR order ${m})`,
+    );
   }
   // Regressors as shifted views: column i is y_{t−1−i}, column p + j is ê_{t−1−j}, t = first..n−1.
   const columns: Array<Float64Array | null> = [];

@@ -158,7 +158,7 @@ export function nlsArma(x: ArrayLike<number>, p: number, q: number, options: Nls
       predicted = predictedDecrease(base, gradient, k, factor, step);
     }
     if (predicted !== null) {
-      const offset = Math.sqrt((predicted / k) / (Math.max(css - predicted, 0) / Math.max(m - k, 1)));
+      const offset = Math.sqrt(predicted / k / (Math.max(css - predicted, 0) / Math.max(m - k, 1)));
       if (offset < tolerance || predicted <= 1e-14 * css) {
         converged = true;
         break;

@@ -17,8 +17,7 @@ import { createRequire } from 'node:module';
 
 /** What the package reported, in R's sign convention. */
 export type NpmArimaFit =
-  | { ok: true; ar: number[]; ma: number[]; mean: number; sigma2: number }
-  | { ok: false; failure: NpmArimaFailure; message: string };
+  { ok: true; ar: number[]; ma: number[]; mean: number; sigma2: number } | { ok: false; failure: NpmArimaFailure; message: string };
 
 /**
  * How a fit failed: 'trap' — the WebAssembly runtime aborted (e.g. "memory access out of bounds",

@@ -20,7 +20,7 @@ function triangle(phi1: number, phi2: number): boolean {
 }
 
 describe('isStationary / isInvertible', () => {
-  it("agrees with the AR(2) stationarity triangle on a grid that avoids its edges", () => {
+  it('agrees with the AR(2) stationarity triangle on a grid that avoids its edges', () => {
     for (let phi1 = -2.07; phi1 <= 2.07; phi1 += 0.1) {
       for (let phi2 = -1.04; phi2 <= 1.04; phi2 += 0.1) {
         expect(isStationary([phi1, phi2]), `φ = (${phi1}, ${phi2})`).toBe(triangle(phi1, phi2));
@@ -45,7 +45,9 @@ describe('isStationary / isInvertible', () => {
 
 describe('reciprocalRoots', () => {
   it('finds the reciprocal roots of 1 − 1.3z + 0.4z² (0.8 and 0.5) and of a complex pair', () => {
-    const real = reciprocalRoots([1.3, -0.4]).map(([re]) => re).sort((a, b) => a - b);
+    const real = reciprocalRoots([1.3, -0.4])
+      .map(([re]) => re)
+      .sort((a, b) => a - b);
     expect(real[0]).toBeCloseTo(0.5, 12);
     expect(real[1]).toBeCloseTo(0.8, 12);
     // 1 − z + 0.5z²: λ² − λ + 0.5 = 0 gives λ = 0.5 ± 0.5i.

@@ -54,7 +54,10 @@ export function isStationary(ar: ArrayLike<number>, margin = 0): boolean {
 
 /** True when θ(z) = 1 + Σ θ_j z^j has every zero strictly outside the unit circle (see isStationary). */
 export function isInvertible(ma: ArrayLike<number>, margin = 0): boolean {
-  return isStationary(Array.from(ma, (theta) => -theta), margin);
+  return isStationary(
+    Array.from(ma, (theta) => -theta),
+    margin,
+  );
 }
 
 /**

@@ -37,9 +37,20 @@ describe('conjugateNormalUpdate', () => {
   });
 
   it('returns the prior before any observation and refuses bad variances', () => {
-    expect(conjugateNormalUpdate({ mean: 5, variance: 2 }, { n: 0, mean: Number.NaN }, 1)).toEqual({ mean: 5, variance: 2, precision: 0.5, weightOnSample: 0 });
-    expect(() => conjugateNormalUpdate({ mean: 0, variance: 0 }, { n: 1, mean: 1 }, 1)).toThrowError(expect.objectContaining({ code: 'invalid-argument' }));
-    expect(() => conjugateNormalUpdate({ mean: 0, variance: 1 }, { n: 1, mean: 1 }, -1)).toThrowError(expect.objectContaining({ code: 'invalid-argument' }));
-    expect(() => conjugateNormalUpdate({ mean: 0, variance: 1 }, { n: 1.5, mean: 1 }, 1)).toThrowError(expect.objectContaining({ code: 'invalid-argument' }));
+    expect(conjugateNormalUpdate({ mean: 5, variance: 2 }, { n: 0, mean: Number.NaN }, 1)).toEqual({
+      mean: 5,
+      variance: 2,
+      precision: 0.5,
+      weightOnSample: 0,
+    });
+    expect(() => conjugateNormalUpdate({ mean: 0, variance: 0 }, { n: 1, mean: 1 }, 1)).toThrowError(
+      expect.objectContaining({ code: 'invalid-argument' }),
+    );
+    expect(() => conjugateNormalUpdate({ mean: 0, variance: 1 }, { n: 1, mean: 1 }, -1)).toThrowError(
+      expect.objectContaining({ code: 'invalid-argument' }),
+    );
+    expect(() => conjugateNormalUpdate({ mean: 0, variance: 1 }, { n: 1.5, mean: 1 }, 1)).toThrowError(
+      expect.objectContaining({ code: 'invalid-argument' }),
+    );
   });
 });

@@ -30,15 +30,21 @@ export interface GaussianPosterior extends GaussianBelief {
 
 /** Throws unless `value` is a finite number > 0. */
 export function checkPositive(fn: string, name: string, value: number): void {
-  if (!(Number.isFinite(value) && value > 0)) throw new ForecastingError('invalid-argument', fn, `${name} must be a finite number > 0, got ${value}`);
+  if (!(Number.isFinite(value) && value > 0))
+    throw new ForecastingError('invalid-argument', fn, `${name} must be a finite number > 0, got ${value}`);
 }
 
 /** Posterior of a Gaussian mean after n observations with sample mean ȳ and known noise variance σ². */
-export function conjugateNormalUpdate(prior: GaussianBelief, sample: { n: number; mean: number }, noiseVariance: number): GaussianPosterior {
+export function conjugateNormalUpdate(
+  prior: GaussianBelief,
+  sample: { n: number; mean: number },
+  noiseVariance: number,
+): GaussianPosterior {
   const fn = 'conjugateNormalUpdate';
   checkPositive(fn, 'prior variance', prior.variance);
   checkPositive(fn, 'noise variance', noiseVariance);
-  if (!Number.isInteger(sample.n) || sample.n < 0) throw new ForecastingError('invalid-argument', fn, `n must be an integer ≥ 0, got ${sample.n}`);
+  if (!Number.isInteger(sample.n) || sample.n < 0)
+    throw new ForecastingError('invalid-argument', fn, `n must be an integer ≥ 0, got ${sample.n}`);
   if (!Number.isFinite(prior.mean)) throw new ForecastingError('non-finite-input', fn, `prior mean is ${prior.mean}`);
   if (sample.n > 0 && !Number.isFinite(sample.mean)) throw new ForecastingError('non-finite-input', fn, `sample mean is ${sample.mean}`);
   const priorPrecision = 1 / prior.variance;

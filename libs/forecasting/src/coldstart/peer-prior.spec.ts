@@ -27,13 +27,7 @@ describe('peerProfilePrior', () => {
     // Level prior: mean (16 + 24)/2 = 20, variance ((−4)² + 4²)/1 = 32.
     // Slot 0: mean (−5 − 8)/2 = −6.5, variance (1.5² + 1.5²)/1 = 4.5; slot 1: mean 6.5, variance 4.5.
     // Noise variance (4 + 16)/(2 + 3) = 4.
-    const prior = peerProfilePrior(
-      [
-        { values: [10, 20, 12, 22] },
-        { values: [30, 14, 34, 18, 32], offset: 1 },
-      ],
-      { period: 2 },
-    );
+    const prior = peerProfilePrior([{ values: [10, 20, 12, 22] }, { values: [30, 14, 34, 18, 32], offset: 1 }], { period: 2 });
     expect(prior.level).toEqual({ mean: 20, variance: 32 });
     expect(prior.profile).toEqual([
       { mean: -6.5, variance: 4.5 },
@@ -48,6 +42,8 @@ describe('peerProfilePrior', () => {
     expect(() => peerProfilePrior([{ values: [1, 2, 3], offset: 2 }, { values: [1, 2, 3] }], { period: 2 })).toThrowError(
       expect.objectContaining({ code: 'invalid-argument' }),
     );
-    expect(() => peerProfilePrior([{ values: [1, 2, 3] }], { period: 2 })).toThrowError(expect.objectContaining({ code: 'too-few-observations' }));
+    expect(() => peerProfilePrior([{ values: [1, 2, 3] }], { period: 2 })).toThrowError(
+      expect.objectContaining({ code: 'too-few-observations' }),
+    );
   });
 });

@@ -51,9 +51,11 @@ interface PeerEstimate {
 /** Gaussian belief from peer estimates: their mean and sample variance (divisor count − 1) plus a floor. */
 export function gaussianPriorFromEstimates(estimates: ArrayLike<number>, varianceFloor = 0): GaussianBelief {
   const fn = 'gaussianPriorFromEstimates';
-  if (estimates.length < 2) throw new ForecastingError('too-few-observations', fn, `needs at least 2 peer estimates for a variance, got ${estimates.length}`);
+  if (estimates.length < 2)
+    throw new ForecastingError('too-few-observations', fn, `needs at least 2 peer estimates for a variance, got ${estimates.length}`);
   assertFinite(fn, estimates, 'estimates');
-  if (!(Number.isFinite(varianceFloor) && varianceFloor >= 0)) throw new ForecastingError('invalid-argument', fn, `varianceFloor must be ≥ 0, got ${varianceFloor}`);
+  if (!(Number.isFinite(varianceFloor) && varianceFloor >= 0))
+    throw new ForecastingError('invalid-argument', fn, `varianceFloor must be ≥ 0, got ${varianceFloor}`);
   let mean = 0;
   for (let i = 0; i < estimates.length; i++) mean += estimates[i];
   mean /= estimates.length;
@@ -71,12 +73,21 @@ export function gaussianPriorFromEstimates(estimates: ArrayLike<number>, varianc
 export function peerProfilePrior(peers: readonly CycleSeries[], options: { period: number; varianceFloor?: number }): ProfilePrior {
   const fn = 'peerProfilePrior';
   const { period } = options;
-  if (!Number.isInteger(period) || period < 1) throw new ForecastingError('invalid-argument', fn, `period must be a positive integer, got ${period}`);
+  if (!Number.isInteger(period) || period < 1)
+    throw new ForecastingError('invalid-argument', fn, `period must be a positive integer, got ${period}`);
   if (peers.length < 2) throw new ForecastingError('too-few-observations', fn, `needs at least 2 peers, got ${peers.length}`);
   const estimates = peers.map((peer, i) => estimatePeer(fn, peer, period, i));
   const floor = options.varianceFloor ?? 0;
-  const level = gaussianPriorFromEstimates(estimates.map((e) => e.level), floor);
-  const profile = Array.from({ length: period }, (_, k) => gaussianPriorFromEstimates(estimates.map((e) => e.profile[k]), floor));
+  const level = gaussianPriorFromEstimates(
+    estimates.map((e) => e.level),
+    floor,
+  );
+  const profile = Array.from({ length: period }, (_, k) =>
+    gaussianPriorFromEstimates(
+      estimates.map((e) => e.profile[k]),
+      floor,
+    ),
+  );
   const rss = estimates.reduce((s, e) => s + e.rss, 0);
   const df = estimates.reduce((s, e) => s + e.df, 0);
   if (!(rss > 0)) throw new ForecastingError('constant-series', fn, 'the peers follow their profiles exactly, so the noise variance is 0');
@@ -101,7 +112,8 @@ function estimatePeer(fn: string, peer: CycleSeries, period: number, index: numb
   checkOffset(fn, offset, period);
   assertFinite(fn, peer.values, `peer ${index}`);
   const n = peer.values.length;
-  if (n <= period) throw new ForecastingError('too-few-observations', fn, `peer ${index} has ${n} values; needs more than one cycle of ${period}`);
+  if (n <= period)
+    throw new ForecastingError('too-few-observations', fn, `peer ${index} has ${n} values; needs more than one cycle of ${period}`);
   const sums = new Float64Array(period);
   const counts = new Float64Array(period);
   for (let i = 0; i < n; i++) {

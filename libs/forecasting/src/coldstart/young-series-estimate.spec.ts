@@ -38,8 +38,16 @@ describe('coldStartEstimate', () => {
     });
     const v0 = [25, 4, 9, 1];
     const m0 = [50, -5, 2, 3];
-    const precision = a.transpose().mmul(a).div(6).add(Matrix.diag(v0.map((v) => 1 / v)));
-    const rhs = a.transpose().mmul(Matrix.columnVector(young.values)).div(6).add(Matrix.columnVector(m0.map((m, i) => m / v0[i])));
+    const precision = a
+      .transpose()
+      .mmul(a)
+      .div(6)
+      .add(Matrix.diag(v0.map((v) => 1 / v)));
+    const rhs = a
+      .transpose()
+      .mmul(Matrix.columnVector(young.values))
+      .div(6)
+      .add(Matrix.columnVector(m0.map((m, i) => m / v0[i])));
     const covariance = inverse(precision);
     const mean = covariance.mmul(rhs).getColumn(0);
     expect(estimate.level.mean).toBeCloseTo(mean[0], 10);
@@ -104,6 +112,8 @@ describe('coldStartEstimate', () => {
 
   it('refuses a bad offset or noise variance', () => {
     expect(() => coldStartEstimate({ values: [1], offset: 3 }, prior)).toThrowError(expect.objectContaining({ code: 'invalid-argument' }));
-    expect(() => coldStartEstimate({ values: [1] }, prior, { noiseVariance: 0 })).toThrowError(expect.objectContaining({ code: 'invalid-argument' }));
+    expect(() => coldStartEstimate({ values: [1] }, prior, { noiseVariance: 0 })).toThrowError(
+      expect.objectContaining({ code: 'invalid-argument' }),
+    );
   });
 });

@@ -42,7 +42,8 @@ export function coldStartEstimate(young: CycleSeries, prior: ProfilePrior, optio
   const offset = young.offset ?? 0;
   checkOffset(fn, offset, K);
   assertFinite(fn, young.values, 'young series');
-  if (prior.profile.length !== K) throw new ForecastingError('invalid-argument', fn, `the prior has ${prior.profile.length} slots for period ${K}`);
+  if (prior.profile.length !== K)
+    throw new ForecastingError('invalid-argument', fn, `the prior has ${prior.profile.length} slots for period ${K}`);
   const noise = options.noiseVariance ?? prior.noiseVariance;
   checkPositive(fn, 'noise variance', noise);
   checkPositive(fn, 'prior level variance', prior.level.variance);

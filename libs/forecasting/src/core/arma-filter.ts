@@ -18,12 +18,7 @@
 import { assertFinite, ForecastingError } from './errors';
 
 /** The CSS residuals e_1..e_n of x under (μ, φ, θ); e_1..e_p are 0. */
-export function armaResiduals(
-  x: ArrayLike<number>,
-  mean: number,
-  ar: ArrayLike<number>,
-  ma: ArrayLike<number>,
-): Float64Array {
+export function armaResiduals(x: ArrayLike<number>, mean: number, ar: ArrayLike<number>, ma: ArrayLike<number>): Float64Array {
   assertFinite('armaResiduals', x);
   assertFinite('armaResiduals', ar, 'ar coefficients');
   assertFinite('armaResiduals', ma, 'ma coefficients');

@@ -36,7 +36,13 @@ describe('chiSquareSurvival', () => {
 
 describe('regularised incomplete gamma', () => {
   it('P + Q = 1 on both sides of the series / continued-fraction switch', () => {
-    for (const [a, x] of [[0.5, 0.2], [3, 2.5], [3, 5], [40.5, 30], [40.5, 60]]) {
+    for (const [a, x] of [
+      [0.5, 0.2],
+      [3, 2.5],
+      [3, 5],
+      [40.5, 30],
+      [40.5, 60],
+    ]) {
       expect(regularizedGammaP(a, x) + regularizedGammaQ(a, x)).toBeCloseTo(1, 14);
     }
   });

@@ -36,9 +36,19 @@ export interface LeastSquaresSolution {
 const collinearityTolerance = 1e-12;
 
 /** Solves min ‖y − Xβ‖² for X (m×k, column-major) by Householder QR. `fn` names the caller in errors. */
-export function householderLeastSquares(fn: string, design: Float64Array, m: number, k: number, y: ArrayLike<number>): LeastSquaresSolution {
+export function householderLeastSquares(
+  fn: string,
+  design: Float64Array,
+  m: number,
+  k: number,
+  y: ArrayLike<number>,
+): LeastSquaresSolution {
   if (design.length !== m * k || y.length !== m || m < k || k < 1) {
-    throw new ForecastingError('invalid-argument', fn, `least squares needs an m×k design with m ≥ k ≥ 1 and m responses (m = ${m}, k = ${k})`);
+    throw new ForecastingError(
+      'invalid-argument',
+      fn,
+      `least squares needs an m×k design with m ≥ k ≥ 1 and m responses (m = ${m}, k = ${k})`,
+    );
   }
   const a = design.slice();
   const qty = Float64Array.from(y);

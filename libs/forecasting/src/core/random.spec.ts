@@ -45,6 +45,8 @@ describe('simulateArma', () => {
   });
 
   it('refuses a non-causal AR polynomial', () => {
-    expect(() => simulateArma({ mean: 0, ar: [1.1], ma: [], sigma2: 1 }, 10, 1)).toThrow(expect.objectContaining({ code: 'non-stationary' }));
+    expect(() => simulateArma({ mean: 0, ar: [1.1], ma: [], sigma2: 1 }, 10, 1)).toThrow(
+      expect.objectContaining({ code: 'non-stationary' }),
+    );
   });
 });

@@ -24,7 +24,8 @@ import type { ArmaParameters } from './types';
 export function simulateArma(model: ArmaParameters, n: number, seed: number, burnIn = 1000): Float64Array {
   const fn = 'simulateArma';
   if (!Number.isInteger(n) || n < 1) throw new ForecastingError('invalid-argument', fn, `needs a positive integer length, got ${n}`);
-  if (!Number.isInteger(burnIn) || burnIn < 0) throw new ForecastingError('invalid-argument', fn, `needs a non-negative integer burn-in, got ${burnIn}`);
+  if (!Number.isInteger(burnIn) || burnIn < 0)
+    throw new ForecastingError('invalid-argument', fn, `needs a non-negative integer burn-in, got ${burnIn}`);
   if (!(model.sigma2 > 0)) throw new ForecastingError('invalid-argument', fn, `needs σ² > 0, got ${model.sigma2}`);
   if (!isCausalAr(model.ar)) throw new ForecastingError('non-stationary', fn, 'the AR polynomial has a root on or inside the unit circle');
   const p = model.ar.length;

@@ -10,7 +10,10 @@ describe('ljungBox', () => {
     it(`matches R Box.test on ${name} (AR(2) ML and ARMA(1,1) CSS residuals, lags 10 and 20)`, () => {
       const reference = loadReference(name).box_test;
       for (const fit of ['ar2_ml', 'arma11_css']) {
-        for (const [lags, stored] of [[10, reference[fit].lag10], [20, reference[fit].lag20]] as const) {
+        for (const [lags, stored] of [
+          [10, reference[fit].lag10],
+          [20, reference[fit].lag20],
+        ] as const) {
           const result = ljungBox(reference[fit].residuals, lags, 2);
           expect(result.df).toBe(stored.df);
           expectRelative([result.statistic], [stored.statistic], 1e-10, `${name} ${fit} lag ${lags} Q`);

@@ -38,7 +38,11 @@ export function ljungBox(residuals: ArrayLike<number>, lags: number, fitdf: numb
     throw new ForecastingError('invalid-argument', fn, `needs an integer number of lags 1 ≤ lags < n = ${n}, got ${lags}`);
   }
   if (!Number.isInteger(fitdf) || fitdf < 0 || fitdf >= lags) {
-    throw new ForecastingError('invalid-argument', fn, `needs 0 ≤ fitdf < lags = ${lags} so that the χ² has degrees of freedom, got fitdf = ${fitdf}`);
+    throw new ForecastingError(
+      'invalid-argument',
+      fn,
+      `needs 0 ≤ fitdf < lags = ${lags} so that the χ² has degrees of freedom, got fitdf = ${fitdf}`,
+    );
   }
   const rho = autocorrelation(residuals, lags);
   let sum = 0;

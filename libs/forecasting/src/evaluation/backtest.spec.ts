@@ -78,19 +78,34 @@ describe('rollingOriginBacktest', () => {
     // Hourly: level 100 + 0.5·day, daily shape peaking at 14:00. Seasonal naive at 24 repeats yesterday,
     // so each forecast day peaks at the right hour but 0.5 too low.
     const x = Array.from({ length: 24 * 10 }, (_, t) => 100 + 0.5 * Math.floor(t / 24) + 10 * Math.exp(-(((t % 24) - 14) ** 2) / 8));
-    const result = rollingOriginBacktest(x, { origins: 3, horizon: 24, season: 24, forecaster: seasonalNaiveForecaster(24), day: { periodsPerDay: 24 } });
+    const result = rollingOriginBacktest(x, {
+      origins: 3,
+      horizon: 24,
+      season: 24,
+      forecaster: seasonalNaiveForecaster(24),
+      day: { periodsPerDay: 24 },
+    });
     expect(result.peak!.days).toBe(3);
     expect(result.peak!.meanError).toBeCloseTo(-0.5, 12);
     expect(result.peak!.meanAbsoluteHours).toBe(0);
     // Windows that start mid-day hold no whole day: no peak metrics.
-    const shifted = rollingOriginBacktest(x, { origins: 3, horizon: 24, season: 24, forecaster: seasonalNaiveForecaster(24), day: { firstDayStart: 5 } });
+    const shifted = rollingOriginBacktest(x, {
+      origins: 3,
+      horizon: 24,
+      season: 24,
+      forecaster: seasonalNaiveForecaster(24),
+      day: { firstDayStart: 5 },
+    });
     expect(shifted.peak).toBeNull();
   });
 
   it('compares against like-day when asked', () => {
     // Hourly series with a weekly pattern: like-day with k = 1 equals seasonal naive at 168, so a seasonal-naive-168
     // forecaster has skill exactly 0 against it, and skill 1 − MAE/MAE_likeDay against the 4-week like-day average.
-    const x = Array.from({ length: 24 * 7 * 6 }, (_, t) => 50 + 10 * Math.sin((2 * Math.PI * t) / 24) + 5 * ((Math.floor(t / 24) % 7) === 6 ? -1 : 0) + (t % 5));
+    const x = Array.from(
+      { length: 24 * 7 * 6 },
+      (_, t) => 50 + 10 * Math.sin((2 * Math.PI * t) / 24) + 5 * (Math.floor(t / 24) % 7 === 6 ? -1 : 0) + (t % 5),
+    );
     const forecaster = seasonalNaiveForecaster(168);
     const one = rollingOriginBacktest(x, { origins: 2, horizon: 24, season: 24, forecaster, benchmark: { kind: 'like-day', count: 1 } });
     expect(one.overall.skill.mae).toBe(0);
@@ -113,6 +128,8 @@ describe('rollingOriginBacktest', () => {
     let call = 0;
     const flaky: Forecaster = (train, h) => (call++ === 0 ? lastValue(train, h) : { mean: new Float64Array(h).fill(1) });
     expect(() => rollingOriginBacktest(x, { origins: 2, horizon: 1, season: 1, forecaster: flaky })).toThrowError(/levels/);
-    expect(() => rollingOriginBacktest(x, { origins: 2, horizon: 1, season: 3, minTrain: 3, forecaster: lastValue })).toThrowError(/must exceed the season/);
+    expect(() => rollingOriginBacktest(x, { origins: 2, horizon: 1, season: 3, minTrain: 3, forecaster: lastValue })).toThrowError(
+      /must exceed the season/,
+    );
   });
 });

@@ -128,10 +128,18 @@ export function rollingOriginBacktest(x: ArrayLike<number>, options: BacktestOpt
   const { origins: count, horizon, season } = options;
   const step = options.step ?? horizon;
   const minTrain = options.minTrain ?? 2 * season;
-  for (const [name, value] of [['origins', count], ['horizon', horizon], ['step', step], ['season', season], ['minTrain', minTrain]] as const) {
-    if (!Number.isInteger(value) || value < 1) throw new ForecastingError('invalid-argument', fn, `${name} must be a positive integer, got ${value}`);
+  for (const [name, value] of [
+    ['origins', count],
+    ['horizon', horizon],
+    ['step', step],
+    ['season', season],
+    ['minTrain', minTrain],
+  ] as const) {
+    if (!Number.isInteger(value) || value < 1)
+      throw new ForecastingError('invalid-argument', fn, `${name} must be a positive integer, got ${value}`);
   }
-  if (minTrain <= season) throw new ForecastingError('invalid-argument', fn, `minTrain (${minTrain}) must exceed the season (${season}) for MASE scaling`);
+  if (minTrain <= season)
+    throw new ForecastingError('invalid-argument', fn, `minTrain (${minTrain}) must exceed the season (${season}) for MASE scaling`);
   assertFinite(fn, x);
   const n = x.length;
   const origins = Array.from({ length: count }, (_, i) => n - horizon - (count - 1 - i) * step);
@@ -161,7 +169,11 @@ export function rollingOriginBacktest(x: ArrayLike<number>, options: BacktestOpt
     const theseLevels = [...intervals.keys()].sort((a, b) => a - b);
     if (levels === null) levels = theseLevels;
     else if (levels.join() !== theseLevels.join()) {
-      throw new ForecastingError('invalid-argument', fn, `the forecaster returned levels [${theseLevels}] at origin ${origin} but [${levels}] before`);
+      throw new ForecastingError(
+        'invalid-argument',
+        fn,
+        `the forecaster returned levels [${theseLevels}] at origin ${origin} but [${levels}] before`,
+      );
     }
     const benchmark = benchmarkForecast(train, horizon, season, options.benchmark);
     const scale = maseScale(train, season);
@@ -191,13 +203,19 @@ export function rollingOriginBacktest(x: ArrayLike<number>, options: BacktestOpt
 }
 
 /** The benchmark forecast from one origin. */
-function benchmarkForecast(train: Float64Array, horizon: number, season: number, benchmark: BacktestBenchmark = { kind: 'seasonal-naive' }): Float64Array {
+function benchmarkForecast(
+  train: Float64Array,
+  horizon: number,
+  season: number,
+  benchmark: BacktestBenchmark = { kind: 'seasonal-naive' },
+): Float64Array {
   return benchmark.kind === 'like-day' ? likeDay(train, horizon, benchmark) : seasonalNaive(train, horizon, season).mean;
 }
 
 /** The first `horizon` values of a forecaster's array, checked for length and finiteness. */
 function takeFinite(fn: string, values: ArrayLike<number>, horizon: number, what: string): Float64Array {
-  if (values.length < horizon) throw new ForecastingError('invalid-argument', fn, `the forecaster returned ${values.length} values for the ${what}, needs ${horizon}`);
+  if (values.length < horizon)
+    throw new ForecastingError('invalid-argument', fn, `the forecaster returned ${values.length} values for the ${what}, needs ${horizon}`);
   const out = Float64Array.from({ length: horizon }, (_, i) => values[i]);
   assertFinite(fn, out, what);
   return out;
@@ -209,7 +227,9 @@ function summarise(records: StepRecord[], levels: number[]): BacktestMetrics {
   const forecast = records.map((r) => r.forecast);
   const benchmark = records.map((r) => r.benchmark);
   const scaledMae = (values: number[]) =>
-    records.some((r) => r.scale === 0) ? null : records.reduce((s, r, i) => s + Math.abs(r.actual - values[i]) / r.scale, 0) / records.length;
+    records.some((r) => r.scale === 0)
+      ? null
+      : records.reduce((s, r, i) => s + Math.abs(r.actual - values[i]) / r.scale, 0) / records.length;
   const model = { mae: mae(actual, forecast), rmse: rmse(actual, forecast), mase: scaledMae(forecast) };
   const bench = { mae: mae(actual, benchmark), rmse: rmse(actual, benchmark), mase: scaledMae(benchmark) };
   return {

@@ -34,7 +34,8 @@ export interface LikeDayOptions {
 
 /** Throws unless `value` is a positive integer. */
 function checkPositiveInteger(fn: string, name: string, value: number): void {
-  if (!Number.isInteger(value) || value < 1) throw new ForecastingError('invalid-argument', fn, `${name} must be a positive integer, got ${value}`);
+  if (!Number.isInteger(value) || value < 1)
+    throw new ForecastingError('invalid-argument', fn, `${name} must be a positive integer, got ${value}`);
 }
 
 /** Seasonal-naive forecast at period m with forecast::snaive's standard errors. */

@@ -19,7 +19,8 @@ import { checkAligned } from './paired-input';
 /** Throws when some lower bound exceeds its upper bound. */
 function checkOrdered(fn: string, lower: ArrayLike<number>, upper: ArrayLike<number>): void {
   for (let i = 0; i < lower.length; i++) {
-    if (lower[i] > upper[i]) throw new ForecastingError('invalid-argument', fn, `lower[${i}] = ${lower[i]} exceeds upper[${i}] = ${upper[i]}`);
+    if (lower[i] > upper[i])
+      throw new ForecastingError('invalid-argument', fn, `lower[${i}] = ${lower[i]} exceeds upper[${i}] = ${upper[i]}`);
   }
 }
 

@@ -61,7 +61,8 @@ export function smape(actual: ArrayLike<number>, forecast: ArrayLike<number>): n
 /** In-sample seasonal-naive MAE of the training part, mean|y_t − y_{t−m}|: the MASE scale. */
 export function maseScale(training: ArrayLike<number>, period: number): number {
   const fn = 'maseScale';
-  if (!Number.isInteger(period) || period < 1) throw new ForecastingError('invalid-argument', fn, `period must be a positive integer, got ${period}`);
+  if (!Number.isInteger(period) || period < 1)
+    throw new ForecastingError('invalid-argument', fn, `period must be a positive integer, got ${period}`);
   assertLength(fn, training, period + 1, `period ${period} plus one`);
   assertFinite(fn, training, 'training');
   let s = 0;

@@ -12,7 +12,11 @@ export function checkAligned(fn: string, arrays: Record<string, ArrayLike<number
   if (n === 0) throw new ForecastingError('too-few-observations', fn, `needs at least 1 point, got an empty ${entries[0][0]}`);
   for (const [name, values] of entries) {
     if (values.length !== n) {
-      throw new ForecastingError('invalid-argument', fn, `${name} has ${values.length} values but ${entries[0][0]} has ${n}; pass aligned arrays`);
+      throw new ForecastingError(
+        'invalid-argument',
+        fn,
+        `${name} has ${values.length} values but ${entries[0][0]} has ${n}; pass aligned arrays`,
+      );
     }
     assertFinite(fn, values, name);
   }

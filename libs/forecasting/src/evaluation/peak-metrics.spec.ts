@@ -48,6 +48,8 @@ describe('daily peaks', () => {
     expect(() => dailyPeaks(new Array(30).fill(1), new Array(30).fill(1), { firstDayStart: 10 })).toThrowError(
       expect.objectContaining({ code: 'too-few-observations' }),
     );
-    expect(() => dailyPeaks([1], [1], { periodsPerDay: 24, firstDayStart: 24 })).toThrowError(expect.objectContaining({ code: 'invalid-argument' }));
+    expect(() => dailyPeaks([1], [1], { periodsPerDay: 24, firstDayStart: 24 })).toThrowError(
+      expect.objectContaining({ code: 'invalid-argument' }),
+    );
   });
 });

@@ -64,7 +64,8 @@ export function dailyPeaks(actual: ArrayLike<number>, forecast: ArrayLike<number
   const n = checkAligned(fn, { actual, forecast });
   const perDay = layout.periodsPerDay ?? 24;
   const first = layout.firstDayStart ?? 0;
-  if (!Number.isInteger(perDay) || perDay < 1) throw new ForecastingError('invalid-argument', fn, `periodsPerDay must be a positive integer, got ${perDay}`);
+  if (!Number.isInteger(perDay) || perDay < 1)
+    throw new ForecastingError('invalid-argument', fn, `periodsPerDay must be a positive integer, got ${perDay}`);
   if (!Number.isInteger(first) || first < 0 || first >= perDay) {
     throw new ForecastingError('invalid-argument', fn, `firstDayStart must be an integer in [0, ${perDay}), got ${first}`);
   }

@@ -10,7 +10,10 @@ import { ForecastingError } from '../core/errors';
 
 /** 1 − score/benchmarkScore, or null when the benchmark scored 0. */
 export function skillScore(score: number, benchmarkScore: number): number | null {
-  for (const [name, value] of [['score', score], ['benchmarkScore', benchmarkScore]] as const) {
+  for (const [name, value] of [
+    ['score', score],
+    ['benchmarkScore', benchmarkScore],
+  ] as const) {
     if (!Number.isFinite(value) || value < 0) {
       throw new ForecastingError('invalid-argument', 'skillScore', `${name} must be a finite loss ≥ 0, got ${value}`);
     }

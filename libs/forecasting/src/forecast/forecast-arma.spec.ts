@@ -80,7 +80,9 @@ describe('forecastArma closed forms', () => {
     expect(() => forecastArma(model, [1, 2], 0)).toThrow(expect.objectContaining({ code: 'invalid-argument' }));
     expect(() => forecastArma({ ...model, sigma2: 0 }, [1, 2], 2)).toThrow(expect.objectContaining({ code: 'invalid-argument' }));
     expect(() => forecastArma(model, [1, 2], 2, [0])).toThrow(expect.objectContaining({ code: 'invalid-argument' }));
-    expect(() => forecastArma({ ...model, ar: [0.5, 0.2, 0.1] }, [1, 2], 2)).toThrow(expect.objectContaining({ code: 'too-few-observations' }));
+    expect(() => forecastArma({ ...model, ar: [0.5, 0.2, 0.1] }, [1, 2], 2)).toThrow(
+      expect.objectContaining({ code: 'too-few-observations' }),
+    );
     // An explosive AR(1) (φ = 10) overflows within 400 steps: refused rather than returning Infinity.
     expect(() => forecastArma({ ...model, ar: [10] }, [1, 2], 400)).toThrow(expect.objectContaining({ code: 'non-finite-input' }));
   });

@@ -44,8 +44,10 @@ export function forecastArma(
 ): PointForecast {
   const fn = 'forecastArma';
   const { mean: mu, ar, ma, sigma2 } = model;
-  if (!Number.isInteger(horizon) || horizon < 1) throw new ForecastingError('invalid-argument', fn, `needs a positive integer horizon, got ${horizon}`);
-  if (!(sigma2 > 0) || !Number.isFinite(sigma2)) throw new ForecastingError('invalid-argument', fn, `needs a positive finite σ², got ${sigma2}`);
+  if (!Number.isInteger(horizon) || horizon < 1)
+    throw new ForecastingError('invalid-argument', fn, `needs a positive integer horizon, got ${horizon}`);
+  if (!(sigma2 > 0) || !Number.isFinite(sigma2))
+    throw new ForecastingError('invalid-argument', fn, `needs a positive finite σ², got ${sigma2}`);
   if (!Number.isFinite(mu)) throw new ForecastingError('non-finite-input', fn, `mean is ${mu}`);
   assertFinite(fn, history, 'history');
   assertLength(fn, history, Math.max(ar.length, 1), `the last p = ${ar.length} values start the recursion`);

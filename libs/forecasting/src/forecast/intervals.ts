@@ -36,7 +36,11 @@ export function predictionIntervals(f: PointForecast, levels: number[]): Predict
   }
   return levels.map((level) => {
     if (!(level > 0 && level < 100)) {
-      throw new ForecastingError('invalid-argument', 'predictionIntervals', `levels are percentages strictly between 0 and 100, got ${level}`);
+      throw new ForecastingError(
+        'invalid-argument',
+        'predictionIntervals',
+        `levels are percentages strictly between 0 and 100, got ${level}`,
+      );
     }
     const z = normalQuantile(0.5 + level / 200);
     const lower = new Float64Array(f.mean.length);

@@ -19,7 +19,8 @@ import { assertFinite, ForecastingError } from '../core/errors';
 
 /** ψ_0..ψ_{count−1} of the ARMA model with coefficients φ and θ. */
 export function psiWeights(ar: ArrayLike<number>, ma: ArrayLike<number>, count: number): Float64Array {
-  if (!Number.isInteger(count) || count < 1) throw new ForecastingError('invalid-argument', 'psiWeights', `needs a positive integer count, got ${count}`);
+  if (!Number.isInteger(count) || count < 1)
+    throw new ForecastingError('invalid-argument', 'psiWeights', `needs a positive integer count, got ${count}`);
   assertFinite('psiWeights', ar, 'ar coefficients');
   assertFinite('psiWeights', ma, 'ma coefficients');
   const psi = new Float64Array(count);

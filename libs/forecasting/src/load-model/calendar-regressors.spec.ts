@@ -68,7 +68,9 @@ describe('day-type and holiday regressors in the load model', () => {
     expect(onlyHolidays.names).toEqual(['holiday']);
     // 2 January 2023 was the observed New Year holiday (1 January fell on a Sunday).
     expect(onlyHolidays.columns[0][12]).toBe(1);
-    expect(() => regressorColumns({ ...spec, seasonal: { kind: 'profile', period: 168, form: 'additive' } }, cal, undefined)).toThrow(ForecastingError);
+    expect(() => regressorColumns({ ...spec, seasonal: { kind: 'profile', period: 168, form: 'additive' } }, cal, undefined)).toThrow(
+      ForecastingError,
+    );
   });
 
   it('fits a multiplicative profile and scales forecasts and standard errors by it', () => {

@@ -27,7 +27,11 @@ export function degreeHours(temperature: ArrayLike<number>, balance: BalancePoin
   const fn = 'degreeHours';
   assertFinite(fn, temperature, 'temperature');
   if (!Number.isFinite(balance.heatingBase) || !Number.isFinite(balance.coolingBase) || balance.heatingBase > balance.coolingBase) {
-    throw new ForecastingError('invalid-argument', fn, `needs finite balance points with heatingBase ≤ coolingBase, got ${balance.heatingBase} and ${balance.coolingBase}`);
+    throw new ForecastingError(
+      'invalid-argument',
+      fn,
+      `needs finite balance points with heatingBase ≤ coolingBase, got ${balance.heatingBase} and ${balance.coolingBase}`,
+    );
   }
   const heating = new Float64Array(temperature.length);
   const cooling = new Float64Array(temperature.length);

@@ -23,7 +23,9 @@ describe('exactArimaForecast against R predict (USAccDeaths SARIMA(1,0,1)(0,1,1)
     // κ = 1e6 on the differencing states against our exact conditioning on the first 12 values.
     expectRelative(f.mean, reference.full_forecast.mean, 1e-6, 'mean');
     expectRelative(f.se, reference.full_forecast.se, 1e-6, 'se');
-    console.info(`USAccDeaths exact: max rel mean ${maxRelativeError(f.mean, reference.full_forecast.mean).toExponential(2)}, se ${maxRelativeError(f.se, reference.full_forecast.se).toExponential(2)}`);
+    console.info(
+      `USAccDeaths exact: max rel mean ${maxRelativeError(f.mean, reference.full_forecast.mean).toExponential(2)}, se ${maxRelativeError(f.se, reference.full_forecast.se).toExponential(2)}`,
+    );
   });
 
   it('shows why: the conditional recursion the hourly pipeline uses is off by up to 2 % on this short series', () => {

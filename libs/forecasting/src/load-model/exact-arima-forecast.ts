@@ -116,7 +116,9 @@ function stationaryCovariance(phi: Float64Array, loading: Float64Array): Float64
 function propagate(P: Float64Array[], phi: Float64Array, loading: Float64Array): Float64Array[] {
   const r = phi.length;
   const M = Array.from({ length: r }, (_, i) => Float64Array.from(P[0], (p0, j) => phi[i] * p0 + (i + 1 < r ? P[i + 1][j] : 0)));
-  return Array.from({ length: r }, (_, i) => Float64Array.from({ length: r }, (_, j) => M[i][0] * phi[j] + (j + 1 < r ? M[i][j + 1] : 0) + loading[i] * loading[j]));
+  return Array.from({ length: r }, (_, i) =>
+    Float64Array.from({ length: r }, (_, j) => M[i][0] * phi[j] + (j + 1 < r ? M[i][j + 1] : 0) + loading[i] * loading[j]),
+  );
 }
 
 /** Row vector times T: (ℓT)_0 = Σ ℓ_i φ_i, (ℓT)_j = ℓ_{j−1} (T_i0 = φ_i, T_{i,i+1} = 1). */

@@ -16,7 +16,10 @@ import type { LoadModelSpec } from './load-model-spec';
  *   'no-convergence' when the NLS fit did not converge (so the caller can fall back to an AR method);
  *   whatever the estimator throws.
  */
-export function fitArmaPart(spec: Pick<LoadModelSpec, 'method' | 'p' | 'q' | 'lags' | 'lambda' | 'select'>, remainder: Float64Array): FitResult {
+export function fitArmaPart(
+  spec: Pick<LoadModelSpec, 'method' | 'p' | 'q' | 'lags' | 'lambda' | 'select'>,
+  remainder: Float64Array,
+): FitResult {
   const fn = 'fitArmaPart';
   const method = spec.method as FitMethod;
   if (spec.q > 0 && method !== 'nls') {
@@ -30,7 +33,11 @@ export function fitArmaPart(spec: Pick<LoadModelSpec, 'method' | 'p' | 'q' | 'la
     case 'nls': {
       const fit = nlsArma(remainder, spec.p, spec.q);
       if (fit.converged === false) {
-        throw new ForecastingError('no-convergence', fn, `NLS ARMA(${spec.p},${spec.q}) did not converge in ${fit.iterations} iterations: fall back to 'cmle'`);
+        throw new ForecastingError(
+          'no-convergence',
+          fn,
+          `NLS ARMA(${spec.p},${spec.q}) did not converge in ${fit.iterations} iterations: fall back to 'cmle'`,
+        );
       }
       return fit;
     }

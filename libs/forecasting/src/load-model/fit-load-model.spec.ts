@@ -4,7 +4,15 @@ import { localCalendar } from '../seasonal/local-calendar';
 import { fitLoadModel } from './fit-load-model';
 import { forecastLoadModel } from './forecast-load-model';
 import type { LoadModelSpec } from './load-model-spec';
-import { TRUTH, hourlyTimestamps, seededNormal, syntheticLoad, syntheticTemperature, trueProfile, weatherResponse } from './synthetic-load.testing';
+import {
+  TRUTH,
+  hourlyTimestamps,
+  seededNormal,
+  syntheticLoad,
+  syntheticTemperature,
+  trueProfile,
+  weatherResponse,
+} from './synthetic-load.testing';
 
 // Synthetic truth (synthetic-load.testing.ts): load = 500 + hour-of-week profile + 1.2·HDH(15.5 °C)
 // + 2.5·CDH(22 °C) + AR(2) noise (φ = 0.5, 0.3; σ = 2), hourly in America/Chicago from Monday

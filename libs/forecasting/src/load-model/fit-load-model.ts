@@ -4,7 +4,13 @@ import type { RegularisedFit } from '../regularised/regularised-fit';
 import { localCalendar } from '../seasonal/local-calendar';
 import { logTransform } from '../seasonal/log-transform';
 import { seasonalDifference } from '../seasonal/seasonal-difference';
-import { estimateSeasonalProfile, profileSlots, removeSeasonalProfile, type ProfileSlot, type SeasonalProfile } from '../seasonal/seasonal-profile';
+import {
+  estimateSeasonalProfile,
+  profileSlots,
+  removeSeasonalProfile,
+  type ProfileSlot,
+  type SeasonalProfile,
+} from '../seasonal/seasonal-profile';
 import { fitArmaPart } from './fit-arma-part';
 import type { FittedLoadModel, LoadModelSpec, LoadSeriesData } from './load-model-spec';
 import { fitRegressionArmaErrors, type SlotEffects } from './regression-arma-errors';
@@ -110,7 +116,11 @@ function armaFitter(spec: LoadModelSpec): (u: Float64Array) => FitResult {
 /** The seasonal-naive branch: no regressors or profile, period from the differencing lag or 168. */
 function fitSeasonalNaiveModel(spec: LoadModelSpec, transformed: Float64Array, lastTimestamp: number): FittedLoadModel {
   if (spec.temperature || spec.dayTypes || spec.holidays || spec.seasonal.kind === 'profile') {
-    throw new ForecastingError('invalid-argument', FN, "seasonal naive uses no regressors or profile: set temperature and holidays to null, dayTypes to false and seasonal to none or difference{lag}");
+    throw new ForecastingError(
+      'invalid-argument',
+      FN,
+      'seasonal naive uses no regressors or profile: set temperature and holidays to null, dayTypes to false and seasonal to none or difference{lag}',
+    );
   }
   const period = spec.seasonal.kind === 'difference' ? spec.seasonal.lag : 168;
   const naive = fitSeasonalNaive(transformed, period);
@@ -141,7 +151,11 @@ function checkData(data: LoadSeriesData): void {
   assertFinite(FN, data.timestamps, 'timestamps');
   for (let t = 1; t < n; t++) {
     if (data.timestamps[t] - data.timestamps[t - 1] !== HOUR_MS) {
-      throw new ForecastingError('invalid-argument', FN, `timestamps must be hourly without gaps (fill or impute first): step at index ${t} is ${(data.timestamps[t] - data.timestamps[t - 1]) / HOUR_MS} h`);
+      throw new ForecastingError(
+        'invalid-argument',
+        FN,
+        `timestamps must be hourly without gaps (fill or impute first): step at index ${t} is ${(data.timestamps[t] - data.timestamps[t - 1]) / HOUR_MS} h`,
+      );
     }
   }
 }

@@ -53,7 +53,11 @@ export function forecastLoadModel(model: FittedLoadModel, future: FutureInputs, 
 }
 
 /** Mean and se on the modelling scale (after log, before back-transform). */
-function forecastModelScale(model: FittedLoadModel, future: FutureInputs, timestamps: Float64Array): { mean: Float64Array; se: Float64Array } {
+function forecastModelScale(
+  model: FittedLoadModel,
+  future: FutureInputs,
+  timestamps: Float64Array,
+): { mean: Float64Array; se: Float64Array } {
   const { spec, arma } = model;
   if (!arma) throw new ForecastingError('invalid-argument', FN, 'the model has neither an ARMA part nor a seasonal-naive part');
   const horizon = timestamps.length;

@@ -27,7 +27,11 @@ export function leastSquares(fn: string, columns: readonly Float64Array[], y: Ar
     return { beta: solution.coefficients, unscaledCovariance };
   } catch (error) {
     if (error instanceof ForecastingError && error.code === 'singular-matrix') {
-      throw new ForecastingError('singular-matrix', fn, 'the regressors are linearly dependent (e.g. a holiday column with no holiday in the training window, or day types that a profile already carries)');
+      throw new ForecastingError(
+        'singular-matrix',
+        fn,
+        'the regressors are linearly dependent (e.g. a holiday column with no holiday in the training window, or day types that a profile already carries)',
+      );
     }
     throw error;
   }

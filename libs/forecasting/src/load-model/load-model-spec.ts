@@ -10,9 +10,7 @@ export type LoadModelMethod = FitMethod | 'seasonal-naive';
 
 /** How the daily/weekly cycle is handled before the ARMA part. */
 export type SeasonalSpec =
-  | { kind: 'none' }
-  | { kind: 'profile'; period: 24 | 168; form: ProfileForm }
-  | { kind: 'difference'; lag: 24 | 168 };
+  { kind: 'none' } | { kind: 'profile'; period: 24 | 168; form: ProfileForm } | { kind: 'difference'; lag: 24 | 168 };
 
 /** Everything the nightly refit needs to know to fit one series. */
 export interface LoadModelSpec {

@@ -92,7 +92,12 @@ export function fitRegressionArmaErrors(
 }
 
 /** y − Zβ, split into slot effects (if any) and the remainder u. */
-function splitRemainder(y: Float64Array, columns: readonly Float64Array[], beta: ArrayLike<number>, slotEffects: SlotEffects | null): { profile: SeasonalProfile | null; remainder: Float64Array } {
+function splitRemainder(
+  y: Float64Array,
+  columns: readonly Float64Array[],
+  beta: ArrayLike<number>,
+  slotEffects: SlotEffects | null,
+): { profile: SeasonalProfile | null; remainder: Float64Array } {
   const r = Float64Array.from(y);
   for (let j = 0; j < columns.length; j++) for (let t = 0; t < r.length; t++) r[t] -= beta[j] * columns[j][t];
   if (!slotEffects) return { profile: null, remainder: r };
@@ -118,7 +123,14 @@ function initialOls(y: Float64Array, columns: readonly Float64Array[], slotEffec
  * One GLS step at the slot effects implied by `beta`: prewhiten y − s(y − Zβ) and the columns with the
  * ARMA filter and regress.
  */
-function glsSolve(y: Float64Array, columns: readonly Float64Array[], beta: ArrayLike<number>, slotEffects: SlotEffects | null, errors: FitResult, whiteColumns?: Float64Array[]): { beta: Float64Array; stderr: Float64Array } {
+function glsSolve(
+  y: Float64Array,
+  columns: readonly Float64Array[],
+  beta: ArrayLike<number>,
+  slotEffects: SlotEffects | null,
+  errors: FitResult,
+  whiteColumns?: Float64Array[],
+): { beta: Float64Array; stderr: Float64Array } {
   const { profile } = splitRemainder(y, columns, beta, slotEffects);
   const target = profile && slotEffects ? y.map((v, t) => v - profile.effect[slotEffects.slots[t]]) : y;
   const whiteTarget = armaResiduals(target, 0, errors.ar, errors.ma);
@@ -142,7 +154,12 @@ function prewhitenColumns(columns: readonly Float64Array[], errors: FitResult): 
 }
 
 /** The fixed point of the affine map β ↦ GLS(y − s(y − Zβ)) for fixed ARMA parameters (see the file comment). */
-function glsFixedPoint(y: Float64Array, columns: readonly Float64Array[], slotEffects: SlotEffects | null, errors: FitResult): Float64Array {
+function glsFixedPoint(
+  y: Float64Array,
+  columns: readonly Float64Array[],
+  slotEffects: SlotEffects | null,
+  errors: FitResult,
+): Float64Array {
   const k = columns.length;
   const white = prewhitenColumns(columns, errors);
   const c = glsSolve(y, columns, new Float64Array(k), slotEffects, errors, white).beta;
@@ -167,7 +184,11 @@ function solveSmall(matrix: Float64Array[], rhs: Float64Array): Float64Array {
     let pivot = col;
     for (let row = col + 1; row < k; row++) if (Math.abs(a[row][col]) > Math.abs(a[pivot][col])) pivot = row;
     if (!(Math.abs(a[pivot][col]) > 1e-12)) {
-      throw new ForecastingError('singular-matrix', FN, 'the regressors cannot be separated from the slot effects (a regressor constant within every slot?)');
+      throw new ForecastingError(
+        'singular-matrix',
+        FN,
+        'the regressors cannot be separated from the slot effects (a regressor constant within every slot?)',
+      );
     }
     [a[col], a[pivot]] = [a[pivot], a[col]];
     [b[col], b[pivot]] = [b[pivot], b[col]];

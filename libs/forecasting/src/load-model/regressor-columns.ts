@@ -21,21 +21,33 @@ export interface RegressorColumns {
  *   day types meet an hour-of-week profile (the profile already carries the weekday pattern, so the two
  *   would be collinear).
  */
-export function regressorColumns(spec: LoadModelSpec, calendar: LocalCalendar, temperature: ArrayLike<number> | undefined): RegressorColumns {
+export function regressorColumns(
+  spec: LoadModelSpec,
+  calendar: LocalCalendar,
+  temperature: ArrayLike<number> | undefined,
+): RegressorColumns {
   const fn = 'regressorColumns';
   const n = calendar.localDate.length;
   const names: string[] = [];
   const columns: Float64Array[] = [];
   if (spec.temperature) {
     if (!temperature || temperature.length < n) {
-      throw new ForecastingError('invalid-argument', fn, `temperature regressors need ${n} hourly temperatures, got ${temperature?.length ?? 0}`);
+      throw new ForecastingError(
+        'invalid-argument',
+        fn,
+        `temperature regressors need ${n} hourly temperatures, got ${temperature?.length ?? 0}`,
+      );
     }
     const { heating, cooling } = degreeHours(Array.prototype.slice.call(temperature, 0, n) as number[], spec.temperature);
     names.push('heating-degree-hours', 'cooling-degree-hours');
     columns.push(heating, cooling);
   }
   if (spec.dayTypes && spec.seasonal.kind === 'profile' && spec.seasonal.period === 168) {
-    throw new ForecastingError('invalid-argument', fn, 'day types duplicate the hour-of-week profile: use a 24-hour profile with day types, or holidays alone');
+    throw new ForecastingError(
+      'invalid-argument',
+      fn,
+      'day types duplicate the hour-of-week profile: use a 24-hour profile with day types, or holidays alone',
+    );
   }
   const holidays = spec.holidays ? holidayDates(spec.holidays, yearsOf(calendar.localDate)) : null;
   if (spec.dayTypes) {

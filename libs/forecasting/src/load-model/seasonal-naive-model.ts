@@ -45,7 +45,11 @@ export function fitSeasonalNaive(x: ArrayLike<number>, period: number): Seasonal
 }
 
 /** Seasonal-naive forecasts and standard errors h = 1..horizon steps after the end of x. */
-export function forecastSeasonalNaive(x: ArrayLike<number>, fit: SeasonalNaiveFit, horizon: number): { mean: Float64Array; se: Float64Array } {
+export function forecastSeasonalNaive(
+  x: ArrayLike<number>,
+  fit: SeasonalNaiveFit,
+  horizon: number,
+): { mean: Float64Array; se: Float64Array } {
   const m = fit.period;
   const n = x.length;
   const mean = new Float64Array(horizon);

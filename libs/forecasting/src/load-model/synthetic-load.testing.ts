@@ -35,12 +35,22 @@ export function syntheticTemperature(timestamps: Float64Array, timeZone: string,
   return Float64Array.from(timestamps, (ms, i) => {
     weather = 0.95 * weather + 0.6 * normal();
     const dayOfYear = (ms - Date.UTC(2023, 0, 1)) / 86_400_000;
-    return 13 + 11 * Math.sin((2 * Math.PI * (dayOfYear - 110)) / 365.25) + 5 * Math.sin((2 * Math.PI * (calendar.hourOfDay[i] - 9)) / 24) + weather;
+    return (
+      13 +
+      11 * Math.sin((2 * Math.PI * (dayOfYear - 110)) / 365.25) +
+      5 * Math.sin((2 * Math.PI * (calendar.hourOfDay[i] - 9)) / 24) +
+      weather
+    );
   });
 }
 
 /** Load = level + profile(local hour of week) + degree-hour response + AR(2) noise; also returns the noise. */
-export function syntheticLoad(timestamps: Float64Array, temperature: Float64Array, timeZone: string, seed: number): { values: Float64Array; noise: Float64Array } {
+export function syntheticLoad(
+  timestamps: Float64Array,
+  temperature: Float64Array,
+  timeZone: string,
+  seed: number,
+): { values: Float64Array; noise: Float64Array } {
   const normal = seededNormal(seed);
   const calendar = localCalendar(timestamps, timeZone);
   const noise = new Float64Array(timestamps.length);

@@ -85,7 +85,11 @@ export function lassoLambdaMax(design: LaggedDesign): number {
 }
 
 /** Lasso solutions along a decreasing λ grid, each warm-started from the previous one. */
-export function lassoPath(design: LaggedDesign, lambdas: readonly number[], options: Pick<LassoArOptions, 'tolerance' | 'maxIterations'> = {}): LassoSolution[] {
+export function lassoPath(
+  design: LaggedDesign,
+  lambdas: readonly number[],
+  options: Pick<LassoArOptions, 'tolerance' | 'maxIterations'> = {},
+): LassoSolution[] {
   const k = design.columns.length;
   const m = design.rows;
   const gram = new Float64Array(k * k);

@@ -84,11 +84,17 @@ function rollingOriginMse(
 ): number[] {
   const folds = options.folds ?? 5;
   const fraction = options.validationFraction ?? 0.2;
-  if (!Number.isInteger(folds) || folds < 1) throw new ForecastingError('invalid-argument', fn, `folds must be a positive integer, got ${folds}`);
-  if (!(fraction > 0 && fraction < 1)) throw new ForecastingError('invalid-argument', fn, `validationFraction must lie in (0, 1), got ${fraction}`);
+  if (!Number.isInteger(folds) || folds < 1)
+    throw new ForecastingError('invalid-argument', fn, `folds must be a positive integer, got ${folds}`);
+  if (!(fraction > 0 && fraction < 1))
+    throw new ForecastingError('invalid-argument', fn, `validationFraction must lie in (0, 1), got ${fraction}`);
   const blockSize = Math.floor((fraction * design.rows) / folds);
   if (blockSize < 1) {
-    throw new ForecastingError('too-few-observations', fn, `validation needs at least ${folds} held-out rows; use fewer folds or a longer series`);
+    throw new ForecastingError(
+      'too-few-observations',
+      fn,
+      `validation needs at least ${folds} held-out rows; use fewer folds or a longer series`,
+    );
   }
   const n = x.length;
   const firstOrigin = n - folds * blockSize;

@@ -93,7 +93,10 @@ describe('ridgeAr', () => {
     const z = new Matrix(rows, 2);
     columns.forEach((c, j) => c.forEach((v, r) => z.set(r, j, (v - means[j]) / scales[j])));
     const yc = Matrix.columnVector(y.map((v) => v - yMean));
-    const beta = inverse(z.transpose().mmul(z).add(Matrix.eye(2).mul(lambda))).mmul(z.transpose()).mmul(yc).getColumn(0);
+    const beta = inverse(z.transpose().mmul(z).add(Matrix.eye(2).mul(lambda)))
+      .mmul(z.transpose())
+      .mmul(yc)
+      .getColumn(0);
     const fit = ridgeAr(x, { lags, lambda });
     expect(fit.ar[0]).toBeCloseTo(beta[0] / scales[0], 12);
     expect(fit.ar[1]).toBeCloseTo(beta[1] / scales[1], 12);

@@ -15,7 +15,10 @@ export function dayTypes(calendar: LocalCalendar, holidays: ReadonlySet<string> 
 }
 
 /** 0/1 regressor columns for Saturday and Sunday-or-holiday (weekday is the baseline). */
-export function dayTypeIndicators(calendar: LocalCalendar, holidays: ReadonlySet<string> | null): { saturday: Float64Array; sundayHoliday: Float64Array } {
+export function dayTypeIndicators(
+  calendar: LocalCalendar,
+  holidays: ReadonlySet<string> | null,
+): { saturday: Float64Array; sundayHoliday: Float64Array } {
   const types = dayTypes(calendar, holidays);
   return {
     saturday: Float64Array.from(types, (t) => (t === 'saturday' ? 1 : 0)),

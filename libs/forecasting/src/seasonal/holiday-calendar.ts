@@ -50,11 +50,17 @@ function publicHolidays(fn: string, country: string, region: string | undefined,
   if (region !== undefined) {
     const regions = catalogue.getStates(country) ?? {};
     if (!(region in regions)) {
-      throw new ForecastingError('invalid-argument', fn, `unknown region "${region}" for ${country}; known: ${Object.keys(regions).join(', ') || 'none'}`);
+      throw new ForecastingError(
+        'invalid-argument',
+        fn,
+        `unknown region "${region}" for ${country}; known: ${Object.keys(regions).join(', ') || 'none'}`,
+      );
     }
   }
   const calendar = region === undefined ? new Holidays(country) : new Holidays(country, region);
-  const dates = (calendar.getHolidays(year) || []).filter((holiday) => holiday.type === 'public').map((holiday) => holiday.date.slice(0, 10));
+  const dates = (calendar.getHolidays(year) || [])
+    .filter((holiday) => holiday.type === 'public')
+    .map((holiday) => holiday.date.slice(0, 10));
   publicHolidayCache.set(key, dates);
   return dates;
 }

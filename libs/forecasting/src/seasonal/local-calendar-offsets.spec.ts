@@ -3,11 +3,23 @@ import { localCalendar } from './local-calendar';
 
 /** Local fields straight from Intl for every instant: the slow reference the cached offsets must equal. */
 function intlReference(timestamps: number[], timeZone: string) {
-  const format = new Intl.DateTimeFormat('en-US', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', weekday: 'short' });
+  const format = new Intl.DateTimeFormat('en-US', {
+    timeZone,
+    hourCycle: 'h23',
+    year: 'numeric',
+    month: '2-digit',
+    day: '2-digit',
+    hour: '2-digit',
+    weekday: 'short',
+  });
   const weekdays = ['Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat', 'Sun'];
   return timestamps.map((t) => {
     const parts = Object.fromEntries(format.formatToParts(t).map((p) => [p.type, p.value]));
-    return { hour: Number(parts['hour']), weekday: weekdays.indexOf(parts['weekday']!), date: `${parts['year']}-${parts['month']}-${parts['day']}` };
+    return {
+      hour: Number(parts['hour']),
+      weekday: weekdays.indexOf(parts['weekday']!),
+      date: `${parts['year']}-${parts['month']}-${parts['day']}`,
+    };
   });
 }
 
@@ -22,7 +34,9 @@ describe('localCalendar against Intl at every hour', () => {
       const slow = intlReference(timestamps, zone);
       for (let i = 0; i < timestamps.length; i++) {
         if (fast.hourOfDay[i] !== slow[i]!.hour || fast.dayOfWeek[i] !== slow[i]!.weekday || fast.localDate[i] !== slow[i]!.date) {
-          throw new Error(`${zone} at ${new Date(timestamps[i]!).toISOString()}: got ${fast.hourOfDay[i]} ${fast.dayOfWeek[i]} ${fast.localDate[i]}, Intl says ${JSON.stringify(slow[i])}`);
+          throw new Error(
+            `${zone} at ${new Date(timestamps[i]!).toISOString()}: got ${fast.hourOfDay[i]} ${fast.dayOfWeek[i]} ${fast.localDate[i]}, Intl says ${JSON.stringify(slow[i])}`,
+          );
         }
       }
       expect(fast.hourOfDay.length).toBe(timestamps.length);

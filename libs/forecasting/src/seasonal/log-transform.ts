@@ -10,7 +10,11 @@ export function logTransform(values: ArrayLike<number>): Float64Array {
   const out = new Float64Array(values.length);
   for (let i = 0; i < values.length; i++) {
     if (!(values[i] > 0)) {
-      throw new ForecastingError('invalid-argument', 'logTransform', `log needs positive values, got ${values[i]} at index ${i}: turn the log transform off`);
+      throw new ForecastingError(
+        'invalid-argument',
+        'logTransform',
+        `log needs positive values, got ${values[i]} at index ${i}: turn the log transform off`,
+      );
     }
     out[i] = Math.log(values[i]);
   }

@@ -63,14 +63,22 @@ export function estimateSeasonalProfile(
   const effect = new Float64Array(period);
   for (let k = 0; k < period; k++) {
     if (count[k] === 0) {
-      throw new ForecastingError('invalid-argument', fn, `${slot} slot ${k} has no observation: train on at least one full cycle of ${period} slots`);
+      throw new ForecastingError(
+        'invalid-argument',
+        fn,
+        `${slot} slot ${k} has no observation: train on at least one full cycle of ${period} slots`,
+      );
     }
     const slotMean = sum[k] / count[k];
     if (form === 'additive') {
       effect[k] = slotMean - level;
     } else {
       if (!(level > 0) || !(slotMean > 0)) {
-        throw new ForecastingError('invalid-argument', fn, `a multiplicative profile needs positive slot means, slot ${k} has ${slotMean}: use the additive form`);
+        throw new ForecastingError(
+          'invalid-argument',
+          fn,
+          `a multiplicative profile needs positive slot means, slot ${k} has ${slotMean}: use the additive form`,
+        );
       }
       effect[k] = slotMean / level;
     }

@@ -90,7 +90,9 @@ describe('selectOrder errors', () => {
     expect(code(() => selectOrder(x, { method: 'cmle', maxP: 2, maxQ: 1, criterion: 'aic' }))).toBe('invalid-argument');
     expect(code(() => selectOrder(x, { method: 'nls', maxP: -1, criterion: 'aic' }))).toBe('invalid-argument');
     expect(code(() => selectOrder(x, { method: 'nls', maxP: 1, criterion: 'aic', budgetMs: 0 }))).toBe('invalid-argument');
-    expect(code(() => selectOrder([1, 2, Number.POSITIVE_INFINITY, 4], { method: 'nls', maxP: 1, criterion: 'aic' }))).toBe('non-finite-input');
+    expect(code(() => selectOrder([1, 2, Number.POSITIVE_INFINITY, 4], { method: 'nls', maxP: 1, criterion: 'aic' }))).toBe(
+      'non-finite-input',
+    );
     // Every candidate fails on a constant series: the first candidate's error is thrown.
     expect(code(() => selectOrder(new Array(40).fill(2), { method: 'cmle', maxP: 2, criterion: 'bic' }))).toBe('constant-series');
   });

@@ -145,11 +145,26 @@ export function selectOrder(x: ArrayLike<number>, options: SelectOrderOptions): 
   const table: OrderCandidate[] = [
     ...usable,
     ...unusable.map((row) => (row.error === undefined ? { ...row, error: `no ${criterion} (too few residuals for it)` } : row)),
-    ...skipped.map(({ p, q }) => ({ p, q, aic: null, aicc: null, bic: null, loglik: null, sigma2: null, nUsed: null, error: budgetNote, skipped: true })),
+    ...skipped.map(({ p, q }) => ({
+      p,
+      q,
+      aic: null,
+      aicc: null,
+      bic: null,
+      loglik: null,
+      sigma2: null,
+      nUsed: null,
+      error: budgetNote,
+      skipped: true,
+    })),
   ];
   if (usable.length === 0) {
     if (firstError instanceof ForecastingError) throw firstError;
-    throw new ForecastingError('no-convergence', FN, `no candidate could be fitted: ${table.map((row) => `(${row.p},${row.q}) ${row.error}`).join('; ')}`);
+    throw new ForecastingError(
+      'no-convergence',
+      FN,
+      `no candidate could be fitted: ${table.map((row) => `(${row.p},${row.q}) ${row.error}`).join('; ')}`,
+    );
   }
 
   const winner = usable[0];
@@ -190,11 +205,13 @@ function validate(method: FitMethod, maxP: number, maxQ: number, criterion: stri
   const fail = (detail: string) => {
     throw new ForecastingError('invalid-argument', FN, detail);
   };
-  if (method === 'ridge' || method === 'lasso') fail(`method '${method}' chooses its lags by its penalty; order selection runs for 'yule-walker', 'cmle' or 'nls'`);
+  if (method === 'ridge' || method === 'lasso')
+    fail(`method '${method}' chooses its lags by its penalty; order selection runs for 'yule-walker', 'cmle' or 'nls'`);
   if (method !== 'yule-walker' && method !== 'cmle' && method !== 'nls') fail(`unknown method '${method}'`);
   if (!Number.isInteger(maxP) || maxP < 0) fail(`maxP must be a non-negative integer, got ${maxP}`);
   if (!Number.isInteger(maxQ) || maxQ < 0) fail(`maxQ must be a non-negative integer, got ${maxQ}`);
   if (maxQ > 0 && method !== 'nls') fail(`method '${method}' fits AR models only; use maxQ = 0 or method 'nls'`);
-  if (criterion !== 'aic' && criterion !== 'aicc' && criterion !== 'bic') fail(`criterion must be 'aic', 'aicc' or 'bic', got '${criterion}'`);
+  if (criterion !== 'aic' && criterion !== 'aicc' && criterion !== 'bic')
+    fail(`criterion must be 'aic', 'aicc' or 'bic', got '${criterion}'`);
   if (!(budgetMs > 0)) fail(`budgetMs must be positive, got ${budgetMs}`);
 }

@@ -7,9 +7,7 @@
  */
 
 /** A parsed timestamp: an instant when it carried an offset, otherwise local wall-clock fields. */
-export type ParsedTimestamp =
-  | { kind: 'instant'; ms: number; year: number }
-  | { kind: 'wall'; wallMs: number; year: number };
+export type ParsedTimestamp = { kind: 'instant'; ms: number; year: number } | { kind: 'wall'; wallMs: number; year: number };
 
 const iso = /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{2}):(\d{2})(?::(\d{2})(?:\.(\d{1,9}))?)?)?\s*(Z|[+-]\d{2}:?\d{2})?$/i;
 const us = /^(\d{1,2})\/(\d{1,2})\/(\d{4})(?:\s+(\d{1,2}):(\d{2})(?::(\d{2}))?)?$/;
@@ -17,7 +15,13 @@ const us = /^(\d{1,2})\/(\d{1,2})\/(\d{4})(?:\s+(\d{1,2}):(\d{2})(?::(\d{2}))?)?
 /** Parses one cell; null when it is no timestamp of a form above (or names a date that does not exist). */
 export function parseTimestamp(text: string): ParsedTimestamp | null {
   const cell = text.trim();
-  let year: number, month: number, day: number, hour = 0, minute = 0, second = 0, fraction = 0;
+  let year: number,
+    month: number,
+    day: number,
+    hour = 0,
+    minute = 0,
+    second = 0,
+    fraction = 0;
   let offset: string | undefined;
   let match = iso.exec(cell);
   if (match) {

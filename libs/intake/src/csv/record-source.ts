@@ -52,11 +52,16 @@ function textDecoder(layout: UploadLayout) {
       try {
         return chunk === null ? decoder.decode() : decoder.decode(chunk, { stream: true });
       } catch {
-        if (chunk === null) throw new UploadRejection(`The file ends in the middle of a ${layout.encoding.toUpperCase()} character; save it as CSV UTF-8 and upload it again.`);
+        if (chunk === null)
+          throw new UploadRejection(
+            `The file ends in the middle of a ${layout.encoding.toUpperCase()} character; save it as CSV UTF-8 and upload it again.`,
+          );
         const offset = Math.max(0, firstInvalidUtf8(chunk, false));
         let row = linesSeen;
         for (let i = chunk.indexOf(10); i >= 0 && i < offset; i = chunk.indexOf(10, i + 1)) row++;
-        throw new UploadRejection(`Row ${row} is not ${layout.encoding.toUpperCase()} text (byte 0x${chunk[offset]!.toString(16).toUpperCase().padStart(2, '0')} at offset ${bytesSeen + offset}); save the file as CSV UTF-8 and upload it again.`);
+        throw new UploadRejection(
+          `Row ${row} is not ${layout.encoding.toUpperCase()} text (byte 0x${chunk[offset]!.toString(16).toUpperCase().padStart(2, '0')} at offset ${bytesSeen + offset}); save the file as CSV UTF-8 and upload it again.`,
+        );
       } finally {
         if (chunk) {
           bytesSeen += chunk.length;
@@ -89,7 +94,10 @@ async function* splitRecords(path: string, layout: UploadLayout, onBytes?: Bytes
       if (raw === '') continue;
       const cells = raw.split(layout.delimiter);
       if (width < 0) width = cells.length;
-      else if (cells.length !== width) throw new UploadRejection(`Row ${line} has ${cells.length} fields where the header has ${width}; check that row for a stray delimiter or a missing cell.`);
+      else if (cells.length !== width)
+        throw new UploadRejection(
+          `Row ${line} has ${cells.length} fields where the header has ${width}; check that row for a stray delimiter or a missing cell.`,
+        );
       batch.cells.push(cells);
       batch.lines.push(line);
     }
@@ -132,7 +140,10 @@ async function* parsedRecords(path: string, layout: UploadLayout, onBytes?: Byte
     delimiter: layout.delimiter,
     skip_empty_lines: true,
     // Each record carries the line it ended on, for messages and findings.
-    on_record: ((record: string[], context: { lines: number }) => ({ cells: record, line: context.lines })) as unknown as Options['on_record'],
+    on_record: ((record: string[], context: { lines: number }) => ({
+      cells: record,
+      line: context.lines,
+    })) as unknown as Options['on_record'],
   });
   file.on('error', (error) => parser.destroy(error));
   decode.on('error', (error) => parser.destroy(error));

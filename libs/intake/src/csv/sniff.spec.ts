@@ -8,14 +8,34 @@ describe('sniffBytesOf', () => {
     const result = sniff('Zeit;Zähler;kW\n2026-01-01 00:00;fdr-a;12,5\n2026-01-01 01:00;fdr-a;13,0\n');
     expect(result).toEqual({
       ok: true,
-      layout: { encoding: 'utf-8', delimiter: ';', hasHeader: true, columns: ['Zeit', 'Zähler', 'kW'], decimalSeparator: ',', timestampsHaveOffset: false },
-      preview: { columns: ['Zeit', 'Zähler', 'kW'], rows: [['2026-01-01 00:00', 'fdr-a', '12,5'], ['2026-01-01 01:00', 'fdr-a', '13,0']] },
+      layout: {
+        encoding: 'utf-8',
+        delimiter: ';',
+        hasHeader: true,
+        columns: ['Zeit', 'Zähler', 'kW'],
+        decimalSeparator: ',',
+        timestampsHaveOffset: false,
+      },
+      preview: {
+        columns: ['Zeit', 'Zähler', 'kW'],
+        rows: [
+          ['2026-01-01 00:00', 'fdr-a', '12,5'],
+          ['2026-01-01 01:00', 'fdr-a', '13,0'],
+        ],
+      },
     });
   });
 
   it('names columns when the first row is already data, and reads tab-separated UTF-8 with a byte-order mark', () => {
-    const result = sniff(Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from('2026-01-01T00:00:00Z\t5\n2026-01-01T01:00:00Z\t6\n')]));
-    expect(result.ok && result.layout).toMatchObject({ delimiter: '\t', hasHeader: false, columns: ['column 1', 'column 2'], timestampsHaveOffset: true });
+    const result = sniff(
+      Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from('2026-01-01T00:00:00Z\t5\n2026-01-01T01:00:00Z\t6\n')]),
+    );
+    expect(result.ok && result.layout).toMatchObject({
+      delimiter: '\t',
+      hasHeader: false,
+      columns: ['column 1', 'column 2'],
+      timestampsHaveOffset: true,
+    });
   });
 
   it('reads UTF-16 with its byte-order mark', () => {

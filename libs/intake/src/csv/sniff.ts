@@ -46,7 +46,8 @@ export async function sniffFile(path: string): Promise<SniffResult> {
 export function sniffBytesOf(bytes: Buffer, whole: boolean): SniffResult {
   if (bytes.length === 0) return { ok: false, message: 'The file is empty.' };
   for (const known of knownBinaries) {
-    if (known.bytes.every((byte, i) => bytes[i] === byte)) return { ok: false, message: `The file is ${known.name}, not CSV text. ${saveAsCsv}` };
+    if (known.bytes.every((byte, i) => bytes[i] === byte))
+      return { ok: false, message: `The file is ${known.name}, not CSV text. ${saveAsCsv}` };
   }
   const encoding = detectEncoding(bytes);
   const bomLength = encoding === 'utf-8' ? (hasUtf8Bom(bytes) ? 3 : 0) : 2;
@@ -56,14 +57,20 @@ export function sniffBytesOf(bytes: Buffer, whole: boolean): SniffResult {
     const bad = firstInvalidUtf8(bytes, whole);
     if (bad >= 0) {
       const row = countLines(bytes, bad);
-      return { ok: false, message: `Row ${row} is not UTF-8 text (byte 0x${bytes[bad]!.toString(16).toUpperCase().padStart(2, '0')} at offset ${bad}); the file seems to use another encoding. Save it as CSV UTF-8 and upload that.` };
+      return {
+        ok: false,
+        message: `Row ${row} is not UTF-8 text (byte 0x${bytes[bad]!.toString(16).toUpperCase().padStart(2, '0')} at offset ${bad}); the file seems to use another encoding. Save it as CSV UTF-8 and upload that.`,
+      };
     }
   }
   let text = new TextDecoder(encoding).decode(bytes.subarray(bomLength));
   if (!whole) text = text.slice(0, Math.max(0, text.lastIndexOf('\n')));
   if (/[\u0000-\u0008\u000e-\u001f]/.test(text)) {
     const at = text.search(/[\u0000-\u0008\u000e-\u001f]/);
-    return { ok: false, message: `Row ${text.slice(0, at).split('\n').length} holds control characters, so this is not CSV text. ${saveAsCsv}` };
+    return {
+      ok: false,
+      message: `Row ${text.slice(0, at).split('\n').length} holds control characters, so this is not CSV text. ${saveAsCsv}`,
+    };
   }
   if (text.trim() === '') return { ok: false, message: 'The file holds no rows.' };
 
@@ -71,7 +78,12 @@ export function sniffBytesOf(bytes: Buffer, whole: boolean): SniffResult {
   if (!delimiter.ok) return delimiter;
   let records: string[][];
   try {
-    records = (parse(text, { delimiter: delimiter.value, relax_column_count: true, skip_empty_lines: true, to_line: previewRows + 60 }) as string[][]);
+    records = parse(text, {
+      delimiter: delimiter.value,
+      relax_column_count: true,
+      skip_empty_lines: true,
+      to_line: previewRows + 60,
+    }) as string[][];
   } catch (error) {
     return { ok: false, message: csvErrorMessage(error) };
   }
@@ -81,7 +93,8 @@ export function sniffBytesOf(bytes: Buffer, whole: boolean): SniffResult {
   const seen = new Map<string, number>();
   for (const [i, name] of columns.entries()) {
     const earlier = seen.get(name.toLowerCase());
-    if (earlier !== undefined) return { ok: false, message: `Row 1: columns ${earlier + 1} and ${i + 1} are both named "${name}"; give each column its own name.` };
+    if (earlier !== undefined)
+      return { ok: false, message: `Row 1: columns ${earlier + 1} and ${i + 1} are both named "${name}"; give each column its own name.` };
     seen.set(name.toLowerCase(), i);
   }
   const rows = records.slice(hasHeader ? 1 : 0, (hasHeader ? 1 : 0) + previewRows);
@@ -117,7 +130,8 @@ export function firstInvalidUtf8(bytes: Uint8Array, whole: boolean): number {
   let i = 0;
   while (i < bytes.length) {
     const byte = bytes[i]!;
-    const length = byte < 0x80 ? 1 : byte >= 0xc2 && byte <= 0xdf ? 2 : byte >= 0xe0 && byte <= 0xef ? 3 : byte >= 0xf0 && byte <= 0xf4 ? 4 : 0;
+    const length =
+      byte < 0x80 ? 1 : byte >= 0xc2 && byte <= 0xdf ? 2 : byte >= 0xe0 && byte <= 0xef ? 3 : byte >= 0xf0 && byte <= 0xf4 ? 4 : 0;
     if (length === 0) return i;
     if (i + length > bytes.length) return whole ? i : -1;
     for (let k = 1; k < length; k++) if ((bytes[i + k]! & 0xc0) !== 0x80) return i;
@@ -134,7 +148,10 @@ function countLines(bytes: Buffer, upTo: number): number {
 
 /** The delimiter that splits the first lines into the same number (> 1) of fields. */
 function detectDelimiter(text: string): { ok: true; value: UploadLayout['delimiter'] } | { ok: false; message: string } {
-  const lines = text.split(/\r?\n/).filter((line) => line.trim() !== '').slice(0, 30);
+  const lines = text
+    .split(/\r?\n/)
+    .filter((line) => line.trim() !== '')
+    .slice(0, 30);
   const score = (delimiter: string) => {
     const counts = lines.map((line) => splitOutsideQuotes(line, delimiter));
     const first = counts[0]!;
@@ -145,7 +162,10 @@ function detectDelimiter(text: string): { ok: true; value: UploadLayout['delimit
   if (best.score > 0) return { ok: true, value: best.delimiter };
   const other = ['|', ':', ' '].find((candidate) => splitOutsideQuotes(lines[0]!, candidate) > 1);
   const hint = other ? ` This file seems to separate fields with "${other === ' ' ? 'space' : other}".` : '';
-  return { ok: false, message: `Row 1 has a single column: Loadwright reads files whose fields are separated by comma, semicolon or tab.${hint} Export the file again with one of those.` };
+  return {
+    ok: false,
+    message: `Row 1 has a single column: Loadwright reads files whose fields are separated by comma, semicolon or tab.${hint} Export the file again with one of those.`,
+  };
 }
 
 function splitOutsideQuotes(line: string, delimiter: string): number {

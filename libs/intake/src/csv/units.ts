@@ -13,7 +13,9 @@ export function unitConversion(from: UploadUnit, to: string, intervalMinutes: nu
   if (from === 'degC' || from === 'degF') {
     if (to !== 'degC' && to !== 'degF') return `${from} is a temperature unit but the series stores ${to}`;
     if (from === to) return (value) => value;
-    return from === 'degC' ? (value) => Number((value * 1.8 + 32).toPrecision(12)) : (value) => Number(((value - 32) / 1.8).toPrecision(12));
+    return from === 'degC'
+      ? (value) => Number((value * 1.8 + 32).toPrecision(12))
+      : (value) => Number(((value - 32) / 1.8).toPrecision(12));
   }
   const target = demandInWatts[to];
   if (target === undefined) return `${from} is a load unit but the series stores temperatures in ${to}`;

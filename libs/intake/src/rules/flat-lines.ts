@@ -17,7 +17,12 @@ export function flatLineLimit(kind: 'load' | 'temperature', intervalMinutes: num
  * Runs longer than `limit` readings, as inclusive position ranges. `gridIndex` gives each reading's
  * grid index, so a run is broken by a missing interval as well as by a change of value. Pure.
  */
-export function flatRuns(values: Float64Array, gridIndex: Float64Array, length: number, limit: number): Array<{ start: number; end: number }> {
+export function flatRuns(
+  values: Float64Array,
+  gridIndex: Float64Array,
+  length: number,
+  limit: number,
+): Array<{ start: number; end: number }> {
   const runs: Array<{ start: number; end: number }> = [];
   let start = 0;
   for (let i = 1; i <= length; i++) {

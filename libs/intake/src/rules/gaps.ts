@@ -28,7 +28,13 @@ export function findGaps(gridIndex: Float64Array, length: number, stored: Readon
       const missing = index <= to && !stored.has(index);
       if (missing && runStart < 0) runStart = index;
       if (!missing && runStart >= 0) {
-        gaps.push({ firstIndex: runStart, count: index - runStart, before: p - 1, after: p, bounded: runStart === from && index === to + 1 });
+        gaps.push({
+          firstIndex: runStart,
+          count: index - runStart,
+          before: p - 1,
+          after: p,
+          bounded: runStart === from && index === to + 1,
+        });
         runStart = -1;
       }
     }

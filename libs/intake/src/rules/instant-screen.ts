@@ -8,7 +8,12 @@ import type { IntervalGrid } from '../interval-grid';
 import { pickReadings, type SeriesReadings } from '../series-readings';
 
 /** Readings on the grid and not in the future, and findings for the others. Pure. */
-export function screenInstants(source: SeriesReadings, seriesId: number, grid: IntervalGrid, nowMs: number): { readings: SeriesReadings; findings: Finding[] } {
+export function screenInstants(
+  source: SeriesReadings,
+  seriesId: number,
+  grid: IntervalGrid,
+  nowMs: number,
+): { readings: SeriesReadings; findings: Finding[] } {
   const kept: number[] = [];
   const findings: Finding[] = [];
   for (let i = 0; i < source.length; i++) {
@@ -16,7 +21,11 @@ export function screenInstants(source: SeriesReadings, seriesId: number, grid: I
     const index = grid.indexOf(ts);
     const base = { seriesId, tsMs: ts, value: source.values[i]!, sourceRow: source.sourceRows[i] || null };
     if (Math.abs(index - Math.round(index)) > 1e-9) {
-      findings.push({ rule: 'off_grid', ...base, detail: { intervalMinutes: grid.intervalMinutes, nearest: new Date(grid.instantOf(Math.round(index))).toISOString() } });
+      findings.push({
+        rule: 'off_grid',
+        ...base,
+        detail: { intervalMinutes: grid.intervalMinutes, nearest: new Date(grid.instantOf(Math.round(index))).toISOString() },
+      });
     } else if (ts > nowMs) {
       findings.push({ rule: 'future', ...base, detail: { now: new Date(nowMs).toISOString() } });
     } else {

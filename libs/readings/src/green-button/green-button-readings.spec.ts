@@ -4,7 +4,18 @@ import { greenButtonReadings } from './green-button-readings';
 import type { GreenButtonUsage } from './parse-green-button';
 
 const series = (overrides: Partial<Series>): Series =>
-  ({ id: 1, key: 'meter-a', name: 'Meter A', kind: 'load', level: 'feeder', unit: 'kW', intervalMinutes: 60, timeZone: 'America/Chicago', timestampsMark: 'start', ...overrides }) as Series;
+  ({
+    id: 1,
+    key: 'meter-a',
+    name: 'Meter A',
+    kind: 'load',
+    level: 'feeder',
+    unit: 'kW',
+    intervalMinutes: 60,
+    timeZone: 'America/Chicago',
+    timestampsMark: 'start',
+    ...overrides,
+  }) as Series;
 
 const usage = (uom: 72 | 38, durationSeconds: number, values: number[]): GreenButtonUsage => ({
   readingType: { uom, powerOfTenMultiplier: 0, intervalLengthSeconds: durationSeconds, accumulationBehaviour: uom === 72 ? 4 : 12 },
@@ -34,7 +45,11 @@ describe('greenButtonReadings', () => {
   });
 
   it('refuses intervals of another length than the series takes, and temperature series', () => {
-    expect(() => greenButtonReadings(usage(72, 900, [250]), series({}))).toThrow(/intervals are 900 s \(15 minutes\) long.*meter-a takes 60-minute readings/);
-    expect(() => greenButtonReadings(usage(72, 3600, [250]), series({ kind: 'temperature', unit: 'degF', level: null }))).toThrow(/temperature series; Green Button files hold electricity usage/);
+    expect(() => greenButtonReadings(usage(72, 900, [250]), series({}))).toThrow(
+      /intervals are 900 s \(15 minutes\) long.*meter-a takes 60-minute readings/,
+    );
+    expect(() => greenButtonReadings(usage(72, 3600, [250]), series({ kind: 'temperature', unit: 'degF', level: null }))).toThrow(
+      /temperature series; Green Button files hold electricity usage/,
+    );
   });
 });

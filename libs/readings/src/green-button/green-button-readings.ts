@@ -13,7 +13,10 @@ const secondsPerHour = 3600;
 
 /** The series' readings from a parsed feed. */
 export function greenButtonReadings(usage: GreenButtonUsage, series: Series): IntervalReading[] {
-  if (series.kind !== 'load') throw new GreenButtonFormatError(`${series.key} is a ${series.kind} series; Green Button files hold electricity usage, which goes into a load series.`);
+  if (series.kind !== 'load')
+    throw new GreenButtonFormatError(
+      `${series.key} is a ${series.kind} series; Green Button files hold electricity usage, which goes into a load series.`,
+    );
   const expectedSeconds = series.intervalMinutes * 60;
   const odd = usage.intervals.find((interval) => interval.durationSeconds !== expectedSeconds);
   if (odd) {

@@ -40,7 +40,9 @@ describe('parseGreenButton', () => {
 
   it('refuses malformed XML with the parser message and position', () => {
     expect(() => parseGreenButton(fixture('malformed-truncated.xml'))).toThrow(GreenButtonFormatError);
-    expect(() => parseGreenButton(fixture('malformed-truncated.xml'))).toThrow(/^The file is not well-formed XML: .+ \(line \d+, column \d+\)\.$/);
+    expect(() => parseGreenButton(fixture('malformed-truncated.xml'))).toThrow(
+      /^The file is not well-formed XML: .+ \(line \d+, column \d+\)\.$/,
+    );
   });
 
   it('refuses a unit it does not import, naming the code and the accepted ones', () => {
@@ -68,9 +70,16 @@ describe('parseGreenButton', () => {
 
   it('refuses a feed with interval data of two meter readings', () => {
     const xml = fixture('hourly-demand-kilowatts.xml');
-    const second = xml.match(/<entry>\s*<id>urn:uuid:[0-9a-f-]+0200<\/id>[\s\S]*?<\/entry>/)![0].replaceAll('MeterReading/1/', 'MeterReading/2/');
-    const meterReading2 = xml.match(/<entry>\s*<id>urn:uuid:[0-9a-f-]+0103<\/id>[\s\S]*?<\/entry>/)![0].replaceAll('MeterReading/1', 'MeterReading/2').replace('Interval usage', 'Second register');
+    const second = xml
+      .match(/<entry>\s*<id>urn:uuid:[0-9a-f-]+0200<\/id>[\s\S]*?<\/entry>/)![0]
+      .replaceAll('MeterReading/1/', 'MeterReading/2/');
+    const meterReading2 = xml
+      .match(/<entry>\s*<id>urn:uuid:[0-9a-f-]+0103<\/id>[\s\S]*?<\/entry>/)![0]
+      .replaceAll('MeterReading/1', 'MeterReading/2')
+      .replace('Interval usage', 'Second register');
     const doubled = xml.replace('</feed>', `${meterReading2}\n${second}\n</feed>`);
-    expect(() => parseGreenButton(doubled)).toThrow(/holds interval readings of 2 meter readings \(Interval usage, Second register\); send one meter reading per file/);
+    expect(() => parseGreenButton(doubled)).toThrow(
+      /holds interval readings of 2 meter readings \(Interval usage, Second register\); send one meter reading per file/,
+    );
   });
 });

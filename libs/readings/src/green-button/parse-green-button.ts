@@ -25,7 +25,11 @@ export const greenButtonUnits = { 72: 'Wh', 38: 'W' } as const;
 export const deltaDataAccumulation = 4;
 
 /** Accumulation behaviours that mean register reads rather than per-interval quantities. */
-const registerAccumulations: Record<number, string> = { 1: 'bulk quantity (register reads)', 3: 'cumulative (register reads)', 9: 'summation' };
+const registerAccumulations: Record<number, string> = {
+  1: 'bulk quantity (register reads)',
+  3: 'cumulative (register reads)',
+  9: 'summation',
+};
 
 /** ESPI flow direction of energy sent back to the grid. */
 const reverseFlow = 19;
@@ -104,20 +108,26 @@ export function parseGreenButton(xml: string): GreenButtonUsage {
   const document = parser.parse(xml) as Record<string, unknown>;
   const entries = atomEntries(document);
   const blocks = entries.filter((e) => e.resources['IntervalBlock']);
-  if (blocks.length === 0) throw new GreenButtonFormatError('The feed holds no IntervalBlock, so there are no interval readings to import.');
+  if (blocks.length === 0)
+    throw new GreenButtonFormatError('The feed holds no IntervalBlock, so there are no interval readings to import.');
 
   const meterReadings = entries.filter((e) => e.resources['MeterReading']);
   const owners = new Set(blocks.map((block) => ownerOf(block, meterReadings)));
   if (owners.size > 1) {
     const names = [...owners].map((owner) => owner?.title ?? owner?.self ?? 'unlinked').join(', ');
-    throw new GreenButtonFormatError(`The feed holds interval readings of ${owners.size} meter readings (${names}); send one meter reading per file.`);
+    throw new GreenButtonFormatError(
+      `The feed holds interval readings of ${owners.size} meter readings (${names}); send one meter reading per file.`,
+    );
   }
   const meterReading = [...owners][0] ?? null;
   const readingType = readReadingType(pickReadingType(entries, meterReading));
   const usagePoint = entries.find((e) => e.resources['UsagePoint']);
   const localTimeEntry = entries.find((e) => e.resources['LocalTimeParameters']);
-  const intervals = blocks.flatMap((entry) => entry.resources['IntervalBlock']!.flatMap((block, b) => readIntervals(block, b + 1, readingType)));
-  if (intervals.length === 0) throw new GreenButtonFormatError('The feed\'s IntervalBlocks hold no IntervalReading, so there are no interval readings to import.');
+  const intervals = blocks.flatMap((entry) =>
+    entry.resources['IntervalBlock']!.flatMap((block, b) => readIntervals(block, b + 1, readingType)),
+  );
+  if (intervals.length === 0)
+    throw new GreenButtonFormatError("The feed's IntervalBlocks hold no IntervalReading, so there are no interval readings to import.");
   intervals.sort((a, b) => a.startSeconds - b.startSeconds);
   return {
     readingType,
@@ -132,7 +142,9 @@ function atomEntries(document: Record<string, unknown>): Entry[] {
   const feed = document['feed'];
   const rawEntries = isRecord(feed) ? feed['entry'] : document['entry'];
   if (!Array.isArray(rawEntries) || rawEntries.length === 0) {
-    throw new GreenButtonFormatError('The file is XML but not a Green Button feed: expected an Atom <feed> with <entry> elements holding ESPI resources.');
+    throw new GreenButtonFormatError(
+      'The file is XML but not a Green Button feed: expected an Atom <feed> with <entry> elements holding ESPI resources.',
+    );
   }
   return rawEntries.filter(isRecord).map((entry) => {
     const links = (Array.isArray(entry['link']) ? entry['link'] : []).filter(isRecord);
@@ -176,7 +188,9 @@ function readReadingType(resource: Record<string, unknown>): GreenButtonReadingT
   const uom = integerField(resource, 'uom', 'ReadingType');
   if (uom === null) throw new GreenButtonFormatError('The ReadingType gives no uom (unit of measure), so the values cannot be read.');
   if (!(uom in greenButtonUnits)) {
-    throw new GreenButtonFormatError(`ReadingType uom ${uom} is not a unit Loadwright imports; use 72 (Wh, energy per interval) or 38 (W, demand).`);
+    throw new GreenButtonFormatError(
+      `ReadingType uom ${uom} is not a unit Loadwright imports; use 72 (Wh, energy per interval) or 38 (W, demand).`,
+    );
   }
   const commodity = integerField(resource, 'commodity', 'ReadingType');
   if (commodity !== null && !electricityCommodities.has(commodity)) {
@@ -184,7 +198,9 @@ function readReadingType(resource: Record<string, unknown>): GreenButtonReadingT
   }
   const flowDirection = integerField(resource, 'flowDirection', 'ReadingType');
   if (flowDirection === reverseFlow) {
-    throw new GreenButtonFormatError('ReadingType flowDirection 19 is energy sent back to the grid, not load; send the delivered (1) or net (4) reading.');
+    throw new GreenButtonFormatError(
+      'ReadingType flowDirection 19 is energy sent back to the grid, not load; send the delivered (1) or net (4) reading.',
+    );
   }
   const accumulationBehaviour = integerField(resource, 'accumulationBehaviour', 'ReadingType');
   if (accumulationBehaviour !== null && accumulationBehaviour in registerAccumulations) {
@@ -212,7 +228,8 @@ function readIntervals(block: unknown, blockNumber: number, readingType: GreenBu
     const durationSeconds = integerField(reading['timePeriod'], 'duration', where) ?? readingType.intervalLengthSeconds;
     const raw = integerField(reading, 'value', where);
     if (startSeconds === null) throw new GreenButtonFormatError(`${where} has no timePeriod start.`);
-    if (durationSeconds === null || durationSeconds <= 0) throw new GreenButtonFormatError(`${where} has no positive duration, and the ReadingType gives no intervalLength.`);
+    if (durationSeconds === null || durationSeconds <= 0)
+      throw new GreenButtonFormatError(`${where} has no positive duration, and the ReadingType gives no intervalLength.`);
     if (raw === null) throw new GreenButtonFormatError(`${where} has no value.`);
     return { startSeconds, durationSeconds, value: scale(raw) };
   });
@@ -243,7 +260,8 @@ function multiplier(power: number): (value: number) => number {
 function integerField(parent: Record<string, unknown>, name: string, where: string): number | null {
   const value = text(parent[name]);
   if (value === null) return null;
-  if (!/^[-+]?\d{1,15}$/.test(value)) throw new GreenButtonFormatError(`${where} has ${name} "${value.slice(0, 40)}", which is not a whole number.`);
+  if (!/^[-+]?\d{1,15}$/.test(value))
+    throw new GreenButtonFormatError(`${where} has ${name} "${value.slice(0, 40)}", which is not a whole number.`);
   return Number(value);
 }
 

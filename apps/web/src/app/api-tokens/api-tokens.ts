@@ -38,7 +38,9 @@ export class ApiTokens {
 
   /** Reads the list from the API. */
   protected load(): void {
-    this.client.list().subscribe({ next: (tokens) => this.tokens.set(tokens), error: (error: unknown) => this.problem.set(problemMessage(error)) });
+    this.client
+      .list()
+      .subscribe({ next: (tokens) => this.tokens.set(tokens), error: (error: unknown) => this.problem.set(problemMessage(error)) });
   }
 
   /** Opens the create dialog; the new token joins the top of the list once the dialog closes. */

@@ -25,7 +25,9 @@ describe('actorName', () => {
 
 describe('detailSummary', () => {
   it('shows changes as from → to and plain values as they are', () => {
-    expect(detailSummary({ role: { from: 'viewer', to: 'planner' }, email: 'a@b.example' })).toBe('role: viewer → planner · email: a@b.example');
+    expect(detailSummary({ role: { from: 'viewer', to: 'planner' }, email: 'a@b.example' })).toBe(
+      'role: viewer → planner · email: a@b.example',
+    );
     expect(detailSummary({})).toBe('');
   });
 });

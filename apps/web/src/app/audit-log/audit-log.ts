@@ -28,7 +28,12 @@ export class AuditLog {
   /** The filter form; dates are calendar days in the browser's time zone. */
   protected readonly filters = inject(NonNullableFormBuilder).group({ action: [''], actorUserId: [0], fromDay: [''], toDay: [''] });
   /** People to filter by (the list is empty if it cannot be read; the log still works). */
-  protected readonly people = toSignal(inject(PeopleClient).list().pipe(catchError(() => of<Person[]>([]))), { initialValue: [] as Person[] });
+  protected readonly people = toSignal(
+    inject(PeopleClient)
+      .list()
+      .pipe(catchError(() => of<Person[]>([]))),
+    { initialValue: [] as Person[] },
+  );
   /** Action families to filter by. */
   protected readonly families = ACTION_FAMILIES;
   /** Entries read so far, newest first; null while the first page loads. */

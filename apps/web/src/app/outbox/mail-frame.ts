@@ -15,10 +15,26 @@ import { DomSanitizer } from '@angular/platform-browser';
 @Component({
   selector: 'lw-mail-frame',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  template: `<iframe #frame class="html" sandbox="allow-same-origin" [srcdoc]="trustedHtml()" [title]="title()" (load)="applyInlineStyles()"></iframe>`,
+  template: `<iframe
+    #frame
+    class="html"
+    sandbox="allow-same-origin"
+    [srcdoc]="trustedHtml()"
+    [title]="title()"
+    (load)="applyInlineStyles()"
+  ></iframe>`,
   styles: `
-    :host { display: block; }
-    iframe { display: block; width: 100%; height: 420px; border: 1px solid var(--mat-sys-outline-variant); border-radius: var(--mat-sys-corner-small); background: #fff; }
+    :host {
+      display: block;
+    }
+    iframe {
+      display: block;
+      width: 100%;
+      height: 420px;
+      border: 1px solid var(--mat-sys-outline-variant);
+      border-radius: var(--mat-sys-corner-small);
+      background: #fff;
+    }
   `,
 })
 export class MailFrame {

@@ -30,7 +30,9 @@ describe('pollHealth', () => {
   it('starts as checking, reads at once and then every interval', () => {
     const source = scriptedRead([() => of(report)]);
     const readings: HealthReading[] = [];
-    const subscription = pollHealth({ read: source.read, checkNow: NEVER, intervalMs: 10_000 }).subscribe((reading) => readings.push(reading));
+    const subscription = pollHealth({ read: source.read, checkNow: NEVER, intervalMs: 10_000 }).subscribe((reading) =>
+      readings.push(reading),
+    );
     vi.advanceTimersByTime(0);
     expect(readings.map((reading) => reading.state)).toEqual(['checking', 'answered']);
     vi.advanceTimersByTime(9_999);
@@ -43,7 +45,9 @@ describe('pollHealth', () => {
   it('turns a failed read into an unreachable reading that keeps the last report', () => {
     const source = scriptedRead([() => of(report), () => throwError(() => new Error('The Loadwright API cannot be reached.'))]);
     const readings: HealthReading[] = [];
-    const subscription = pollHealth({ read: source.read, checkNow: NEVER, intervalMs: 10_000 }).subscribe((reading) => readings.push(reading));
+    const subscription = pollHealth({ read: source.read, checkNow: NEVER, intervalMs: 10_000 }).subscribe((reading) =>
+      readings.push(reading),
+    );
     vi.advanceTimersByTime(10_000);
     expect(readings.at(-1)).toMatchObject({ state: 'unreachable', problem: 'The Loadwright API cannot be reached.', lastReport: report });
     // The feed survives the failure and keeps polling.
@@ -77,15 +81,18 @@ describe('pollHealth', () => {
     checkNow.next();
     vi.advanceTimersByTime(0);
     slow.next(report);
-    expect(readings.map((reading) => (reading.state === 'answered' ? reading.report.version : reading.state))).toEqual(['checking', '0.2.0']);
+    expect(readings.map((reading) => (reading.state === 'answered' ? reading.report.version : reading.state))).toEqual([
+      'checking',
+      '0.2.0',
+    ]);
     subscription.unsubscribe();
   });
 
   it('reads a check that outlasts its time limit as unreachable', () => {
     const source = scriptedRead([() => NEVER]);
     const readings: HealthReading[] = [];
-    const subscription = pollHealth({ read: source.read, checkNow: NEVER, intervalMs: 10_000, answerWithinMs: 8_000 }).subscribe((reading) =>
-      readings.push(reading),
+    const subscription = pollHealth({ read: source.read, checkNow: NEVER, intervalMs: 10_000, answerWithinMs: 8_000 }).subscribe(
+      (reading) => readings.push(reading),
     );
     vi.advanceTimersByTime(7_999);
     expect(readings.map((reading) => reading.state)).toEqual(['checking']);

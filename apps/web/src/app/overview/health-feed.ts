@@ -49,11 +49,14 @@ export function pollHealth({
       ),
     ),
     // Carry the last good report into failures, so the page can say how things stood.
-    scan((previous: HealthReading, next: HealthReading): HealthReading => {
-      if (next.state !== 'unreachable') return next;
-      const lastReport = previous.state === 'answered' ? previous.report : previous.state === 'unreachable' ? previous.lastReport : null;
-      return { ...next, lastReport };
-    }, { state: 'checking' } as HealthReading),
+    scan(
+      (previous: HealthReading, next: HealthReading): HealthReading => {
+        if (next.state !== 'unreachable') return next;
+        const lastReport = previous.state === 'answered' ? previous.report : previous.state === 'unreachable' ? previous.lastReport : null;
+        return { ...next, lastReport };
+      },
+      { state: 'checking' } as HealthReading,
+    ),
     startWith<HealthReading>({ state: 'checking' }),
   );
 }

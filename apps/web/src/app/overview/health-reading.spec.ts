@@ -19,11 +19,19 @@ describe('verdictOf', () => {
   });
 
   it('reports all services working on a healthy report', () => {
-    expect(verdictOf({ state: 'answered', report: healthyReport(), checkedAt: new Date() })).toMatchObject({ tone: 'good', icon: 'check_circle', headline: 'All services working' });
+    expect(verdictOf({ state: 'answered', report: healthyReport(), checkedAt: new Date() })).toMatchObject({
+      tone: 'good',
+      icon: 'check_circle',
+      headline: 'All services working',
+    });
   });
 
   it('names the one failing component of a degraded report', () => {
-    const report: HealthReport = { ...healthyReport(), status: 'degraded', queue: { ok: false, latencyMs: null, detail: 'job queue not installed yet', queues: [] } };
+    const report: HealthReport = {
+      ...healthyReport(),
+      status: 'degraded',
+      queue: { ok: false, latencyMs: null, detail: 'job queue not installed yet', queues: [] },
+    };
     const verdict = verdictOf({ state: 'answered', report, checkedAt: new Date() });
     expect(verdict).toMatchObject({ tone: 'warning', headline: 'Service degraded' });
     expect(verdict.detail).toMatch(/^The job queue is not working\./);
@@ -42,8 +50,18 @@ describe('verdictOf', () => {
   });
 
   it('passes the reason through when the API is unreachable', () => {
-    const verdict = verdictOf({ state: 'unreachable', problem: 'The Loadwright API cannot be reached.', checkedAt: new Date(), lastReport: null });
-    expect(verdict).toEqual({ tone: 'problem', icon: 'cloud_off', headline: 'API unreachable', detail: 'The Loadwright API cannot be reached.' });
+    const verdict = verdictOf({
+      state: 'unreachable',
+      problem: 'The Loadwright API cannot be reached.',
+      checkedAt: new Date(),
+      lastReport: null,
+    });
+    expect(verdict).toEqual({
+      tone: 'problem',
+      icon: 'cloud_off',
+      headline: 'API unreachable',
+      detail: 'The Loadwright API cannot be reached.',
+    });
   });
 });
 
@@ -55,8 +73,18 @@ describe('component lines', () => {
   });
 
   it('show the API detail when a component fails', () => {
-    const report: HealthReport = { ...healthyReport(), status: 'degraded', database: { ok: false, latencyMs: null, detail: 'connection refused' } };
-    expect(databaseLine(report)).toEqual({ ok: false, icon: 'error', text: 'Database: not responding', detail: 'connection refused', latency: null });
+    const report: HealthReport = {
+      ...healthyReport(),
+      status: 'degraded',
+      database: { ok: false, latencyMs: null, detail: 'connection refused' },
+    };
+    expect(databaseLine(report)).toEqual({
+      ok: false,
+      icon: 'error',
+      text: 'Database: not responding',
+      detail: 'connection refused',
+      latency: null,
+    });
     expect(failingComponents(report)).toEqual(['the database']);
   });
 });

@@ -33,12 +33,22 @@ export interface ComponentLine {
 export function verdictOf(reading: HealthReading): HealthVerdict {
   switch (reading.state) {
     case 'checking':
-      return { tone: 'pending', icon: 'hourglass_empty', headline: 'Checking service health…', detail: 'Asking the Loadwright API for its status.' };
+      return {
+        tone: 'pending',
+        icon: 'hourglass_empty',
+        headline: 'Checking service health…',
+        detail: 'Asking the Loadwright API for its status.',
+      };
     case 'unreachable':
       return { tone: 'problem', icon: 'cloud_off', headline: 'API unreachable', detail: reading.problem };
     case 'answered':
       return reading.report.status === 'ok'
-        ? { tone: 'good', icon: 'check_circle', headline: 'All services working', detail: 'The database and the job queue answered normally.' }
+        ? {
+            tone: 'good',
+            icon: 'check_circle',
+            headline: 'All services working',
+            detail: 'The database and the job queue answered normally.',
+          }
         : {
             tone: 'warning',
             icon: 'warning',
@@ -80,7 +90,13 @@ export function databaseLine(report: HealthReport): ComponentLine {
 /** Describes the job queue state in words, so colour and icon are never the only signal. */
 export function queueLine(report: HealthReport): ComponentLine {
   const { ok, detail, latencyMs } = report.queue;
-  return { ok, icon: ok ? 'check_circle' : 'error', text: ok ? 'Job queue: ready' : 'Job queue: unavailable', detail, latency: formatLatency(latencyMs) };
+  return {
+    ok,
+    icon: ok ? 'check_circle' : 'error',
+    text: ok ? 'Job queue: ready' : 'Job queue: unavailable',
+    detail,
+    latency: formatLatency(latencyMs),
+  };
 }
 
 /** "2.4 ms" for a measured round trip, null when the check did not complete. */

@@ -24,10 +24,9 @@ export class Overview {
   private readonly checkRequests = new Subject<void>();
 
   /** Latest reading; toSignal unsubscribes, and so stops polling, when the page is left. */
-  protected readonly reading = toSignal(
-    pollHealth({ read: () => this.healthClient.read(), checkNow: this.checkRequests }),
-    { initialValue: { state: 'checking' } satisfies HealthReading as HealthReading },
-  );
+  protected readonly reading = toSignal(pollHealth({ read: () => this.healthClient.read(), checkNow: this.checkRequests }), {
+    initialValue: { state: 'checking' } satisfies HealthReading as HealthReading,
+  });
   /** The headline verdict for the top of the health section. */
   protected readonly verdict = computed(() => verdictOf(this.reading()));
   /** The report of the latest answered check, or null while checking or when unreachable. */

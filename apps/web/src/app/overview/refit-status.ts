@@ -22,10 +22,19 @@ import { countsSentence, durationText, finishedPercent, outcomeText } from '../r
         <p class="headline" [class.failed]="current.counts.failed > 0">
           {{ current.state === 'finished' ? 'Last run: ' + outcome(current) : 'Run #' + current.id + ' ' + outcome(current).toLowerCase() }}
         </p>
-        <mat-progress-bar mode="determinate" [value]="percent(current)" [attr.aria-label]="'Refit run ' + current.id + ' progress'" [attr.aria-valuetext]="counts(current)" />
+        <mat-progress-bar
+          mode="determinate"
+          [value]="percent(current)"
+          [attr.aria-label]="'Refit run ' + current.id + ' progress'"
+          [attr.aria-valuetext]="counts(current)"
+        />
         <p class="detail">{{ counts(current) }} · {{ percent(current) }} %</p>
         <p class="detail">
-          {{ current.trigger === 'schedule' ? 'Nightly' : 'Manual' }} run #{{ current.id }} started {{ clock(current.startedAt ?? current.createdAt) }}@if (current.finishedAt) {, finished {{ clock(current.finishedAt) }} after {{ duration(current.durationMs) }}}
+          {{ current.trigger === 'schedule' ? 'Nightly' : 'Manual' }} run #{{ current.id }} started
+          {{ clock(current.startedAt ?? current.createdAt) }}
+          @if (current.finishedAt) {
+            , finished {{ clock(current.finishedAt) }} after {{ duration(current.durationMs) }}
+          }
         </p>
       } @else if (reading().state === 'loading') {
         <p class="detail">Reading the refit status…</p>

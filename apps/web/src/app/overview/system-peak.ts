@@ -10,7 +10,10 @@ import { withUnit } from '../series-page/chart-theme';
 import { zoneAbbreviation } from '../series-page/zoned-time';
 
 /** What the card knows. */
-type PeakState = { readonly state: 'loading' } | { readonly state: 'none'; readonly why: string } | { readonly state: 'ready'; readonly review: ForecastReview };
+type PeakState =
+  | { readonly state: 'loading' }
+  | { readonly state: 'none'; readonly why: string }
+  | { readonly state: 'ready'; readonly review: ForecastReview };
 
 /** The Overview's next-week system peak: the highest hour of the system series' draft and approved forecasts, in local time. */
 @Component({
@@ -54,7 +57,9 @@ export class SystemPeak {
       switchMap((page) => {
         const system = page.items[0];
         if (!system) return of<PeakState>({ state: 'none', why: 'No system series in the catalogue yet.' });
-        return this.http.get<ForecastReview>(`/api/series/${system.id}/forecast`).pipe(map((review): PeakState => ({ state: 'ready', review })));
+        return this.http
+          .get<ForecastReview>(`/api/series/${system.id}/forecast`)
+          .pipe(map((review): PeakState => ({ state: 'ready', review })));
       }),
       catchError(() => of<PeakState>({ state: 'none', why: 'The system forecast could not be read.' })),
     ),
@@ -72,7 +77,15 @@ export class SystemPeak {
     const zone = review.series.timeZone;
     const line = (label: string, version: ForecastReview['draft']) => {
       const peak = horizonPeak(version);
-      return peak ? [{ label, value: withUnit(peak.value, review.series.unit), when: `${peak.date} at ${peak.localTime} ${zoneAbbreviation(peak.ts, zone)}` }] : [];
+      return peak
+        ? [
+            {
+              label,
+              value: withUnit(peak.value, review.series.unit),
+              when: `${peak.date} at ${peak.localTime} ${zoneAbbreviation(peak.ts, zone)}`,
+            },
+          ]
+        : [];
     };
     const found = [...line('Approved', review.approved), ...line('Draft', review.draft)];
     return found;

@@ -23,7 +23,9 @@ import { ROLE_DESCRIPTIONS } from './person-status';
       <mat-dialog-content>
         <p class="intro">They receive an e-mail with a one-time link to choose a password. The link expires after three days.</p>
         @if (problem(); as message) {
-          <p class="problem" role="alert"><mat-icon aria-hidden="true">error</mat-icon><span>{{ message }}</span></p>
+          <p class="problem" role="alert">
+            <mat-icon aria-hidden="true">error</mat-icon><span>{{ message }}</span>
+          </p>
         }
         <mat-form-field appearance="outline">
           <mat-label>E-mail address</mat-label>
@@ -65,10 +67,27 @@ import { ROLE_DESCRIPTIONS } from './person-status';
     </form>
   `,
   styles: `
-    mat-dialog-content { display: flex; flex-direction: column; gap: 8px; }
-    mat-form-field { width: 100%; }
-    .intro { margin: 0 0 8px; color: var(--mat-sys-on-surface-variant); }
-    .problem { display: flex; gap: 8px; margin: 0 0 8px; padding: 10px 12px; border-radius: var(--mat-sys-corner-medium); background: var(--mat-sys-error-container); color: var(--mat-sys-on-error-container); }
+    mat-dialog-content {
+      display: flex;
+      flex-direction: column;
+      gap: 8px;
+    }
+    mat-form-field {
+      width: 100%;
+    }
+    .intro {
+      margin: 0 0 8px;
+      color: var(--mat-sys-on-surface-variant);
+    }
+    .problem {
+      display: flex;
+      gap: 8px;
+      margin: 0 0 8px;
+      padding: 10px 12px;
+      border-radius: var(--mat-sys-corner-medium);
+      background: var(--mat-sys-error-container);
+      color: var(--mat-sys-on-error-container);
+    }
   `,
 })
 export class InviteDialog {

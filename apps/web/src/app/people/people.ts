@@ -45,7 +45,9 @@ export class People {
 
   /** Reads the list from the API. */
   protected load(): void {
-    this.client.list().subscribe({ next: (people) => this.people.set(people), error: (error: unknown) => this.problem.set(problemMessage(error)) });
+    this.client
+      .list()
+      .subscribe({ next: (people) => this.people.set(people), error: (error: unknown) => this.problem.set(problemMessage(error)) });
   }
 
   /** Opens the invite dialog and adds the invited person to the list. */
@@ -109,7 +111,9 @@ export class People {
 
   /** Sends a fresh invite link to someone who has not set a password yet. */
   protected resendInvite(person: Person): void {
-    this.client.resendInvite(person.id).subscribe({ next: ({ message }) => this.report(message), error: (error: unknown) => this.fail(error) });
+    this.client
+      .resendInvite(person.id)
+      .subscribe({ next: ({ message }) => this.report(message), error: (error: unknown) => this.fail(error) });
   }
 
   /** Puts a changed or new person into the list, keeping it ordered by name. */

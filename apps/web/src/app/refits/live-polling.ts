@@ -54,7 +54,13 @@ export interface LiveSource<T> {
  * previous one (expand), so answers never arrive out of order; `refresh` starts over at once (switchMap).
  * Unsubscribing — leaving the page — stops it.
  */
-export function pollWhileActive<T>({ read, isActive, refresh, timing = REFIT_POLL_TIMING, now = () => new Date() }: LiveSource<T>): Observable<LiveReading<T>> {
+export function pollWhileActive<T>({
+  read,
+  isActive,
+  refresh,
+  timing = REFIT_POLL_TIMING,
+  now = () => new Date(),
+}: LiveSource<T>): Observable<LiveReading<T>> {
   const readOnce = (previous: LiveReading<T> | null): Observable<LiveReading<T>> =>
     read().pipe(
       map((value): LiveReading<T> => {
@@ -64,14 +70,23 @@ export function pollWhileActive<T>({ read, isActive, refresh, timing = REFIT_POL
       catchError((error: unknown) => {
         const failures = previous?.state === 'failed' ? previous.failures + 1 : 1;
         const lastValue = previous?.state === 'answered' ? previous.value : previous?.state === 'failed' ? previous.lastValue : null;
-        return of<LiveReading<T>>({ state: 'failed', problem: messageOf(error), failures, lastValue, checkedAt: now(), nextInMs: retryDelay(failures, timing) });
+        return of<LiveReading<T>>({
+          state: 'failed',
+          problem: messageOf(error),
+          failures,
+          lastValue,
+          checkedAt: now(),
+          nextInMs: retryDelay(failures, timing),
+        });
       }),
     );
   return refresh.pipe(
     startWith(undefined),
     switchMap(() =>
       readOnce(null).pipe(
-        expand((reading) => (reading.state === 'loading' ? of<LiveReading<T>>() : timer(reading.nextInMs).pipe(switchMap(() => readOnce(reading))))),
+        expand((reading) =>
+          reading.state === 'loading' ? of<LiveReading<T>>() : timer(reading.nextInMs).pipe(switchMap(() => readOnce(reading))),
+        ),
       ),
     ),
     startWith<LiveReading<T>>({ state: 'loading' }),

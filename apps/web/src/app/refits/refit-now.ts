@@ -44,7 +44,9 @@ type ScopeKind = RefitScope['kind'];
         Refit now
       </button>
       @if (problem(); as message) {
-        <p class="notice problem" role="alert"><mat-icon aria-hidden="true">error</mat-icon><span>{{ message }}</span></p>
+        <p class="notice problem" role="alert">
+          <mat-icon aria-hidden="true">error</mat-icon><span>{{ message }}</span>
+        </p>
       }
     </form>
   `,

@@ -63,8 +63,11 @@ export class Refits {
   protected readonly cadence = computed(() => {
     const reading = this.reading();
     if (reading.state === 'loading') return 'Reading…';
-    if (reading.state === 'failed') return `Could not read the refit status (${reading.failures} ${reading.failures === 1 ? 'try' : 'tries'}); trying again in ${reading.nextInMs / 1000} s`;
-    return reading.active ? `A run is going: updating every ${REFIT_POLL_TIMING.activeMs / 1000} s` : `Idle: checking every ${REFIT_POLL_TIMING.idleMs / 1000} s`;
+    if (reading.state === 'failed')
+      return `Could not read the refit status (${reading.failures} ${reading.failures === 1 ? 'try' : 'tries'}); trying again in ${reading.nextInMs / 1000} s`;
+    return reading.active
+      ? `A run is going: updating every ${REFIT_POLL_TIMING.activeMs / 1000} s`
+      : `Idle: checking every ${REFIT_POLL_TIMING.idleMs / 1000} s`;
   });
 
   protected readonly clock = clockText;
@@ -98,7 +101,9 @@ export class Refits {
         const id = this.chosenRunId() ?? runs[0]?.id ?? null;
         const detail: Observable<RefitRunDetail | null> = id === null ? of(null) : this.client.detail(id);
         // The detail is read after the list: its counts are the newer ones, so the chosen row shows them too.
-        return detail.pipe(map((found) => ({ runs: runs.map((run) => (found && run.id === found.id ? summaryOf(found) : run)), detail: found })));
+        return detail.pipe(
+          map((found) => ({ runs: runs.map((run) => (found && run.id === found.id ? summaryOf(found) : run)), detail: found })),
+        );
       }),
     );
   }

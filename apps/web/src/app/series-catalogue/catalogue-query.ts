@@ -1,4 +1,12 @@
-import { type SeriesKind, type SeriesLevel, type SeriesSortKey, archivedFilters, seriesKinds, seriesLevels, seriesSortKeys } from '@loadwright/contracts';
+import {
+  type SeriesKind,
+  type SeriesLevel,
+  type SeriesSortKey,
+  archivedFilters,
+  seriesKinds,
+  seriesLevels,
+  seriesSortKeys,
+} from '@loadwright/contracts';
 
 /** What the catalogue table asks for: the filters, the sort and the page, as the page holds them. */
 export interface CatalogueQuery {
@@ -67,7 +75,8 @@ export function queryToUrl(query: CatalogueQuery): Record<string, string | null>
 
 /** Reads a query back from the address bar; anything unknown falls back to the opening state. */
 export function queryFromUrl(params: { get(name: string): string | null }): CatalogueQuery {
-  const oneOf = <T extends string>(value: string | null, allowed: readonly T[]): T | null => (allowed.includes(value as T) ? (value as T) : null);
+  const oneOf = <T extends string>(value: string | null, allowed: readonly T[]): T | null =>
+    allowed.includes(value as T) ? (value as T) : null;
   const page = Number(params.get('page'));
   const size = Number(params.get('size'));
   return {

@@ -15,7 +15,12 @@ describe('networkTree', () => {
     const north = row('zone-north', 'zone', sys.id);
     const sub = row('sub-harrow', 'substation', north.id);
     const rows = [south, row('fdr-n1', 'feeder', sub.id), sub, row('wx-upland', null, null, 'temperature'), north, sys];
-    expect(networkTree(rows).map((n) => `${'  '.repeat(n.depth)}${n.key}`)).toEqual(['sys', '  zone-north', '    sub-harrow', '  zone-south']);
+    expect(networkTree(rows).map((n) => `${'  '.repeat(n.depth)}${n.key}`)).toEqual([
+      'sys',
+      '  zone-north',
+      '    sub-harrow',
+      '  zone-south',
+    ]);
   });
 
   it('starts a tree of its own for a node whose parent is not listed (e.g. archived)', () => {

@@ -22,7 +22,8 @@ export function networkTree(series: readonly SeriesSummary[]): NetworkNode[] {
     const parent = s.parentId !== null && ids.has(s.parentId) ? s.parentId : null;
     children.set(parent, [...(children.get(parent) ?? []), s]);
   }
-  const order = (a: SeriesSummary, b: SeriesSummary) => seriesLevelDepth[a.level!] - seriesLevelDepth[b.level!] || a.key.localeCompare(b.key);
+  const order = (a: SeriesSummary, b: SeriesSummary) =>
+    seriesLevelDepth[a.level!] - seriesLevelDepth[b.level!] || a.key.localeCompare(b.key);
   const nodes: NetworkNode[] = [];
   const visit = (parent: number | null, depth: number) => {
     for (const s of [...(children.get(parent) ?? [])].sort(order)) {

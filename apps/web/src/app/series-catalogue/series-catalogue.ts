@@ -108,7 +108,9 @@ export class SeriesCatalogue {
     ...(this.canEdit() ? ['actions'] : []),
   ]);
   /** The table's sort state in Material's terms. */
-  protected readonly sortColumn = computed(() => Object.entries(sortableColumns).find(([, key]) => key === this.query().sort)?.[0] ?? 'key');
+  protected readonly sortColumn = computed(
+    () => Object.entries(sortableColumns).find(([, key]) => key === this.query().sort)?.[0] ?? 'key',
+  );
   /** The hierarchy node filtered on, for the page heading. */
   protected readonly underNode = computed(() => this.network().find((node) => node.key === this.query().under) ?? null);
   /** Choices of the pickers. */
@@ -127,7 +129,12 @@ export class SeriesCatalogue {
     this.route.queryParamMap
       .pipe(
         map(queryFromUrl),
-        switchMap((query) => this.reload.pipe(map(() => query), startWith(query))),
+        switchMap((query) =>
+          this.reload.pipe(
+            map(() => query),
+            startWith(query),
+          ),
+        ),
         tap(() => this.loading.set(true)),
         switchMap((query) =>
           this.client.list(query).pipe(
@@ -145,7 +152,9 @@ export class SeriesCatalogue {
           this.stats.set(new Map());
         }),
         // Reading counts come per series; a new page cancels the counts still on their way.
-        switchMap((page) => of(...page.items).pipe(mergeMap((series) => this.client.get(series.id).pipe(catchError(() => EMPTY)), statsConcurrency))),
+        switchMap((page) =>
+          of(...page.items).pipe(mergeMap((series) => this.client.get(series.id).pipe(catchError(() => EMPTY)), statsConcurrency)),
+        ),
         takeUntilDestroyed(),
       )
       .subscribe((detail: SeriesDetail) => this.stats.update((stats) => new Map(stats).set(detail.id, detail.readings)));
@@ -168,7 +177,7 @@ export class SeriesCatalogue {
 
   /** Puts a changed filter, sort or page into the address bar (filters go back to the first page). */
   protected change(patch: Partial<CatalogueQuery>): void {
-    const next = { ...this.query(), ...(('pageIndex' in patch) ? {} : { pageIndex: 0 }), ...patch };
+    const next = { ...this.query(), ...('pageIndex' in patch ? {} : { pageIndex: 0 }), ...patch };
     void this.router.navigate([], { relativeTo: this.route, queryParams: queryToUrl(next), replaceUrl: true });
   }
 
@@ -234,7 +243,10 @@ export class SeriesCatalogue {
   /** Opens the add/edit dialog and reloads the page after a save. */
   private openForm(series: SeriesSummary | null): void {
     const system = this.network().find((node) => node.level === 'system');
-    const defaultTimeZone = this.page()?.items.find((s) => s.id === system?.id)?.timeZone ?? this.page()?.items[0]?.timeZone ?? Intl.DateTimeFormat().resolvedOptions().timeZone;
+    const defaultTimeZone =
+      this.page()?.items.find((s) => s.id === system?.id)?.timeZone ??
+      this.page()?.items[0]?.timeZone ??
+      Intl.DateTimeFormat().resolvedOptions().timeZone;
     this.dialog
       .open<SeriesFormDialog, SeriesDialogData, SeriesDetail>(SeriesFormDialog, {
         data: { series, network: this.network(), stations: this.stations(), defaultTimeZone },

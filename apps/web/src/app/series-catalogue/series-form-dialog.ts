@@ -40,7 +40,13 @@ export interface SeriesDialogData {
 const schemaErrorKey = 'schema';
 
 /** Words for the interval choices. */
-const intervalLabels: Record<number, string> = { 5: '5 minutes', 15: '15 minutes', 30: '30 minutes', 60: 'Hourly (60 minutes)', 1440: 'Daily' };
+const intervalLabels: Record<number, string> = {
+  5: '5 minutes',
+  15: '15 minutes',
+  30: '30 minutes',
+  60: 'Hourly (60 minutes)',
+  1440: 'Daily',
+};
 
 /** Adds or edits a series in the catalogue; checks the shared schema first, then shows the server's refusals on their fields. */
 @Component({
@@ -57,7 +63,9 @@ export class SeriesFormDialog {
   protected readonly data = inject<SeriesDialogData>(MAT_DIALOG_DATA);
 
   /** The form, filled from the series being edited or with a new hourly feeder. */
-  protected readonly form = inject(NonNullableFormBuilder).group<SeriesFormValue>(this.data.series ? seriesToForm(this.data.series) : newSeriesForm(this.data.defaultTimeZone));
+  protected readonly form = inject(NonNullableFormBuilder).group<SeriesFormValue>(
+    this.data.series ? seriesToForm(this.data.series) : newSeriesForm(this.data.defaultTimeZone),
+  );
   /** True when editing an existing series. */
   protected readonly editing = this.data.series !== null;
   /** Choices for the pickers. */
@@ -71,8 +79,12 @@ export class SeriesFormDialog {
   /** A refusal that belongs to no single field. */
   protected readonly problem = signal<string | null>(null);
 
-  private readonly kind = toSignal(this.form.controls.kind.valueChanges.pipe(startWith(this.form.controls.kind.value)), { requireSync: true });
-  private readonly level = toSignal(this.form.controls.level.valueChanges.pipe(startWith(this.form.controls.level.value)), { requireSync: true });
+  private readonly kind = toSignal(this.form.controls.kind.valueChanges.pipe(startWith(this.form.controls.kind.value)), {
+    requireSync: true,
+  });
+  private readonly level = toSignal(this.form.controls.level.valueChanges.pipe(startWith(this.form.controls.level.value)), {
+    requireSync: true,
+  });
   /** True for a load series: it has a level, a parent and may link a weather station. */
   protected readonly isLoad = computed(() => this.kind() === 'load');
   /** Units the chosen kind may be stored in. */

@@ -36,7 +36,15 @@ describe('formIssues (the shared schema)', () => {
 
 describe('formToRequest', () => {
   it('drops level, parent and station for a temperature series and turns blank text into null', () => {
-    const request = formToRequest({ ...newSeriesForm('UTC'), key: 'wx-new', name: 'New station', kind: 'temperature', unit: 'degF', parentId: 3, temperatureSeriesId: 1 });
+    const request = formToRequest({
+      ...newSeriesForm('UTC'),
+      key: 'wx-new',
+      name: 'New station',
+      kind: 'temperature',
+      unit: 'degF',
+      parentId: 3,
+      temperatureSeriesId: 1,
+    });
     expect(request).toMatchObject({ level: null, parentId: null, temperatureSeriesId: null, peerGroup: null, description: null });
   });
 });

@@ -39,7 +39,10 @@ export class AdjustmentsPanel {
     to: new FormControl('', { nonNullable: true, validators: [Validators.required] }),
     kind: new FormControl<AdjustmentKind>('shift', { nonNullable: true }),
     amount: new FormControl<number | null>(null, { validators: [Validators.required] }),
-    reason: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.minLength(5), Validators.maxLength(500)] }),
+    reason: new FormControl('', {
+      nonNullable: true,
+      validators: [Validators.required, Validators.minLength(5), Validators.maxLength(500)],
+    }),
   });
   /** True while a request is on its way. */
   protected readonly busy = signal(false);
@@ -57,7 +60,10 @@ export class AdjustmentsPanel {
       const version = this.version();
       const zone = this.series().timeZone;
       if (this.form.controls.from.value) return;
-      this.form.patchValue({ from: localOfInstant(version.origin, zone), to: localOfInstant(new Date(Date.parse(version.origin) + 24 * 3_600_000).toISOString(), zone) });
+      this.form.patchValue({
+        from: localOfInstant(version.origin, zone),
+        to: localOfInstant(new Date(Date.parse(version.origin) + 24 * 3_600_000).toISOString(), zone),
+      });
     });
   }
 
@@ -81,19 +87,25 @@ export class AdjustmentsPanel {
     }
     this.busy.set(true);
     this.problem.set(null);
-    this.client.addAdjustment(this.version().id, { from, to, kind: value.kind, amount: Number(value.amount), reason: value.reason }).subscribe({
-      next: () => {
-        this.busy.set(false);
-        this.form.controls.reason.reset('');
-        this.form.controls.amount.reset(null);
-        this.changed.emit();
-      },
-      error: (error: unknown) => {
-        this.busy.set(false);
-        const unplaced = error instanceof ApiProblem ? applyFieldErrors(this.form, error) : [];
-        this.problem.set(error instanceof ApiProblem && error.fieldErrors.length && !unplaced.length ? null : [problemMessage(error), ...unplaced].join(' '));
-      },
-    });
+    this.client
+      .addAdjustment(this.version().id, { from, to, kind: value.kind, amount: Number(value.amount), reason: value.reason })
+      .subscribe({
+        next: () => {
+          this.busy.set(false);
+          this.form.controls.reason.reset('');
+          this.form.controls.amount.reset(null);
+          this.changed.emit();
+        },
+        error: (error: unknown) => {
+          this.busy.set(false);
+          const unplaced = error instanceof ApiProblem ? applyFieldErrors(this.form, error) : [];
+          this.problem.set(
+            error instanceof ApiProblem && error.fieldErrors.length && !unplaced.length
+              ? null
+              : [problemMessage(error), ...unplaced].join(' '),
+          );
+        },
+      });
   }
 
   /** Removes one adjustment. */

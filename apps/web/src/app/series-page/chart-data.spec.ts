@@ -2,7 +2,17 @@ import type { ForecastPoint, ForecastReview, ForecastVersion, ReadingHistory } f
 import { describe, expect, it } from 'vitest';
 import { fanChartData, historyChartData, horizonPeak, methodName, peakRows, peakShiftText } from './chart-data';
 
-const base = { seriesId: 1, key: 'sys', unit: 'MW', intervalMinutes: 60, timeZone: 'America/Chicago', from: '2026-01-01T00:00:00.000Z', to: '2026-01-01T03:00:00.000Z', readingCount: 3, qualitySummary: {} } as const;
+const base = {
+  seriesId: 1,
+  key: 'sys',
+  unit: 'MW',
+  intervalMinutes: 60,
+  timeZone: 'America/Chicago',
+  from: '2026-01-01T00:00:00.000Z',
+  to: '2026-01-01T03:00:00.000Z',
+  readingCount: 3,
+  qualitySummary: {},
+} as const;
 
 describe('historyChartData', () => {
   it('charts the value to use and marks flagged readings where their raw value was', () => {
@@ -27,9 +37,25 @@ describe('historyChartData', () => {
     const history: ReadingHistory = {
       ...base,
       resolution: 'day',
-      buckets: [{ ts: '2026-01-01T06:00:00.000Z', day: '2026-01-01', mean: 90, min: 80, max: 120, meanUsed: 95, count: 24, estimatedCount: 1, quality: 8, flags: ['flatLine'] }],
+      buckets: [
+        {
+          ts: '2026-01-01T06:00:00.000Z',
+          day: '2026-01-01',
+          mean: 90,
+          min: 80,
+          max: 120,
+          meanUsed: 95,
+          count: 24,
+          estimatedCount: 1,
+          quality: 8,
+          flags: ['flatLine'],
+        },
+      ],
     };
-    expect(historyChartData(history)).toEqual({ line: [{ x: Date.parse('2026-01-01T06:00:00.000Z'), y: 95 }], markers: [{ flag: 'flatLine', label: 'Flat line', points: [{ x: Date.parse('2026-01-01T06:00:00.000Z'), y: 95 }] }] });
+    expect(historyChartData(history)).toEqual({
+      line: [{ x: Date.parse('2026-01-01T06:00:00.000Z'), y: 95 }],
+      markers: [{ flag: 'flatLine', label: 'Flat line', points: [{ x: Date.parse('2026-01-01T06:00:00.000Z'), y: 95 }] }],
+    });
   });
 });
 
@@ -42,10 +68,21 @@ const point = (ts: string, mean: number, adjusted: number | null = null): Foreca
   lower95: mean - 20,
   upper95: mean + 20,
   stdError: 7.8,
-  adjusted: adjusted === null ? null : { mean: adjusted, lower80: adjusted - 10, upper80: adjusted + 10, lower95: adjusted - 20, upper95: adjusted + 20 },
+  adjusted:
+    adjusted === null
+      ? null
+      : { mean: adjusted, lower80: adjusted - 10, upper80: adjusted + 10, lower95: adjusted - 20, upper95: adjusted + 20 },
 });
 
-const peak = (date: string, localTime: string, value: number) => ({ date, ts: `${date}T23:00:00.000Z`, localTime, utcOffset: '-06:00', value, intervals: 24, complete: true });
+const peak = (date: string, localTime: string, value: number) => ({
+  date,
+  ts: `${date}T23:00:00.000Z`,
+  localTime,
+  utcOffset: '-06:00',
+  value,
+  intervals: 24,
+  complete: true,
+});
 
 const version = (state: 'draft' | 'approved', points: ForecastPoint[], dailyPeaks = [peak('2026-01-02', '17:00', 500)]) =>
   ({ id: state === 'draft' ? 2 : 1, state, points, dailyPeaks, adjustments: [] }) as unknown as ForecastVersion;
@@ -69,7 +106,12 @@ describe('fanChartData', () => {
   });
 
   it('shows the approved version alone when no draft waits', () => {
-    const review = { draft: null, approved: version('approved', [point('2026-01-02T00:00:00.000Z', 90)]), actuals: { points: [], dailyPeaks: [] }, comparison: null } as unknown as ForecastReview;
+    const review = {
+      draft: null,
+      approved: version('approved', [point('2026-01-02T00:00:00.000Z', 90)]),
+      actuals: { points: [], dailyPeaks: [] },
+      comparison: null,
+    } as unknown as ForecastReview;
     const fan = fanChartData(review);
     expect(fan.mean.map((p) => p.y)).toEqual([90]);
     expect(fan.approved).toEqual([]);
@@ -83,7 +125,11 @@ describe('peaks', () => {
       draft: version('draft', [], [peak('2026-01-02', '17:00', 520), peak('2026-01-03', '18:00', 530)]),
       approved: version('approved', [], [peak('2026-01-01', '17:00', 480), peak('2026-01-02', '16:00', 500)]),
       actuals: { points: [], dailyPeaks: [peak('2026-01-01', '17:00', 470)] },
-      comparison: { intervals: [], energy: {}, dailyPeaks: [{ date: '2026-01-02', draft: null, approved: null, difference: 20, differencePercent: 4, peakShiftMinutes: 60 }] },
+      comparison: {
+        intervals: [],
+        energy: {},
+        dailyPeaks: [{ date: '2026-01-02', draft: null, approved: null, difference: 20, differencePercent: 4, peakShiftMinutes: 60 }],
+      },
     } as unknown as ForecastReview;
     const rows = peakRows(review);
     expect(rows.map((r) => [r.date, r.draft?.value ?? null, r.approved?.value ?? null, r.actual?.value ?? null, r.difference])).toEqual([

@@ -55,7 +55,9 @@ export function historyChartData(history: ReadingHistory): HistoryChartData {
       byFlag.set(flag, list);
     }
   }
-  const markers = markedFlags.filter((flag) => byFlag.has(flag)).map((flag) => ({ flag, label: qualityFlagLabels[flag], points: byFlag.get(flag)! }));
+  const markers = markedFlags
+    .filter((flag) => byFlag.has(flag))
+    .map((flag) => ({ flag, label: qualityFlagLabels[flag], points: byFlag.get(flag)! }));
   return { line, markers };
 }
 
@@ -113,7 +115,8 @@ export interface PeakRow {
 /** Peaks per local day of the draft, the approved version and the actuals so far, in date order. */
 export function peakRows(review: ForecastReview): PeakRow[] {
   const dates = new Set<string>();
-  const byDate = (peaks: readonly DailyPeak[] | undefined) => new Map((peaks ?? []).map((peak) => (dates.add(peak.date), [peak.date, peak])));
+  const byDate = (peaks: readonly DailyPeak[] | undefined) =>
+    new Map((peaks ?? []).map((peak) => (dates.add(peak.date), [peak.date, peak])));
   const draft = byDate(review.draft?.dailyPeaks);
   const approved = byDate(review.approved?.dailyPeaks);
   const actual = new Map(review.actuals.dailyPeaks.map((peak) => [peak.date, peak]));

@@ -56,7 +56,10 @@ export function timeChartOptions(timeZone: string, unit: string, daily: boolean)
         // Ticks at the series' local midnights, labelled in its zone, whatever zone the browser is in.
         afterBuildTicks: (axis) => {
           const ticks = localTicks(axis.min, axis.max, timeZone);
-          axis.ticks = ticks.values.map((value) => ({ value, label: ticks.label === 'day' ? zonedLabel(value, timeZone, false, 'day') : zonedLabel(value, timeZone, false, 'month') }));
+          axis.ticks = ticks.values.map((value) => ({
+            value,
+            label: ticks.label === 'day' ? zonedLabel(value, timeZone, false, 'day') : zonedLabel(value, timeZone, false, 'month'),
+          }));
         },
         ticks: { maxRotation: 0, autoSkip: false, color: '#3f484a', callback: (_value, index, ticks) => String(ticks[index]?.label ?? '') },
         title: { display: true, text: `Local time (${timeZone})`, color: '#3f484a' },

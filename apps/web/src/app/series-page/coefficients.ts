@@ -44,7 +44,8 @@ export function coefficientRows(parameters: Record<string, unknown>): { rows: Co
   });
   const maErrors = numbers(errors['ma']);
   (numbers(parameters['ma']) ?? []).forEach((value, index) => {
-    if (value !== null) rows.push({ name: `${symbol('θ', index + 1)} (MA lag ${index + 1})`, value, standardError: maErrors?.[index] ?? null });
+    if (value !== null)
+      rows.push({ name: `${symbol('θ', index + 1)} (MA lag ${index + 1})`, value, standardError: maErrors?.[index] ?? null });
   });
   const regression = (parameters['regression'] ?? {}) as Record<string, unknown>;
   const names = Array.isArray(regression['names']) ? (regression['names'] as unknown[]).map(String) : [];

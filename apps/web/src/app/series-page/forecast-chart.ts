@@ -42,18 +42,63 @@ export class ForecastChart {
     const hidden = { pointRadius: 0, borderWidth: 0, pointStyle: false as const };
     const datasets: ChartDataset<'line'>[] = [
       { label: '95 % lower', data: fan.lower95, ...hidden, fill: false },
-      { label: `${name}: 95 % interval (light fill)`, data: fan.upper95, ...hidden, fill: '-1', backgroundColor: chartColours.band95, pointStyle: 'rect' },
+      {
+        label: `${name}: 95 % interval (light fill)`,
+        data: fan.upper95,
+        ...hidden,
+        fill: '-1',
+        backgroundColor: chartColours.band95,
+        pointStyle: 'rect',
+      },
       { label: '80 % lower', data: fan.lower80, ...hidden, fill: false },
-      { label: `${name}: 80 % interval (darker fill)`, data: fan.upper80, ...hidden, fill: '-1', backgroundColor: chartColours.band80, pointStyle: 'rect' },
-      { label: `${name}: model mean (solid)`, data: fan.mean, borderColor: chartColours.forecast, borderWidth: 2, pointRadius: 0, pointStyle: 'line' },
+      {
+        label: `${name}: 80 % interval (darker fill)`,
+        data: fan.upper80,
+        ...hidden,
+        fill: '-1',
+        backgroundColor: chartColours.band80,
+        pointStyle: 'rect',
+      },
+      {
+        label: `${name}: model mean (solid)`,
+        data: fan.mean,
+        borderColor: chartColours.forecast,
+        borderWidth: 2,
+        pointRadius: 0,
+        pointStyle: 'line',
+      },
     ];
     if (fan.hasAdjustments) {
-      datasets.push({ label: `${name}: adjusted mean (dotted)`, data: fan.adjusted, borderColor: chartColours.adjusted, borderWidth: 2.5, borderDash: [2, 3], pointRadius: 0, pointStyle: 'line', spanGaps: false });
+      datasets.push({
+        label: `${name}: adjusted mean (dotted)`,
+        data: fan.adjusted,
+        borderColor: chartColours.adjusted,
+        borderWidth: 2.5,
+        borderDash: [2, 3],
+        pointRadius: 0,
+        pointStyle: 'line',
+        spanGaps: false,
+      });
     }
     if (fan.approved.length) {
-      datasets.push({ label: 'Approved (dashed)', data: fan.approved, borderColor: chartColours.approved, borderWidth: 2, borderDash: [8, 5], pointRadius: 0, pointStyle: 'line' });
+      datasets.push({
+        label: 'Approved (dashed)',
+        data: fan.approved,
+        borderColor: chartColours.approved,
+        borderWidth: 2,
+        borderDash: [8, 5],
+        pointRadius: 0,
+        pointStyle: 'line',
+      });
     }
-    datasets.push({ label: 'Actual load', data: fan.actuals, borderColor: chartColours.actual, borderWidth: 2, pointRadius: 0, pointStyle: 'line' });
+    datasets.push({
+      label: 'Actual load',
+      data: fan.actuals,
+      borderColor: chartColours.actual,
+      borderWidth: 2,
+      pointRadius: 0,
+      pointStyle: 'line',
+    });
     return { datasets };
   });
 

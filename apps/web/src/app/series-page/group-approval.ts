@@ -37,7 +37,9 @@ export class GroupApproval {
   protected readonly problem = signal<string | null>(null);
   /** Rows with a draft, largest peak change first. */
   protected readonly rows = computed(() =>
-    [...(this.preview()?.items ?? [])].filter((item) => item.draft).sort((a, b) => Math.abs(b.peakDifferencePercent ?? 0) - Math.abs(a.peakDifferencePercent ?? 0)),
+    [...(this.preview()?.items ?? [])]
+      .filter((item) => item.draft)
+      .sort((a, b) => Math.abs(b.peakDifferencePercent ?? 0) - Math.abs(a.peakDifferencePercent ?? 0)),
   );
 
   protected readonly amount = withUnit;
@@ -65,7 +67,8 @@ export class GroupApproval {
     if (!preview?.versionIds.length) return;
     confirmAction(this.dialog, {
       title: `Approve ${preview.versionIds.length} drafts of ${this.series().name} and below?`,
-      consequence: 'Each draft becomes the forecast handed on for its series and supersedes the version approved before it. All are approved together, or none if one changed meanwhile.',
+      consequence:
+        'Each draft becomes the forecast handed on for its series and supersedes the version approved before it. All are approved together, or none if one changed meanwhile.',
       confirmLabel: `Approve ${preview.versionIds.length} drafts`,
     })
       .pipe(

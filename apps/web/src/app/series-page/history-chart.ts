@@ -36,7 +36,10 @@ const flagStyles: Record<QualityFlagName, { style: PointStyle; colour: string }>
 };
 
 /** The state of the chart's data. */
-type HistoryState = { readonly state: 'loading' } | { readonly state: 'ready'; readonly history: ReadingHistory } | { readonly state: 'failed'; readonly problem: string };
+type HistoryState =
+  | { readonly state: 'loading' }
+  | { readonly state: 'ready'; readonly history: ReadingHistory }
+  | { readonly state: 'failed'; readonly problem: string };
 
 /** A series' reading history over a chosen range, with quality flags as markers. */
 @Component({
@@ -85,7 +88,14 @@ export class HistoryChart {
     const { line, markers } = historyChartData(history);
     return {
       datasets: [
-        { label: `Load (${history.resolution === 'day' ? 'daily mean' : history.resolution === 'hour' ? 'hourly mean' : 'each reading'})`, data: line, borderColor: chartColours.actual, borderWidth: 1.25, pointRadius: 0, pointStyle: 'line' },
+        {
+          label: `Load (${history.resolution === 'day' ? 'daily mean' : history.resolution === 'hour' ? 'hourly mean' : 'each reading'})`,
+          data: line,
+          borderColor: chartColours.actual,
+          borderWidth: 1.25,
+          pointRadius: 0,
+          pointStyle: 'line',
+        },
         ...markers.map((marker) => ({
           label: `${marker.label} (${marker.points.length})`,
           data: marker.points,

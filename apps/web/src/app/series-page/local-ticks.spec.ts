@@ -13,7 +13,11 @@ describe('localTicks', () => {
 
   it('keeps midnights across a clock change (23-hour spring-forward day)', () => {
     const ticks = localTicks(Date.parse('2026-03-07T12:00:00Z'), Date.parse('2026-03-10T12:00:00Z'), chicago);
-    expect(ticks.values.map((v) => new Date(v).toISOString())).toEqual(['2026-03-08T06:00:00.000Z', '2026-03-09T05:00:00.000Z', '2026-03-10T05:00:00.000Z']);
+    expect(ticks.values.map((v) => new Date(v).toISOString())).toEqual([
+      '2026-03-08T06:00:00.000Z',
+      '2026-03-09T05:00:00.000Z',
+      '2026-03-10T05:00:00.000Z',
+    ]);
   });
 
   it('thins out over a month and switches to month starts over a year', () => {

@@ -43,11 +43,27 @@ export class ModelCard {
   protected readonly acfData = computed<ChartData<'bar' | 'line'>>(() => {
     const { residualAcf, acfBand } = this.fit().diagnostics;
     const labels = residualAcf.map((_, index) => String(index + 1));
-    const line = (value: number, label: string) => ({ type: 'line' as const, label, data: labels.map(() => value), borderColor: '#ba1a1a', borderWidth: 1.5, borderDash: [6, 4], pointRadius: 0, pointStyle: 'line' as const });
+    const line = (value: number, label: string) => ({
+      type: 'line' as const,
+      label,
+      data: labels.map(() => value),
+      borderColor: '#ba1a1a',
+      borderWidth: 1.5,
+      borderDash: [6, 4],
+      pointRadius: 0,
+      pointStyle: 'line' as const,
+    });
     return {
       labels,
       datasets: [
-        { type: 'bar' as const, label: 'Residual autocorrelation', data: residualAcf, backgroundColor: chartColours.forecast, barPercentage: 0.6, pointStyle: 'rect' as const },
+        {
+          type: 'bar' as const,
+          label: 'Residual autocorrelation',
+          data: residualAcf,
+          backgroundColor: chartColours.forecast,
+          barPercentage: 0.6,
+          pointStyle: 'rect' as const,
+        },
         line(acfBand, `±1.96/√n = ±${acfBand.toFixed(3)} (dashed)`),
         line(-acfBand, 'lower band'),
       ],
@@ -60,8 +76,17 @@ export class ModelCard {
     maintainAspectRatio: false,
     animation: false,
     scales: {
-      x: { title: { display: true, text: 'Lag (hours)', color: '#3f484a' }, ticks: { color: '#3f484a', autoSkipPadding: 8 }, grid: { display: false } },
-      y: { title: { display: true, text: 'Autocorrelation', color: '#3f484a' }, ticks: { color: '#3f484a' }, suggestedMin: -0.2, suggestedMax: 0.2 },
+      x: {
+        title: { display: true, text: 'Lag (hours)', color: '#3f484a' },
+        ticks: { color: '#3f484a', autoSkipPadding: 8 },
+        grid: { display: false },
+      },
+      y: {
+        title: { display: true, text: 'Autocorrelation', color: '#3f484a' },
+        ticks: { color: '#3f484a' },
+        suggestedMin: -0.2,
+        suggestedMax: 0.2,
+      },
     },
     plugins: {
       legend: { position: 'bottom', labels: { usePointStyle: true, color: '#1b1f24', filter: (item) => item.text !== 'lower band' } },

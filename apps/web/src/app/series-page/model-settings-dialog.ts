@@ -7,7 +7,15 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
-import { type ModelMethod, type ModelSettings, type ModelSettingsRequest, type SeasonalTreatment, modelMethodLabels, modelMethods, modelSettingsRequestSchema } from '@loadwright/contracts';
+import {
+  type ModelMethod,
+  type ModelSettings,
+  type ModelSettingsRequest,
+  type SeasonalTreatment,
+  modelMethodLabels,
+  modelMethods,
+  modelSettingsRequestSchema,
+} from '@loadwright/contracts';
 import { ApiProblem, problemMessage } from '../core/problems/api-problem';
 import { applyFieldErrors, serverError } from '../core/problems/field-errors';
 import { SeriesPageClient } from './series-page-client';
@@ -16,7 +24,11 @@ import { SeriesPageClient } from './series-page-client';
 const seasonalChoices: { key: string; label: string; value: SeasonalTreatment }[] = [
   { key: 'none', label: 'None', value: { kind: 'none' } },
   { key: 'how-add', label: 'Hour-of-week profile, additive', value: { kind: 'profile', slot: 'hour-of-week', form: 'additive' } },
-  { key: 'how-mul', label: 'Hour-of-week profile, multiplicative', value: { kind: 'profile', slot: 'hour-of-week', form: 'multiplicative' } },
+  {
+    key: 'how-mul',
+    label: 'Hour-of-week profile, multiplicative',
+    value: { kind: 'profile', slot: 'hour-of-week', form: 'multiplicative' },
+  },
   { key: 'hod-add', label: 'Hour-of-day profile, additive', value: { kind: 'profile', slot: 'hour-of-day', form: 'additive' } },
   { key: 'hod-mul', label: 'Hour-of-day profile, multiplicative', value: { kind: 'profile', slot: 'hour-of-day', form: 'multiplicative' } },
   { key: 'diff-24', label: 'Differencing at 24 hours', value: { kind: 'difference', lag: 24 } },
@@ -42,7 +54,16 @@ function optionalInteger(value: string | number | null): number | null {
 /** A series' model settings (planners, admins), checked with the shared schema before sending; server errors land on their fields. */
 @Component({
   selector: 'lw-model-settings-dialog',
-  imports: [ReactiveFormsModule, MatButtonModule, MatCheckboxModule, MatDialogModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule],
+  imports: [
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatSelectModule,
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './model-settings-dialog.html',
   styleUrl: './model-settings-dialog.scss',

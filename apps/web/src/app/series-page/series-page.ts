@@ -6,7 +6,16 @@ import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
-import { type ApprovalResult, type FitSummary, type ForecastReview, type ForecastVersionPage, type ModelSettings, type SeriesDetail, forecastExportPath, modelMethodLabels } from '@loadwright/contracts';
+import {
+  type ApprovalResult,
+  type FitSummary,
+  type ForecastReview,
+  type ForecastVersionPage,
+  type ModelSettings,
+  type SeriesDetail,
+  forecastExportPath,
+  modelMethodLabels,
+} from '@loadwright/contracts';
 import { provideCharts, withDefaultRegisterables } from 'ng2-charts';
 import { type Observable, Subject, catchError, combineLatest, filter, forkJoin, map, of, startWith, switchMap } from 'rxjs';
 import { SessionStore } from '../core/auth/session-store';
@@ -37,13 +46,26 @@ type PageState =
     };
 
 /** Reads an optional part of the page: null when the series has none yet (404) or it fails. */
-const optional = <T,>(source: Observable<T>): Observable<T | null> => source.pipe(catchError(() => of(null)));
+const optional = <T>(source: Observable<T>): Observable<T | null> => source.pipe(catchError(() => of(null)));
 
 /** One series: history, forecast fan chart with 80/95 % bands, peaks, adjustments, approval, export, model card, versions. */
 @Component({
   selector: 'lw-series-page',
-  imports: [DecimalPipe, RouterLink, MatButtonModule, MatButtonToggleModule, MatIconModule, AdjustmentsPanel, ForecastChart, GroupApproval, HistoryChart, ModelCard],
-  providers: [provideCharts(withDefaultRegisterables(), { defaults: { font: { family: "'Source Sans 3', system-ui, sans-serif", size: 13 } } })],
+  imports: [
+    DecimalPipe,
+    RouterLink,
+    MatButtonModule,
+    MatButtonToggleModule,
+    MatIconModule,
+    AdjustmentsPanel,
+    ForecastChart,
+    GroupApproval,
+    HistoryChart,
+    ModelCard,
+  ],
+  providers: [
+    provideCharts(withDefaultRegisterables(), { defaults: { font: { family: "'Source Sans 3', system-ui, sans-serif", size: 13 } } }),
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './series-page.html',
   styleUrl: './series-page.scss',
@@ -133,7 +155,9 @@ export class SeriesPage {
     const review = this.data()?.review;
     const draft = review?.draft;
     if (!review || !draft) return;
-    const adjustments = draft.adjustments.length ? ` with ${draft.adjustments.length} adjustment${draft.adjustments.length === 1 ? '' : 's'}` : '';
+    const adjustments = draft.adjustments.length
+      ? ` with ${draft.adjustments.length} adjustment${draft.adjustments.length === 1 ? '' : 's'}`
+      : '';
     confirmAction(this.dialog, {
       title: `Approve the draft of ${review.series.name}?`,
       consequence: `The draft issued ${zonedClock(draft.issuedAt, review.series.timeZone)}${adjustments} becomes the forecast handed on in exports and the API${review.approved ? ', and the version approved before it is superseded' : ''}. Approved versions cannot be changed.`,
@@ -165,7 +189,11 @@ export class SeriesPage {
     const data = this.data();
     if (!data?.settings) return;
     this.dialog
-      .open<ModelSettingsDialog, ModelSettingsDialogData, ModelSettings>(ModelSettingsDialog, { data: { seriesId: data.series.id, settings: data.settings }, width: '620px', autoFocus: 'first-tabbable' })
+      .open<ModelSettingsDialog, ModelSettingsDialogData, ModelSettings>(ModelSettingsDialog, {
+        data: { seriesId: data.series.id, settings: data.settings },
+        width: '620px',
+        autoFocus: 'first-tabbable',
+      })
       .afterClosed()
       .pipe(filter((saved): saved is ModelSettings => !!saved))
       .subscribe((saved) => {

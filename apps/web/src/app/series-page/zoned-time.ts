@@ -19,7 +19,15 @@ export function instantOfLocal(local: string, timeZone: string): string | null {
 /** The wall-clock time `YYYY-MM-DDTHH:mm` of an instant in an IANA time zone, for `datetime-local` inputs. */
 export function localOfInstant(iso: string, timeZone: string): string {
   const parts = Object.fromEntries(
-    new Intl.DateTimeFormat('en-GB', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', hourCycle: 'h23' })
+    new Intl.DateTimeFormat('en-GB', {
+      timeZone,
+      year: 'numeric',
+      month: '2-digit',
+      day: '2-digit',
+      hour: '2-digit',
+      minute: '2-digit',
+      hourCycle: 'h23',
+    })
       .formatToParts(new Date(iso))
       .map((part) => [part.type, part.value]),
   );
@@ -28,12 +36,25 @@ export function localOfInstant(iso: string, timeZone: string): string {
 
 /** "Tue 2 Dec 17:00 CST": an instant as a planner reads it in the series' time zone, zone named. */
 export function zonedClock(iso: string, timeZone: string): string {
-  return new Intl.DateTimeFormat('en-US', { timeZone, weekday: 'short', day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit', hourCycle: 'h23', timeZoneName: 'short' })
+  return new Intl.DateTimeFormat('en-US', {
+    timeZone,
+    weekday: 'short',
+    day: 'numeric',
+    month: 'short',
+    hour: '2-digit',
+    minute: '2-digit',
+    hourCycle: 'h23',
+    timeZoneName: 'short',
+  })
     .format(new Date(iso))
     .replace(/,/g, '');
 }
 
 /** The short name of a time zone at an instant, e.g. "CST" or "GMT-6". */
 export function zoneAbbreviation(iso: string, timeZone: string): string {
-  return new Intl.DateTimeFormat('en-US', { timeZone, timeZoneName: 'short' }).formatToParts(new Date(iso)).find((part) => part.type === 'timeZoneName')?.value ?? timeZone;
+  return (
+    new Intl.DateTimeFormat('en-US', { timeZone, timeZoneName: 'short' })
+      .formatToParts(new Date(iso))
+      .find((part) => part.type === 'timeZoneName')?.value ?? timeZone
+  );
 }

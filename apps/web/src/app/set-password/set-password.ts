@@ -53,13 +53,15 @@ export class SetPassword {
       return;
     }
     this.saving.set(true);
-    this.http.post<{ message: string }>('/api/auth/set-password', { token: this.token(), newPassword: this.form.controls.newPassword.value }).subscribe({
-      next: ({ message }) => this.done.set(message),
-      error: (error: unknown) => {
-        this.saving.set(false);
-        if (error instanceof ApiProblem) applyFieldErrors(this.form, error);
-        this.problem.set(problemMessage(error));
-      },
-    });
+    this.http
+      .post<{ message: string }>('/api/auth/set-password', { token: this.token(), newPassword: this.form.controls.newPassword.value })
+      .subscribe({
+        next: ({ message }) => this.done.set(message),
+        error: (error: unknown) => {
+          this.saving.set(false);
+          if (error instanceof ApiProblem) applyFieldErrors(this.form, error);
+          this.problem.set(problemMessage(error));
+        },
+      });
   }
 }

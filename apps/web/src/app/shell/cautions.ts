@@ -11,9 +11,9 @@ import { MatIconModule } from '@angular/material/icon';
       <mat-icon aria-hidden="true">info</mat-icon>
       <p>
         <strong>Forecasts are decision support.</strong>
-        Operating, switching and reliability decisions follow the utility's procedures, the applicable reliability rules and
-        local codes, and rest with licensed or authorised operators. Intervals assume the model holds; unusual events (storms,
-        outages, large new loads) break that assumption.
+        Operating, switching and reliability decisions follow the utility's procedures, the applicable reliability rules and local codes,
+        and rest with licensed or authorised operators. Intervals assume the model holds; unusual events (storms, outages, large new loads)
+        break that assumption.
       </p>
     </footer>
   `,
@@ -28,9 +28,20 @@ import { MatIconModule } from '@angular/material/icon';
       color: var(--mat-sys-on-surface-variant);
       font: var(--mat-sys-body-small);
     }
-    mat-icon { flex: none; font-size: 20px; width: 20px; height: 20px; }
-    p { margin: 0; max-width: 110ch; }
-    strong { font-weight: 600; color: var(--mat-sys-on-surface); }
+    mat-icon {
+      flex: none;
+      font-size: 20px;
+      width: 20px;
+      height: 20px;
+    }
+    p {
+      margin: 0;
+      max-width: 110ch;
+    }
+    strong {
+      font-weight: 600;
+      color: var(--mat-sys-on-surface);
+    }
   `,
 })
 export class Cautions {}

@@ -17,12 +17,31 @@ import { ChangeDetectionStrategy, Component, input } from '@angular/core';
     </svg>
   `,
   styles: `
-    :host { display: inline-block; flex: none; }
-    svg { display: block; }
-    .tile { fill: var(--mat-sys-primary); }
-    .baseline { stroke: var(--mat-sys-primary-fixed); stroke-width: 2; stroke-linecap: round; }
-    .curve { fill: none; stroke: var(--mat-sys-on-primary); stroke-width: 2.6; stroke-linecap: round; stroke-linejoin: round; }
-    .peak { fill: var(--mat-sys-tertiary-fixed-dim); }
+    :host {
+      display: inline-block;
+      flex: none;
+    }
+    svg {
+      display: block;
+    }
+    .tile {
+      fill: var(--mat-sys-primary);
+    }
+    .baseline {
+      stroke: var(--mat-sys-primary-fixed);
+      stroke-width: 2;
+      stroke-linecap: round;
+    }
+    .curve {
+      fill: none;
+      stroke: var(--mat-sys-on-primary);
+      stroke-width: 2.6;
+      stroke-linecap: round;
+      stroke-linejoin: round;
+    }
+    .peak {
+      fill: var(--mat-sys-tertiary-fixed-dim);
+    }
   `,
 })
 export class LogoMark {

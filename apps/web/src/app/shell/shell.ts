@@ -19,7 +19,17 @@ const WIDE_LAYOUT = '(min-width: 960px)';
 /** The frame of every page: top bar, section navigation (beside or over the content), main area, cautions. */
 @Component({
   selector: 'lw-shell',
-  imports: [NgTemplateOutlet, MatSidenavModule, MatToolbarModule, MatIconModule, MatButtonModule, RouterLink, RouterLinkActive, LogoMark, Cautions],
+  imports: [
+    NgTemplateOutlet,
+    MatSidenavModule,
+    MatToolbarModule,
+    MatIconModule,
+    MatButtonModule,
+    RouterLink,
+    RouterLinkActive,
+    LogoMark,
+    Cautions,
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './shell.html',
   styleUrl: './shell.scss',
@@ -41,9 +51,13 @@ export class Shell {
   /** The navigation is always shown on wide screens and on demand on narrow ones. */
   protected readonly navigationOpen = computed(() => this.wide() || this.menuOpen());
   /** Sections the signed-in person may open: the navigation hides the rest (the API still decides). */
-  private readonly permittedSections = computed(() => PRODUCT_SECTIONS.filter((section) => this.session.permissions().has(section.permission)));
+  private readonly permittedSections = computed(() =>
+    PRODUCT_SECTIONS.filter((section) => this.session.permissions().has(section.permission)),
+  );
   /** Everyday work sections that can be used today. */
-  protected readonly workSections = computed(() => this.permittedSections().filter((section) => section.available && section.group === 'work'));
+  protected readonly workSections = computed(() =>
+    this.permittedSections().filter((section) => section.available && section.group === 'work'),
+  );
   /** Shipped sections grouped under a heading ("People and settings", "Development"), empty groups left out. */
   protected readonly sectionGroups = computed(() =>
     (Object.keys(SECTION_GROUP_LABELS) as (keyof typeof SECTION_GROUP_LABELS)[])

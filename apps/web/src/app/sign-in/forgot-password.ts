@@ -17,7 +17,9 @@ import { applyFieldErrors, serverError } from '../core/problems/field-errors';
   template: `
     <section class="card" aria-labelledby="forgot-heading">
       <h1 id="forgot-heading">Reset your password</h1>
-      <p class="intro">Enter the e-mail address you sign in with. If it belongs to an active account, a link to choose a new password arrives by e-mail.</p>
+      <p class="intro">
+        Enter the e-mail address you sign in with. If it belongs to an active account, a link to choose a new password arrives by e-mail.
+      </p>
       @if (sent(); as message) {
         <p class="message done" role="status">
           <mat-icon aria-hidden="true">mark_email_read</mat-icon>
@@ -42,7 +44,9 @@ import { applyFieldErrors, serverError } from '../core/problems/field-errors';
               <mat-error>{{ message }}</mat-error>
             }
           </mat-form-field>
-          <button mat-flat-button class="submit" type="submit" [disabled]="sending()">{{ sending() ? 'Sending…' : 'Send reset link' }}</button>
+          <button mat-flat-button class="submit" type="submit" [disabled]="sending()">
+            {{ sending() ? 'Sending…' : 'Send reset link' }}
+          </button>
         </form>
       }
       <p class="after"><a routerLink="/sign-in">Back to sign in</a></p>

@@ -47,7 +47,9 @@ export class SignIn {
   protected readonly service = toSignal(
     this.health.read().pipe(
       map((report): HealthVerdict => verdictOf({ state: 'answered', report, checkedAt: new Date() })),
-      catchError((error: unknown) => of(verdictOf({ state: 'unreachable', problem: (error as Error).message, checkedAt: new Date(), lastReport: null }))),
+      catchError((error: unknown) =>
+        of(verdictOf({ state: 'unreachable', problem: (error as Error).message, checkedAt: new Date(), lastReport: null })),
+      ),
     ),
   );
   /** The server's message on a control, for the template. */

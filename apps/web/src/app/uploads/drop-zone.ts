@@ -103,9 +103,17 @@ export class DropZone {
   private answer(fileName: string, receipt: UploadReceipt): void {
     this.answered.emit();
     if (receipt.duplicateOf !== null) {
-      this.outcome.set({ kind: 'repeat', message: receipt.message ?? `Already uploaded as upload ${receipt.duplicateOf}.`, uploadId: receipt.duplicateOf });
+      this.outcome.set({
+        kind: 'repeat',
+        message: receipt.message ?? `Already uploaded as upload ${receipt.duplicateOf}.`,
+        uploadId: receipt.duplicateOf,
+      });
     } else if (receipt.upload.status === 'failed') {
-      this.outcome.set({ kind: 'refused', fileName, message: receipt.message ?? receipt.upload.error ?? 'Loadwright could not read this file.' });
+      this.outcome.set({
+        kind: 'refused',
+        fileName,
+        message: receipt.message ?? receipt.upload.error ?? 'Loadwright could not read this file.',
+      });
     } else {
       this.received.emit(receipt);
     }

@@ -23,7 +23,14 @@ describe('followImport', () => {
     scheduler.run(({ expectObservable }) => {
       expectObservable(followImport(() => of(at('failed', 0)), 10, scheduler)).toBe('(a|)', { a: at('failed', 0) });
       let calls = 0;
-      const polled = followImport(() => { calls++; return of(at('importing', 10)); }, 10, scheduler);
+      const polled = followImport(
+        () => {
+          calls++;
+          return of(at('importing', 10));
+        },
+        10,
+        scheduler,
+      );
       expectObservable(polled, '^ 25ms !').toBe('a 9ms a 9ms a', { a: at('importing', 10) });
       scheduler.flush();
       expect(calls).toBe(3);
@@ -33,6 +40,12 @@ describe('followImport', () => {
 
 describe('isFinished', () => {
   it('is true only for done and failed', () => {
-    expect(['received', 'queued', 'importing', 'done', 'failed'].map((s) => isFinished(s as UploadStatus))).toEqual([false, false, false, true, true]);
+    expect(['received', 'queued', 'importing', 'done', 'failed'].map((s) => isFinished(s as UploadStatus))).toEqual([
+      false,
+      false,
+      false,
+      true,
+      true,
+    ]);
   });
 });

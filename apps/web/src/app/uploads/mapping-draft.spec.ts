@@ -2,8 +2,22 @@ import type { SeriesSummary, UploadLayout, UploadProposal } from '@loadwright/co
 import { describe, expect, it } from 'vitest';
 import { draftFromProposal, draftIssues, draftToRequest, namedSeries, withSeries } from './mapping-draft';
 
-const layout: UploadLayout = { encoding: 'utf-8', delimiter: ',', hasHeader: true, columns: ['timestamp', 'feeder', 'load_kw'], decimalSeparator: '.', timestampsHaveOffset: true };
-const settings = { unit: 'kW', timeZone: 'America/Chicago', timestampsMark: 'start', repeatedHourPolicy: 'reject', decimalSeparator: '.', estimateShortGaps: true } as const;
+const layout: UploadLayout = {
+  encoding: 'utf-8',
+  delimiter: ',',
+  hasHeader: true,
+  columns: ['timestamp', 'feeder', 'load_kw'],
+  decimalSeparator: '.',
+  timestampsHaveOffset: true,
+};
+const settings = {
+  unit: 'kW',
+  timeZone: 'America/Chicago',
+  timestampsMark: 'start',
+  repeatedHourPolicy: 'reject',
+  decimalSeparator: '.',
+  estimateShortGaps: true,
+} as const;
 const longProposal: UploadProposal = {
   mapping: { layout: 'long', timestampColumn: 'timestamp', valueColumn: 'load_kw', seriesKeyColumn: 'feeder', seriesKey: null },
   settings,
@@ -32,7 +46,13 @@ describe('a long file', () => {
     const draft = { ...draftFromProposal(longProposal, layout), seriesKeyColumn: '' };
     const zone = { key: 'zone-north', unit: 'MW', timeZone: 'America/Denver', timestampsMark: 'end' } as SeriesSummary;
     const chosen = withSeries(draft, zone);
-    expect(draftToRequest(chosen).mapping).toEqual({ layout: 'long', timestampColumn: 'timestamp', valueColumn: 'load_kw', seriesKeyColumn: null, seriesKey: 'zone-north' });
+    expect(draftToRequest(chosen).mapping).toEqual({
+      layout: 'long',
+      timestampColumn: 'timestamp',
+      valueColumn: 'load_kw',
+      seriesKeyColumn: null,
+      seriesKey: 'zone-north',
+    });
     expect(chosen.settings).toMatchObject({ unit: 'MW', timeZone: 'America/Denver', timestampsMark: 'end' });
     expect(namedSeries(chosen)).toEqual(['zone-north']);
   });
@@ -40,7 +60,14 @@ describe('a long file', () => {
 
 describe('a wide file', () => {
   const wide: UploadProposal = {
-    mapping: { layout: 'wide', timestampColumn: 'time', seriesColumns: [{ column: 'fdr-n1', seriesKey: 'fdr-n1' }, { column: 'fdr-n2', seriesKey: 'fdr-n2' }] },
+    mapping: {
+      layout: 'wide',
+      timestampColumn: 'time',
+      seriesColumns: [
+        { column: 'fdr-n1', seriesKey: 'fdr-n1' },
+        { column: 'fdr-n2', seriesKey: 'fdr-n2' },
+      ],
+    },
     settings,
     notes: [],
   };

@@ -71,9 +71,11 @@ export function draftIssues(draft: MappingDraft): string[] {
     for (const issue of parsed.error.issues) issues.push(`${fieldName(issue.path.map(String))}: ${issue.message}`);
   }
   if (draft.layout === 'long') {
-    if (!draft.seriesKeyColumn && !draft.seriesKey) issues.push('Series: choose the column of series keys, or the one series the whole file belongs to');
+    if (!draft.seriesKeyColumn && !draft.seriesKey)
+      issues.push('Series: choose the column of series keys, or the one series the whole file belongs to');
     const used = [draft.timestampColumn, draft.valueColumn, draft.seriesKeyColumn].filter(Boolean);
-    if (new Set(used).size !== used.length) issues.push('Columns: the timestamp, value and series key columns must be three different columns');
+    if (new Set(used).size !== used.length)
+      issues.push('Columns: the timestamp, value and series key columns must be three different columns');
   }
   return [...new Set(issues)];
 }
@@ -93,7 +95,12 @@ export function withSeries(draft: MappingDraft, series: SeriesSummary | undefine
   return {
     ...draft,
     seriesKey: series.key,
-    settings: { ...draft.settings, timeZone: series.timeZone, timestampsMark: series.timestampsMark, unit: draft.settings.unit === 'kWh' || draft.settings.unit === 'MWh' ? draft.settings.unit : series.unit },
+    settings: {
+      ...draft.settings,
+      timeZone: series.timeZone,
+      timestampsMark: series.timestampsMark,
+      unit: draft.settings.unit === 'kWh' || draft.settings.unit === 'MWh' ? draft.settings.unit : series.unit,
+    },
   };
 }
 

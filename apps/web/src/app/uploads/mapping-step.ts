@@ -8,7 +8,15 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatRadioModule } from '@angular/material/radio';
 import { MatSelectModule } from '@angular/material/select';
-import { type SeriesSummary, type Upload, type UploadDetail, type UploadSettings, repeatedHourPolicies, timestampsMarks, uploadUnits } from '@loadwright/contracts';
+import {
+  type SeriesSummary,
+  type Upload,
+  type UploadDetail,
+  type UploadSettings,
+  repeatedHourPolicies,
+  timestampsMarks,
+  uploadUnits,
+} from '@loadwright/contracts';
 import { catchError, map, of } from 'rxjs';
 import { problemMessage } from '../core/problems/api-problem';
 import { initialCatalogueQuery } from '../series-catalogue/catalogue-query';
@@ -43,7 +51,16 @@ const policyWords: Record<(typeof repeatedHourPolicies)[number], string> = {
  */
 @Component({
   selector: 'lw-mapping-step',
-  imports: [FormsModule, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatIconModule, MatInputModule, MatRadioModule, MatSelectModule],
+  imports: [
+    FormsModule,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatRadioModule,
+    MatSelectModule,
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './mapping-step.html',
   styleUrl: './mapping-step.scss',
@@ -93,7 +110,8 @@ export class MappingStep {
       roles.set(draft.valueColumn, 'value');
       if (draft.seriesKeyColumn) roles.set(draft.seriesKeyColumn, 'series key');
     } else {
-      for (const [column, key] of Object.entries(draft.wideColumns)) if (key && column !== draft.timestampColumn) roles.set(column, `→ ${key}`);
+      for (const [column, key] of Object.entries(draft.wideColumns))
+        if (key && column !== draft.timestampColumn) roles.set(column, `→ ${key}`);
     }
     roles.delete('');
     return roles;

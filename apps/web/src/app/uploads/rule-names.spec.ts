@@ -10,10 +10,14 @@ describe('ruleNames', () => {
 
 describe('detailWords', () => {
   it('spells out keys and rounds limits', () => {
-    expect(detailWords({ intervals: 3, estimated: true, robustSigma: 12.3456789, method: 'linear' })).toBe('intervals 3 · estimated yes · robust sigma 12.3457 · method linear');
+    expect(detailWords({ intervals: 3, estimated: true, robustSigma: 12.3456789, method: 'linear' })).toBe(
+      'intervals 3 · estimated yes · robust sigma 12.3457 · method linear',
+    );
   });
 
   it('writes UTC instants the way the report table does', () => {
-    expect(detailWords({ until: '2026-12-01T11:00:00.000Z', note: '2026-12-01T11:00:30Z' })).toBe('until 2026-12-01 11:00 UTC · note 2026-12-01T11:00:30Z');
+    expect(detailWords({ until: '2026-12-01T11:00:00.000Z', note: '2026-12-01T11:00:30Z' })).toBe(
+      'until 2026-12-01 11:00 UTC · note 2026-12-01T11:00:30Z',
+    );
   });
 });

@@ -24,7 +24,10 @@ export const informationalRules: ReadonlySet<ValidationRule> = new Set(['estimat
 /** A finding's rule-specific facts in words, e.g. "intervals 3 · estimated yes". */
 export function detailWords(detail: Record<string, unknown>): string {
   return Object.entries(detail)
-    .map(([key, value]) => `${spaced(key)} ${typeof value === 'boolean' ? (value ? 'yes' : 'no') : typeof value === 'number' ? roundish(value) : instantOrText(String(value))}`)
+    .map(
+      ([key, value]) =>
+        `${spaced(key)} ${typeof value === 'boolean' ? (value ? 'yes' : 'no') : typeof value === 'number' ? roundish(value) : instantOrText(String(value))}`,
+    )
     .join(' · ');
 }
 
@@ -36,7 +39,10 @@ function instantOrText(text: string): string {
 
 /** camelCase or snake_case to plain words. */
 function spaced(key: string): string {
-  return key.replace(/_/g, ' ').replace(/([a-z])([A-Z])/g, '$1 $2').toLowerCase();
+  return key
+    .replace(/_/g, ' ')
+    .replace(/([a-z])([A-Z])/g, '$1 $2')
+    .toLowerCase();
 }
 
 /** Numbers to at most four significant decimals, so limits read cleanly. */

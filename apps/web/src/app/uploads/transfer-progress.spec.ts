@@ -7,7 +7,11 @@ import { transferStep } from './transfer-progress';
 describe('transferStep', () => {
   it('turns upload progress into a whole percent', () => {
     expect(transferStep({ type: HttpEventType.Sent })).toEqual({ phase: 'sending', percent: 0, loaded: 0 });
-    expect(transferStep({ type: HttpEventType.UploadProgress, loaded: 333, total: 1000 })).toEqual({ phase: 'sending', percent: 33, loaded: 333 });
+    expect(transferStep({ type: HttpEventType.UploadProgress, loaded: 333, total: 1000 })).toEqual({
+      phase: 'sending',
+      percent: 33,
+      loaded: 333,
+    });
   });
 
   it('says the percent is unknown when the size is', () => {

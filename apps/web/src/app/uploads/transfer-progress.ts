@@ -12,7 +12,11 @@ export function transferStep(event: HttpEvent<UploadReceipt>): TransferState | n
     case HttpEventType.Sent:
       return { phase: 'sending', percent: 0, loaded: 0 };
     case HttpEventType.UploadProgress:
-      return { phase: 'sending', percent: event.total ? Math.min(100, Math.round((event.loaded / event.total) * 100)) : null, loaded: event.loaded };
+      return {
+        phase: 'sending',
+        percent: event.total ? Math.min(100, Math.round((event.loaded / event.total) * 100)) : null,
+        loaded: event.loaded,
+      };
     case HttpEventType.Response:
       return event.body ? { phase: 'received', receipt: event.body } : null;
     default:

@@ -1,4 +1,12 @@
-import { HttpBackend, HttpClient, type HttpEvent, HttpXhrBackend, provideHttpClient, withInterceptors, withXsrfConfiguration } from '@angular/common/http';
+import {
+  HttpBackend,
+  HttpClient,
+  type HttpEvent,
+  HttpXhrBackend,
+  provideHttpClient,
+  withInterceptors,
+  withXsrfConfiguration,
+} from '@angular/common/http';
 import { EnvironmentInjector, Injectable, createEnvironmentInjector, inject } from '@angular/core';
 import type { ConfirmUploadRequest, Upload, UploadDetail, UploadPage, UploadReceipt } from '@loadwright/contracts';
 import type { Observable } from 'rxjs';

@@ -20,7 +20,9 @@ import { UploadList } from './upload-list';
       <header class="page-head">
         <div>
           <h1>Uploads</h1>
-          <p class="lede">Bring in meter, SCADA and temperature readings from CSV files: map the columns, follow the import, read what validation found.</p>
+          <p class="lede">
+            Bring in meter, SCADA and temperature readings from CSV files: map the columns, follow the import, read what validation found.
+          </p>
         </div>
       </header>
       <lw-drop-zone (received)="openUpload($event)" (answered)="listVersion.set(listVersion() + 1)" />

@@ -8,7 +8,17 @@ describe('safeReturnUrl', () => {
   });
 
   it('refuses addresses that would leave the app or loop back to sign-in', () => {
-    for (const raw of ['https://elsewhere.example/', '//elsewhere.example', '/\\elsewhere.example', 'people', '/sign-in?returnUrl=/x', '/set-password?token=t', '', null, undefined]) {
+    for (const raw of [
+      'https://elsewhere.example/',
+      '//elsewhere.example',
+      '/\\elsewhere.example',
+      'people',
+      '/sign-in?returnUrl=/x',
+      '/set-password?token=t',
+      '',
+      null,
+      undefined,
+    ]) {
       expect(safeReturnUrl(raw)).toBe(defaultAfterSignIn);
     }
   });

@@ -6,9 +6,7 @@ import { ApiProblem } from '../problems/api-problem';
 
 /** What the app knows about who is signed in. */
 export type SessionState =
-  | { readonly status: 'unknown' }
-  | { readonly status: 'signed-out' }
-  | { readonly status: 'signed-in'; readonly session: SessionInfo };
+  { readonly status: 'unknown' } | { readonly status: 'signed-out' } | { readonly status: 'signed-in'; readonly session: SessionInfo };
 
 /**
  * The signed-in person and their permissions, as signals. The API alone decides what is allowed;
@@ -50,7 +48,9 @@ export class SessionStore {
 
   /** Signs in; the API sets the session and CSRF cookies. Fails with an {@link ApiProblem}. */
   signIn(request: SignInRequest): Observable<SessionInfo> {
-    return this.http.post<SessionInfo>('/api/auth/sign-in', request).pipe(tap((session) => this.state.set({ status: 'signed-in', session })));
+    return this.http
+      .post<SessionInfo>('/api/auth/sign-in', request)
+      .pipe(tap((session) => this.state.set({ status: 'signed-in', session })));
   }
 
   /**

@@ -26,7 +26,9 @@ export class HealthClient {
       map((body) => {
         const parsed = healthReportSchema.safeParse(body);
         if (!parsed.success) {
-          throw new HealthCheckFailed('The API answered, but not with a health report this version of the app understands. Reload the page after an update.');
+          throw new HealthCheckFailed(
+            'The API answered, but not with a health report this version of the app understands. Reload the page after an update.',
+          );
         }
         return parsed.data;
       }),
@@ -37,7 +39,8 @@ export class HealthClient {
 /** Turns a transport error into one sentence a planner can act on. */
 function describeFailure(error: unknown): string {
   if (error instanceof HttpErrorResponse) {
-    if (error.status === 0) return 'The Loadwright API cannot be reached. Check that the server is running and this machine is on its network.';
+    if (error.status === 0)
+      return 'The Loadwright API cannot be reached. Check that the server is running and this machine is on its network.';
     return `The Loadwright API answered with an error (HTTP ${error.status}${error.statusText ? ` ${error.statusText}` : ''}).`;
   }
   return 'The health check failed unexpectedly.';

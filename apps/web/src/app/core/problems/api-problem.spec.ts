@@ -13,7 +13,7 @@ const conflict = {
 };
 
 describe('problemFromResponse', () => {
-  it('keeps the API\'s problem: type, status, detail as the message, and field errors', () => {
+  it("keeps the API's problem: type, status, detail as the message, and field errors", () => {
     const problem = problemFromResponse(new HttpErrorResponse({ status: 409, error: conflict }));
     expect(problem).toBeInstanceOf(ApiProblem);
     expect(problem).toMatchObject({ type: '/problems/conflict', status: 409, message: conflict.detail });
@@ -48,7 +48,7 @@ describe('isProblemBody', () => {
 });
 
 describe('problemMessage', () => {
-  it('uses the problem\'s sentence, and a plain one for anything else', () => {
+  it("uses the problem's sentence, and a plain one for anything else", () => {
     expect(problemMessage(new ApiProblem(conflict))).toBe(conflict.detail);
     expect(problemMessage(new TypeError('x is undefined'))).toBe('Something went wrong in this page. Reload it and try again.');
   });

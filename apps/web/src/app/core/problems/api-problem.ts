@@ -45,7 +45,9 @@ export function isProblemBody(body: unknown): body is Problem {
     candidate['errors'] === undefined ||
     (Array.isArray(candidate['errors']) &&
       candidate['errors'].every((entry) => typeof entry?.pointer === 'string' && typeof entry?.detail === 'string'));
-  return typeof candidate['type'] === 'string' && typeof candidate['title'] === 'string' && typeof candidate['status'] === 'number' && errorsOk;
+  return (
+    typeof candidate['type'] === 'string' && typeof candidate['title'] === 'string' && typeof candidate['status'] === 'number' && errorsOk
+  );
 }
 
 /** Turns any HTTP failure into an {@link ApiProblem}: the API's own problem when it sent one, else a plain description. */

@@ -20,7 +20,13 @@ describe('applyFieldErrors', () => {
 
   it('returns the messages no control can take: unknown fields and the whole body', () => {
     const form = new FormGroup({ email: new FormControl('') });
-    const unplaced = applyFieldErrors(form, invalid([{ pointer: '/token', detail: 'Expired or already used' }, { pointer: '', detail: 'Send at least one field' }]));
+    const unplaced = applyFieldErrors(
+      form,
+      invalid([
+        { pointer: '/token', detail: 'Expired or already used' },
+        { pointer: '', detail: 'Send at least one field' },
+      ]),
+    );
     expect(unplaced).toEqual(['Expired or already used', 'Send at least one field']);
   });
 

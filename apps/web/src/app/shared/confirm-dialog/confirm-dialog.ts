@@ -27,12 +27,20 @@ export interface ConfirmRequest {
     </mat-dialog-content>
     <mat-dialog-actions align="end">
       <button mat-button type="button" [mat-dialog-close]="false">Cancel</button>
-      <button mat-flat-button type="button" [class.destructive]="request.destructive" [mat-dialog-close]="true">{{ request.confirmLabel }}</button>
+      <button mat-flat-button type="button" [class.destructive]="request.destructive" [mat-dialog-close]="true">
+        {{ request.confirmLabel }}
+      </button>
     </mat-dialog-actions>
   `,
   styles: `
-    p { margin: 0; max-width: 52ch; }
-    .destructive { --mat-button-filled-container-color: var(--mat-sys-error); --mat-button-filled-label-text-color: var(--mat-sys-on-error); }
+    p {
+      margin: 0;
+      max-width: 52ch;
+    }
+    .destructive {
+      --mat-button-filled-container-color: var(--mat-sys-error);
+      --mat-button-filled-label-text-color: var(--mat-sys-on-error);
+    }
   `,
 })
 export class ConfirmDialog {

@@ -13,9 +13,21 @@ import { RouterLink } from '@angular/router';
     <a mat-stroked-button routerLink="/overview">Go to the Overview</a>
   `,
   styles: `
-    :host { display: flex; flex-direction: column; align-items: flex-start; gap: 16px; max-width: 720px; }
-    h1 { font: var(--mat-sys-headline-medium); font-weight: 600; }
-    p { margin: 0; color: var(--mat-sys-on-surface-variant); }
+    :host {
+      display: flex;
+      flex-direction: column;
+      align-items: flex-start;
+      gap: 16px;
+      max-width: 720px;
+    }
+    h1 {
+      font: var(--mat-sys-headline-medium);
+      font-weight: 600;
+    }
+    p {
+      margin: 0;
+      color: var(--mat-sys-on-surface-variant);
+    }
   `,
 })
 export class NotFound {}

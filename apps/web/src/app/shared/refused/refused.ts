@@ -19,10 +19,30 @@ import type { ProductSection } from '../../core/product-sections';
     <a mat-stroked-button routerLink="/overview">Go to the Overview</a>
   `,
   styles: `
-    :host { display: flex; flex-direction: column; align-items: flex-start; gap: 20px; max-width: 720px; }
-    h1 { display: flex; align-items: center; gap: 12px; font: var(--mat-sys-headline-medium); font-weight: 600; }
-    h1 mat-icon { color: var(--mat-sys-error); }
-    .notice { margin: 0; padding: 16px 20px; border-radius: var(--mat-sys-corner-large); background: var(--mat-sys-surface-container); font: var(--mat-sys-body-large); }
+    :host {
+      display: flex;
+      flex-direction: column;
+      align-items: flex-start;
+      gap: 20px;
+      max-width: 720px;
+    }
+    h1 {
+      display: flex;
+      align-items: center;
+      gap: 12px;
+      font: var(--mat-sys-headline-medium);
+      font-weight: 600;
+    }
+    h1 mat-icon {
+      color: var(--mat-sys-error);
+    }
+    .notice {
+      margin: 0;
+      padding: 16px 20px;
+      border-radius: var(--mat-sys-corner-large);
+      background: var(--mat-sys-surface-container);
+      font: var(--mat-sys-body-large);
+    }
   `,
 })
 export class Refused {
