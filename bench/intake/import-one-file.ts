@@ -80,19 +80,17 @@ const path = join(tmpdir(), `lw-bench-intake-${process.pid}.csv`);
 try {
   await migrate(url.toString());
   const { db, pool, close } = createDb(url.toString(), { max: 3 });
-  await db
-    .insert(series)
-    .values(
-      Array.from({ length: seriesCount }, (_, i) => ({
-        key: `fdr-${i + 1}`,
-        name: `Feeder ${i + 1}`,
-        kind: 'load' as const,
-        level: 'feeder' as const,
-        unit: 'kW' as const,
-        intervalMinutes: 60,
-        timeZone: 'America/Chicago',
-      })),
-    );
+  await db.insert(series).values(
+    Array.from({ length: seriesCount }, (_, i) => ({
+      key: `fdr-${i + 1}`,
+      name: `Feeder ${i + 1}`,
+      kind: 'load' as const,
+      level: 'feeder' as const,
+      unit: 'kW' as const,
+      intervalMinutes: 60,
+      timeZone: 'America/Chicago',
+    })),
+  );
   const fileRows = await writeFile(path);
   const bytes = (await stat(path)).size;
   const [upload] = await db

@@ -29,15 +29,13 @@ beforeAll(async () => {
   spentPeople = await createPeople(server.db, '-spent');
   for (const kind of ['read', 'read-write', 'revoked'] as const) {
     const { token, prefix, hash } = newApiTokenSecret();
-    await server.db
-      .insert(apiTokens)
-      .values({
-        name: kind,
-        prefix,
-        secretHash: hash,
-        scope: kind === 'revoked' ? 'read-write' : kind,
-        revokedAt: kind === 'revoked' ? new Date() : null,
-      });
+    await server.db.insert(apiTokens).values({
+      name: kind,
+      prefix,
+      secretHash: hash,
+      scope: kind === 'revoked' ? 'read-write' : kind,
+      revokedAt: kind === 'revoked' ? new Date() : null,
+    });
     tokens[kind] = token;
   }
 });

@@ -81,16 +81,14 @@ async function seedInto(db: Database, options: SeedDemoOptions): Promise<SeedDem
       },
       mailFrom: `Loadwright at ${scenario.organisation.name} <loadwright@${scenario.organisation.emailDomain}>`,
     });
-    await tx
-      .insert(users)
-      .values(
-        scenario.accounts.map((account, i) => ({
-          email: account.email,
-          displayName: account.displayName,
-          role: account.role,
-          passwordHash: passwordHashes[i]!,
-        })),
-      );
+    await tx.insert(users).values(
+      scenario.accounts.map((account, i) => ({
+        email: account.email,
+        displayName: account.displayName,
+        role: account.role,
+        passwordHash: passwordHashes[i]!,
+      })),
+    );
     const ids = await insertDemoCatalogue(tx, scenario);
     await tx.insert(holidays).values(demoHolidayRows(scenario)).onConflictDoNothing();
     return insertObservations(
