@@ -82,6 +82,7 @@ async function ensureCluster(location: PostgresLocation): Promise<void> {
     if (denied && isRoot)
       throw new Error(
         `The postgres OS user cannot reach ${location.dataDir}. Make its parent folders searchable (chmod o+x on each) or set LOADWRIGHT_DATA_DIR to a folder under one that is.`,
+        { cause: error },
       );
     throw error;
   }
@@ -131,7 +132,7 @@ export async function startPostgres(location = defaultLocation()): Promise<{ sta
     await pgTool(location, 'pg_ctl', ['-D', location.dataDir, '-l', log, '-w', '-t', '60', '-o', options, 'start']);
   } catch (error) {
     const tail = existsSync(log) ? readFileSync(log, 'utf8').split('\n').slice(-15).join('\n') : '';
-    throw new Error(`PostgreSQL did not start on 127.0.0.1:${location.port}: ${(error as Error).message}\n${tail}`);
+    throw new Error(`PostgreSQL did not start on 127.0.0.1:${location.port}: ${(error as Error).message}\n${tail}`, { cause: error });
   }
   for (let attempt = 0; attempt < 60 && !(await isReady(location)); attempt++) {
     await new Promise((done) => setTimeout(done, 500));

@@ -15,7 +15,6 @@ let planner: ReturnType<typeof asBrowser>;
 let approvedId: number;
 let draftId: number;
 
-const hour = 3_600_000;
 /** Local midnight of Thursday 2026-10-29 in Chicago (CDT, UTC−5). The week holds the fall-back Sunday, 1 November. */
 const draftOrigin = new Date('2026-10-29T05:00:00Z');
 const approvedOrigin = new Date('2026-10-28T05:00:00Z');

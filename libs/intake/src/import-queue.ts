@@ -51,6 +51,6 @@ export async function enqueueImport(connection: Queryable, uploadId: number): Pr
   });
   const job: PgBoss.JobInsert<ImportUploadJob> = { name: importQueue, data: { uploadId }, singletonKey: `upload-${uploadId}` };
   await boss.insert([job], {
-    db: { executeSql: (text: string, values: unknown[]) => connection.query(text, values) as Promise<{ rows: any[] }> },
+    db: { executeSql: (text: string, values: unknown[]) => connection.query(text, values) },
   });
 }

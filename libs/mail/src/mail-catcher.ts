@@ -7,8 +7,9 @@ import { randomBytes } from 'node:crypto';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import { join } from 'node:path';
+import type { Readable } from 'node:stream';
 import { simpleParser } from 'mailparser';
-import { SMTPServer } from 'smtp-server';
+import { SMTPServer, type SMTPServerSession } from 'smtp-server';
 import type { CaughtMail } from './outbox-store';
 
 /** A running catcher. */
@@ -26,25 +27,11 @@ export async function startMailCatcher(folder: string, port = 0): Promise<MailCa
     disabledCommands: ['STARTTLS'],
     banner: 'Loadwright local mail catcher',
     size: 10 * 1024 * 1024,
-    async onData(stream, session, callback) {
-      try {
-        const parsed = await simpleParser(stream);
-        const receivedAt = new Date();
-        const id = `${receivedAt.getTime().toString().padStart(14, '0')}-${randomBytes(4).toString('hex')}`;
-        const mail: CaughtMail = {
-          id,
-          receivedAt: receivedAt.toISOString(),
-          from: session.envelope.mailFrom ? session.envelope.mailFrom.address : '',
-          to: session.envelope.rcptTo.map((r) => r.address),
-          subject: parsed.subject ?? '',
-          text: parsed.text ?? '',
-          html: typeof parsed.html === 'string' ? parsed.html : '',
-        };
-        writeFileSync(join(folder, `${id}.json`), JSON.stringify(mail));
-        callback();
-      } catch (error) {
-        callback(error as Error);
-      }
+    onData(stream, session, callback) {
+      storeMessage(folder, stream, session).then(
+        () => callback(),
+        (error: unknown) => callback(error as Error),
+      );
     },
   });
   server.on('error', () => {}); // a client dropping its connection must not stop the catcher
@@ -58,4 +45,21 @@ export async function startMailCatcher(folder: string, port = 0): Promise<MailCa
     smtpUrl: `smtp://127.0.0.1:${actual}`,
     stop: () => new Promise<void>((done) => server.close(() => done())),
   };
+}
+
+/** Parses one received message and writes it to `folder` as JSON named by its arrival time. */
+async function storeMessage(folder: string, stream: Readable, session: SMTPServerSession): Promise<void> {
+  const parsed = await simpleParser(stream);
+  const receivedAt = new Date();
+  const id = `${receivedAt.getTime().toString().padStart(14, '0')}-${randomBytes(4).toString('hex')}`;
+  const mail: CaughtMail = {
+    id,
+    receivedAt: receivedAt.toISOString(),
+    from: session.envelope.mailFrom ? session.envelope.mailFrom.address : '',
+    to: session.envelope.rcptTo.map((r) => r.address),
+    subject: parsed.subject ?? '',
+    text: parsed.text ?? '',
+    html: typeof parsed.html === 'string' ? parsed.html : '',
+  };
+  writeFileSync(join(folder, `${id}.json`), JSON.stringify(mail));
 }

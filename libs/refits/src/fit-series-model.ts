@@ -9,7 +9,6 @@ import {
   fitLoadModel,
   forecastLoadModel,
   ljungBox,
-  nlsArma,
   selectOrder,
   yuleWalker,
   type FitResult,

@@ -57,32 +57,55 @@ export async function writeModelSettings(
     .onConflictDoUpdate({ target: modelSpecs.seriesId, set: values });
 }
 
+/** A fits row as the newest-fit query returns it (bigint id as text, jsonb parsed). */
+interface FitRow {
+  id: string;
+  series_id: number;
+  method: ModelSpecRow['method'];
+  ar_order: number;
+  ma_order: number;
+  parameters: Record<string, unknown>;
+  standard_errors: Record<string, unknown> | null;
+  sigma2: number;
+  aic: number | null;
+  bic: number | null;
+  data_start: Date;
+  data_end: Date;
+  observation_count: number;
+  duration_ms: number;
+  created_at: Date;
+  diagnostics: unknown;
+  selection: unknown;
+}
+
 /** The newest fit of `seriesId`, or null. */
 export async function readLatestFit(pool: pg.Pool, seriesId: number): Promise<FitSummary | null> {
-  const { rows } = await pool.query(
+  const { rows } = await pool.query<FitRow>(
     `select id, series_id, method, ar_order, ma_order, parameters, standard_errors, sigma2, aic, bic, data_start, data_end, observation_count, duration_ms, created_at, diagnostics, selection
        from fits where series_id = $1 order by created_at desc, id desc limit 1`,
     [seriesId],
   );
-  const row = rows[0] as Record<string, any> | undefined;
+  const row = rows[0];
   if (!row) return null;
   return {
-    id: Number(row['id']),
-    seriesId: row['series_id'],
-    method: contractMethod(row['method']) as FitSummary['method'],
-    arOrder: row['ar_order'],
-    maOrder: row['ma_order'],
+    id: Number(row.id),
+    seriesId: row.series_id,
+    method: contractMethod(row.method) as FitSummary['method'],
+    arOrder: row.ar_order,
+    maOrder: row.ma_order,
     // Standard errors live in their own column; the model card reads them beside the estimates.
-    parameters: row['standard_errors'] ? { ...row['parameters'], standardErrors: row['standard_errors'] } : row['parameters'],
-    sigma2: row['sigma2'],
-    aic: row['aic'],
-    bic: row['bic'],
-    dataStart: row['data_start'].toISOString(),
-    dataEnd: row['data_end'].toISOString(),
-    observationCount: row['observation_count'],
-    durationMs: row['duration_ms'],
-    createdAt: row['created_at'].toISOString(),
-    diagnostics: fitDiagnosticsSchema.parse(row['diagnostics']),
-    selection: row['selection'] ? fitSelectionSchema.parse(row['selection']) : null,
+    parameters: (row.standard_errors
+      ? { ...row.parameters, standardErrors: row.standard_errors }
+      : row.parameters) as FitSummary['parameters'],
+    sigma2: row.sigma2,
+    aic: row.aic,
+    bic: row.bic,
+    dataStart: row.data_start.toISOString(),
+    dataEnd: row.data_end.toISOString(),
+    observationCount: row.observation_count,
+    durationMs: row.duration_ms,
+    createdAt: row.created_at.toISOString(),
+    diagnostics: fitDiagnosticsSchema.parse(row.diagnostics),
+    selection: row.selection ? fitSelectionSchema.parse(row.selection) : null,
   };
 }

@@ -52,7 +52,7 @@ export function createJobInserter(): JobInserter {
   });
   return async (jobs, connection) => {
     await boss.insert(jobs, {
-      db: { executeSql: (text, values) => connection.query({ text, values }) as Promise<{ rows: unknown[] }> as Promise<{ rows: any[] }> },
+      db: { executeSql: (text, values) => connection.query({ text, values }) },
     });
   };
 }

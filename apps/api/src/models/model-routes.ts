@@ -12,6 +12,7 @@ import {
   seedHolidaysRequestSchema,
   seedHolidaysResultSchema,
   holidaySchema,
+  type Holiday,
 } from '@loadwright/contracts';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
@@ -188,14 +189,24 @@ export function modelRoutes({ db, pool }: AppContext): RouteDefinition[] {
   ];
 }
 
+/** A holidays row as PostgreSQL returns it. */
+interface HolidayRow {
+  id: number;
+  day: string;
+  name: string;
+  kind: Holiday['kind'];
+  source: Holiday['source'];
+  updated_at: Date;
+}
+
 /** A holidays row as the contract shapes it. */
-function holidayOut(row: Record<string, any>) {
+function holidayOut(row: HolidayRow) {
   return {
-    id: row['id'],
-    day: row['day'],
-    name: row['name'],
-    kind: row['kind'],
-    source: row['source'],
-    updatedAt: (row['updated_at'] as Date).toISOString(),
+    id: row.id,
+    day: row.day,
+    name: row.name,
+    kind: row.kind,
+    source: row.source,
+    updatedAt: row.updated_at.toISOString(),
   };
 }

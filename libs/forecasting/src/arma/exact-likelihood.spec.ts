@@ -13,6 +13,7 @@ describe('exactLogLikelihood against R arima(method = "ML")', () => {
   for (const name of ['lh', 'LakeHuron'] as ReferenceSeries[]) {
     const x = loadSeries(name);
     const reference = loadReference(name);
+    // eslint-disable-next-line @typescript-eslint/no-explicit-any -- reference JSON of documented layout; specs index it freely
     const fits: Array<{ label: string; fit: any; p: number; q: number }> = [];
     for (const order of ['1,1', '2,1', '1,2']) {
       const [p, q] = order.split(',').map(Number);

@@ -10,7 +10,7 @@ const pattern = (h: number) => 100 + 20 * Math.sin((2 * Math.PI * h) / 24);
 
 describe('estimateSeasonalProfile', () => {
   it('recovers an additive hour-of-day profile as slot mean − overall mean', () => {
-    const values = Float64Array.from(slots, (h, i) => pattern(h));
+    const values = Float64Array.from(slots, (h) => pattern(h));
     const profile = estimateSeasonalProfile(values, slots, 'hour-of-day', 'additive');
     expect(profile.level).toBeCloseTo(100, 12);
     for (let h = 0; h < 24; h++) expect(profile.effect[h]).toBeCloseTo(pattern(h) - 100, 10);

@@ -65,8 +65,9 @@ export function sniffBytesOf(bytes: Buffer, whole: boolean): SniffResult {
   }
   let text = new TextDecoder(encoding).decode(bytes.subarray(bomLength));
   if (!whole) text = text.slice(0, Math.max(0, text.lastIndexOf('\n')));
-  if (/[\u0000-\u0008\u000e-\u001f]/.test(text)) {
-    const at = text.search(/[\u0000-\u0008\u000e-\u001f]/);
+  const binaryControl = /[\u0000-\u0008\u000e-\u001f]/; // eslint-disable-line no-control-regex -- finding control characters is the point
+  if (binaryControl.test(text)) {
+    const at = text.search(binaryControl);
     return {
       ok: false,
       message: `Row ${text.slice(0, at).split('\n').length} holds control characters, so this is not CSV text. ${saveAsCsv}`,
