@@ -13,3 +13,4 @@ export * from './models';
 export * from './refits';
 export * from './forecasts';
 export * from './misses';
+export * from './workers';
