@@ -17,6 +17,8 @@ export interface CreateDbOptions {
   applicationName?: string;
   /** Milliseconds a statement may run before the server cancels it (default: no limit). */
   statementTimeoutMs?: number;
+  /** Milliseconds to wait for a new connection before the query fails (default 10 s), so no request hangs on a dead server. */
+  connectTimeoutMs?: number;
   /** Log every SQL statement through Drizzle's logger. */
   logQueries?: boolean;
 }
@@ -38,8 +40,10 @@ export function createDb(url: string, options: CreateDbOptions = {}): DbHandle {
     max: options.max ?? 10,
     application_name: options.applicationName ?? 'loadwright',
     statement_timeout: options.statementTimeoutMs,
+    connectionTimeoutMillis: options.connectTimeoutMs ?? 10_000,
   });
-  // An idle client losing its connection must not crash the process; the next query reconnects.
+  // A client losing its connection (idle or busy: pg-pool listens on both) must not crash the process;
+  // the query in flight fails with the error, and the next query opens a new connection.
   pool.on('error', () => {});
   const db = drizzle(pool, { schema, logger: options.logQueries ?? false });
   return { db, pool, close: () => pool.end() };

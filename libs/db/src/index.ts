@@ -4,3 +4,4 @@ export * from './relations';
 export * from './types';
 export { createDb, schema, type CreateDbOptions, type Database, type DbHandle } from './client';
 export { migrate, migrationsFolder } from './migrate';
+export { isDatabaseUnavailable } from './connection-errors';
