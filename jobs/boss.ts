@@ -25,5 +25,8 @@ export function createBoss(databaseUrl: string, { supervise, cronMonitorInterval
     schedule: supervise,
     migrate: true,
     max: 4,
+    // Expiry is the backstop for a handler that hangs in a live worker (a dead worker's jobs are
+    // handed back by worker-presence.ts); check it every 30 s instead of pg-boss's default 120 s.
+    maintenanceIntervalSeconds: 30,
   });
 }

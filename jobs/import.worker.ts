@@ -7,18 +7,23 @@
 import { eq } from 'drizzle-orm';
 import { createDb, uploads } from '@loadwright/db';
 import type PgBoss from 'pg-boss';
-import type { Logger } from 'pino';
 import { createImportQueue, importQueue, type ImportUploadJob } from '@loadwright/intake';
 import { importUpload } from '@loadwright/intake';
+import type { QueueContext } from './queues';
 
 /** Creates the queue and starts its handler; its connections close when pg-boss stops. */
-export async function registerImportQueue(boss: PgBoss, context: { logger: Logger; databaseUrl: string }): Promise<void> {
-  const { logger } = context;
+export async function registerImportQueue(boss: PgBoss, context: QueueContext): Promise<void> {
+  const { logger, presence } = context;
   const { db, pool, close } = createDb(context.databaseUrl, { max: 3, applicationName: 'loadwright-import' });
   boss.once('stopped', () => void close());
   await createImportQueue(boss);
-  await boss.work<ImportUploadJob>(importQueue, { batchSize: 1, includeMetadata: true, pollingIntervalSeconds: 0.5 }, async ([job]) => {
-    if (!job) return;
+  await boss.work<ImportUploadJob>(
+    importQueue,
+    { batchSize: 1, includeMetadata: true, pollingIntervalSeconds: 0.5 },
+    ([job]) => job && presence.hold([job.id], () => importOne(job)),
+  );
+
+  async function importOne(job: PgBoss.JobWithMetadata<ImportUploadJob>): Promise<void> {
     const { uploadId } = job.data;
     try {
       const outcome = await importUpload({ db, pool }, uploadId);
@@ -46,5 +51,5 @@ export async function registerImportQueue(boss: PgBoss, context: { logger: Logge
         .where(eq(uploads.id, uploadId));
       throw error;
     }
-  });
+  }
 }

@@ -8,6 +8,7 @@ import type pg from 'pg';
 import type { Logger } from 'pino';
 import { createJobInserter, refitNightlyQueue } from '@loadwright/refits';
 import { RefitScopeError, startRefitRun } from '@loadwright/refits';
+import type { WorkerPresence } from './worker-presence';
 
 /** The schedule as registered: cron expression and time zone. */
 export interface RefitSchedule {
@@ -60,10 +61,11 @@ export function keepRefitScheduleCurrent(boss: PgBoss, pool: pg.Pool, logger: Lo
 }
 
 /** Starts the handler that turns a schedule firing into a run over all active series. */
-export async function workRefitNightly(boss: PgBoss, pool: pg.Pool, logger: Logger): Promise<void> {
+export async function workRefitNightly(boss: PgBoss, pool: pg.Pool, logger: Logger, presence: WorkerPresence): Promise<void> {
   const insertJobs = createJobInserter();
-  await boss.work(refitNightlyQueue, { includeMetadata: true }, async ([job]) => {
-    if (!job) return;
+  await boss.work(refitNightlyQueue, { includeMetadata: true }, ([job]) => job && presence.hold([job.id], () => startNightly(job)));
+
+  async function startNightly(job: PgBoss.JobWithMetadata<unknown>): Promise<void> {
     // The fire time to the minute: a schedule delivered twice for one minute starts one run.
     const scheduledFor = new Date(Math.floor(job.createdOn.getTime() / 60_000) * 60_000);
     try {
@@ -74,5 +76,5 @@ export async function workRefitNightly(boss: PgBoss, pool: pg.Pool, logger: Logg
       if (error instanceof RefitScopeError) logger.info({ reason: error.message }, 'nightly refit: nothing to refit');
       else throw error;
     }
-  });
+  }
 }

@@ -1,26 +1,20 @@
 /** Registers the refit queues, the nightly schedule and their handlers in a worker process. */
 import pg from 'pg';
 import type PgBoss from 'pg-boss';
-import type { Logger } from 'pino';
 import { createRefitQueues } from '@loadwright/refits';
+import type { QueueContext } from './queues';
 import { applyRefitSchedule, keepRefitScheduleCurrent, workRefitNightly } from './refit-nightly.worker';
 import { workRefitSeries } from './refit-series.worker';
 import { startRefitSweeper } from './refit-sweeper';
 
-/** What the refit handlers need from the worker. */
-export interface RefitWorkerContext {
-  logger: Logger;
-  concurrency: number;
-  databaseUrl: string;
-}
-
 /** Creates the queues, applies the schedule and starts both handlers; stops the pool with the boss. */
-export async function registerRefitQueues(boss: PgBoss, context: RefitWorkerContext): Promise<void> {
+export async function registerRefitQueues(boss: PgBoss, context: QueueContext): Promise<void> {
   const pool = new pg.Pool({
     connectionString: context.databaseUrl,
     max: context.concurrency + 2,
     application_name: 'loadwright-refit',
     idleTimeoutMillis: 5_000,
+    connectionTimeoutMillis: 10_000,
     allowExitOnIdle: true,
   });
   pool.on('error', (error) => context.logger.warn({ err: error }, 'refit database connection lost'));
@@ -34,6 +28,6 @@ export async function registerRefitQueues(boss: PgBoss, context: RefitWorkerCont
     stopSweeps();
     void pool.end().catch(() => {});
   });
-  await workRefitNightly(boss, pool, context.logger);
-  await workRefitSeries(boss, pool, context.logger, context.concurrency);
+  await workRefitNightly(boss, pool, context.logger, context.presence);
+  await workRefitSeries(boss, pool, context.logger, context.concurrency, context.presence);
 }

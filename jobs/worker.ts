@@ -4,6 +4,7 @@
  * to exactly one of them.
  */
 import { pino } from 'pino';
+import { isDatabaseUnavailable } from '@loadwright/db';
 import { ConfigError, loadConfig } from '@loadwright/runtime';
 import { stopWithParent } from '@loadwright/runtime';
 import { createBoss } from './boss';
@@ -23,11 +24,41 @@ if (!config.DATABASE_URL) {
   process.exit(1);
 }
 
+// pg-boss 10 records a job's completion or failure without awaiting it, and a lost connection can
+// surface outside any handler: while the database is away such errors are logged, not fatal. The jobs
+// they leave active are handed back by the reaper once the database returns (worker-presence.ts).
+// Anything else is a bug: log it and exit, and `npm start` restarts the worker.
+for (const event of ['unhandledRejection', 'uncaughtException'] as const)
+  process.on(event, (error: unknown) => {
+    if (isDatabaseUnavailable(error)) return logger.warn({ err: error }, 'database unavailable; the worker waits for it');
+    logger.fatal({ err: error }, `worker stopping on ${event}`);
+    process.exit(1);
+  });
+
 const boss = createBoss(config.DATABASE_URL, { supervise: true });
-boss.on('error', (error) => logger.error({ err: error }, 'job queue error'));
-await boss.start();
-await registerQueues(boss, { logger, concurrency: config.WORKER_CONCURRENCY, databaseUrl: config.DATABASE_URL });
-logger.info({ concurrency: config.WORKER_CONCURRENCY }, 'worker ready');
+boss.on('error', (error) => logger[isDatabaseUnavailable(error) ? 'warn' : 'error']({ err: error }, 'job queue error'));
+await startWhenDatabaseAnswers();
+await registerQueues(boss, {
+  logger,
+  concurrency: config.WORKER_CONCURRENCY,
+  databaseUrl: config.DATABASE_URL,
+  heartbeatSeconds: config.WORKER_HEARTBEAT_SECONDS,
+});
+logger.info({ concurrency: config.WORKER_CONCURRENCY, heartbeatSeconds: config.WORKER_HEARTBEAT_SECONDS }, 'worker ready');
+
+/** Starts pg-boss, waiting (2 s apart) while the database is unreachable instead of exiting. */
+async function startWhenDatabaseAnswers(): Promise<void> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      await boss.start();
+      return;
+    } catch (error) {
+      if (!isDatabaseUnavailable(error)) throw error;
+      if (attempt === 1) logger.warn({ err: error }, 'database unavailable at start; waiting for it');
+      await new Promise((done) => setTimeout(done, 2_000));
+    }
+  }
+}
 
 const stop = async () => {
   logger.info('worker stopping: finishing jobs in hand');

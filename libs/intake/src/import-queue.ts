@@ -14,8 +14,10 @@ export interface ImportUploadJob {
 
 /**
  * Retries for unexpected failures (a lost connection): two, 20 s apart and doubling. A rejected file
- * is not a failure of the job: it ends the job with the upload marked failed. A job running past an
- * hour (a worker killed mid-import) is taken again; the import is idempotent.
+ * is not a failure of the job: it ends the job with the upload marked failed. A job whose worker dies
+ * is handed back within about a minute by the worker heartbeat (jobs/worker-presence.ts), however long
+ * the import; the hour of expiry only catches a handler that hangs in a live worker. The import is
+ * idempotent and writes in one transaction, so a retry never half-writes or duplicates.
  */
 export const importQueueOptions = { retryLimit: 2, retryDelay: 20, retryBackoff: true, expireInSeconds: 3600 } satisfies Omit<
   PgBoss.Queue,

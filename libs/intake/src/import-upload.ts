@@ -6,7 +6,7 @@
  * stores nothing. Safe to run twice: a finished upload is left alone.
  */
 import { rm } from 'node:fs/promises';
-import { eq } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import type { UploadMapping, UploadSettings } from '@loadwright/contracts';
 import { auditLog, uploads, type Database } from '@loadwright/db';
 import type { Pool } from 'pg';
@@ -87,7 +87,12 @@ export async function importUpload(deps: ImportUploadDeps, uploadId: number): Pr
     for (const finding of file.findings) tally.add(finding);
     const totals = { inserted: 0, unchanged: 0, revised: 0, rejected: file.rejected };
     let written = 0;
-    await db.transaction(async (tx) => {
+    const doneMeanwhile = await db.transaction(async (tx) => {
+      // A copy of this job handed back while the first still runs (a worker cut off from the database
+      // but not dead) waits here, then finds the upload done and writes nothing.
+      await tx.execute(sql`select pg_advisory_xact_lock(hashtext('loadwright.import-upload'), ${uploadId})`);
+      const [current] = await tx.select({ status: uploads.status }).from(uploads).where(eq(uploads.id, uploadId));
+      if (current?.status === 'done') return true;
       // Screen every series first (quick queries), then validate each series in JavaScript while
       // the previous one is being written, so the CPU work overlaps the database's.
       const screened: ScreenedSeries[] = [];
@@ -138,7 +143,9 @@ export async function importUpload(deps: ImportUploadDeps, uploadId: number): Pr
         targetId: String(uploadId),
         detail: { fileName: upload.fileName, rows: file.rows, ...totals },
       });
+      return false;
     });
+    if (doneMeanwhile) return { status: 'skipped', reason: `upload ${uploadId} was imported by another attempt` };
     await rm(upload.storagePath, { force: true });
     return { status: 'done', rows: file.rows, ...totals, findings: tally };
   } catch (error) {

@@ -24,8 +24,10 @@ export function refitQueueOptions(env: NodeJS.ProcessEnv = process.env): Omit<Pg
     retryLimit: Number.isInteger(limit) && limit >= 0 ? limit : 2,
     retryDelay: Number.isFinite(delay) && delay >= 0 ? delay : 30,
     retryBackoff: true,
-    // A worker killed mid-job leaves it active; after this long another worker takes it again.
-    expireInSeconds: 600,
+    // A killed worker's jobs are handed back by the worker heartbeat within about a minute
+    // (jobs/worker-presence.ts); expiry only catches a refit that hangs in a live worker. One refit
+    // takes seconds, a batch of WORKER_CONCURRENCY well under a minute on two cores.
+    expireInSeconds: 300,
   };
 }
 

@@ -29,6 +29,8 @@ export const configSchema = z.object({
   // (10,000 series: 21 min at 2 per worker, under 10 min at 6; bench/refit/nightly-refit.ts).
   WORKER_CONCURRENCY: integer(1, 32, 6),
   WORKER_PROCESSES: integer(1, 16, 1),
+  // A worker missing three beats counts as dead and its jobs go back to the queue (jobs/worker-presence.ts).
+  WORKER_HEARTBEAT_SECONDS: integer(1, 300, 10),
   UPLOAD_MAX_MB: integer(1, 10_240, 512),
   PUBLIC_URL: z
     .url({ protocol: /^https?$/, error: 'must be the http:// or https:// address people open, e.g. https://loadwright.utility.example' })
