@@ -10,6 +10,7 @@ const report: HealthReport = {
   checkedAt: '2026-12-02T07:00:00.000Z',
   database: { ok: true, latencyMs: 1, detail: 'connected' },
   queue: { ok: true, latencyMs: 2, detail: '0 queues', queues: [] },
+  workers: { ok: false, latencyMs: 1, detail: '0 workers running', processes: [] },
 };
 
 /** A read function that answers from a script, one entry per call, and counts its calls. */

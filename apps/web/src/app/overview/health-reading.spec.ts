@@ -1,6 +1,6 @@
 import type { HealthReport } from '@loadwright/contracts';
 import { describe, expect, it } from 'vitest';
-import { databaseLine, failingComponents, formatLatency, queueLine, verdictOf } from './health-reading';
+import { databaseLine, failingComponents, formatLatency, queueLine, verdictOf, workersLine } from './health-reading';
 
 /** A report as the API writes it when everything answers. */
 function healthyReport(): HealthReport {
@@ -10,6 +10,23 @@ function healthyReport(): HealthReport {
     checkedAt: '2026-12-02T07:00:00.000Z',
     database: { ok: true, latencyMs: 1.84, detail: 'connected' },
     queue: { ok: true, latencyMs: 12.6, detail: '2 queues', queues: [{ name: 'refit-series', queued: 3, active: 1, failed: 0 }] },
+    workers: {
+      ok: true,
+      latencyMs: 2.1,
+      detail: '1 worker running, 1 job in hand',
+      processes: [
+        {
+          name: 'worker-1',
+          host: 'planning-01',
+          pid: 4242,
+          startedAt: '2026-12-02T06:00:00.000Z',
+          lastBeatAt: '2026-12-02T06:59:55.000Z',
+          beatSeconds: 10,
+          live: true,
+          jobsInHand: 1,
+        },
+      ],
+    },
   };
 }
 
@@ -47,6 +64,21 @@ describe('verdictOf', () => {
     expect(verdictOf({ state: 'answered', report, checkedAt: new Date() }).detail).toBe(
       'The database and the job queue are not working. Uploads, refits and forecasts may wait until they recover.',
     );
+  });
+
+  it('names the worker when the database answers but no worker beats, and lists three components in one sentence', () => {
+    const healthy = healthyReport();
+    const stopped = { ...healthy.workers.processes[0]!, live: false, jobsInHand: 0 };
+    const noWorker: HealthReport = {
+      ...healthy,
+      status: 'degraded',
+      workers: { ok: false, latencyMs: 1, detail: '0 workers running: a worker stopped sending heartbeats', processes: [stopped] },
+    };
+    expect(verdictOf({ state: 'answered', report: noWorker, checkedAt: new Date() }).detail).toBe(
+      'The worker is not working. Uploads, refits and forecasts may wait until it recovers.',
+    );
+    const all: HealthReport = { ...noWorker, queue: { ...healthy.queue, ok: false } };
+    expect(failingComponents(all)).toEqual(['the job queue', 'the worker']);
   });
 
   it('passes the reason through when the API is unreachable', () => {
@@ -95,5 +127,25 @@ describe('formatLatency', () => {
     expect(formatLatency(9.94)).toBe('9.9 ms');
     expect(formatLatency(10.4)).toBe('10 ms');
     expect(formatLatency(null)).toBeNull();
+  });
+});
+
+describe('workersLine', () => {
+  it('counts the live workers', () => {
+    expect(workersLine(healthyReport())).toEqual({
+      ok: true,
+      icon: 'check_circle',
+      text: 'Workers: 1 running',
+      detail: '1 worker running, 1 job in hand',
+      latency: '2.1 ms',
+    });
+  });
+
+  it('says none runs when every heartbeat is stale, and unknown while the database is away', () => {
+    const report = healthyReport();
+    const stopped: HealthReport = { ...report, workers: { ...report.workers, ok: false, processes: [] } };
+    expect(workersLine(stopped).text).toBe('Workers: none running');
+    const noDatabase: HealthReport = { ...stopped, database: { ok: false, latencyMs: null, detail: 'connection refused' } };
+    expect(workersLine(noDatabase).text).toBe('Workers: unknown');
   });
 });

@@ -47,7 +47,7 @@ export function verdictOf(reading: HealthReading): HealthVerdict {
             tone: 'good',
             icon: 'check_circle',
             headline: 'All services working',
-            detail: 'The database and the job queue answered normally.',
+            detail: 'The database and the job queue answered normally, and a worker is running.',
           }
         : {
             tone: 'warning',
@@ -58,10 +58,10 @@ export function verdictOf(reading: HealthReading): HealthVerdict {
   }
 }
 
-/** "The job queue is not working. …" for one failing component, "… are not working. …" for both. */
+/** "The job queue is not working. …" for one failing component, "… are not working. …" for several. */
 function degradedDetail(failing: readonly string[]): string {
-  if (failing.length === 0) return 'The API reports a problem it did not attribute to the database or the job queue.';
-  const subject = failing.join(' and ');
+  if (failing.length === 0) return 'The API reports a problem it did not attribute to the database, the job queue or the worker.';
+  const subject = failing.length === 1 ? failing[0]! : `${failing.slice(0, -1).join(', ')} and ${failing[failing.length - 1]}`;
   const [verb, pronoun, recover] = failing.length === 1 ? ['is', 'it', 'recovers'] : ['are', 'they', 'recover'];
   return `${subject.charAt(0).toUpperCase()}${subject.slice(1)} ${verb} not working. Uploads, refits and forecasts may wait until ${pronoun} ${recover}.`;
 }
@@ -71,6 +71,8 @@ export function failingComponents(report: HealthReport): string[] {
   const failing: string[] = [];
   if (!report.database.ok) failing.push('the database');
   if (!report.queue.ok) failing.push('the job queue');
+  // With the database down the worker check could not run: the database is the news, not the worker.
+  if (!report.workers.ok && report.database.ok) failing.push('the worker');
   return failing;
 }
 
@@ -94,6 +96,19 @@ export function queueLine(report: HealthReport): ComponentLine {
     ok,
     icon: ok ? 'check_circle' : 'error',
     text: ok ? 'Job queue: ready' : 'Job queue: unavailable',
+    detail,
+    latency: formatLatency(latencyMs),
+  };
+}
+
+/** Describes the workers in words: how many run (by their heartbeats), or that none does. */
+export function workersLine(report: HealthReport): ComponentLine {
+  const { ok, detail, latencyMs, processes } = report.workers;
+  const live = processes.filter((worker) => worker.live).length;
+  return {
+    ok,
+    icon: ok ? 'check_circle' : 'error',
+    text: ok ? `Workers: ${live} running` : report.database.ok ? 'Workers: none running' : 'Workers: unknown',
     detail,
     latency: formatLatency(latencyMs),
   };

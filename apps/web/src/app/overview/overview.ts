@@ -6,7 +6,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { Subject } from 'rxjs';
 import { HealthClient } from '../core/health/health-client';
 import { HEALTH_POLL_INTERVAL_MS, pollHealth } from './health-feed';
-import { type HealthReading, databaseLine, queueLine, verdictOf } from './health-reading';
+import { type HealthReading, databaseLine, queueLine, verdictOf, workersLine } from './health-reading';
 import { ComponentStatus } from './component-status';
 import { RefitStatus } from './refit-status';
 import { SystemPeak } from './system-peak';
@@ -43,6 +43,11 @@ export class Overview {
   protected readonly queue = computed(() => {
     const report = this.report();
     return report ? queueLine(report) : null;
+  });
+  /** Workers line of the latest report. */
+  protected readonly workers = computed(() => {
+    const report = this.report();
+    return report ? workersLine(report) : null;
   });
   /** Time of the latest check, answered or not. */
   protected readonly checkedAt = computed(() => {
