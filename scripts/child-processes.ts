@@ -44,3 +44,57 @@ export async function stopAll(children: NamedChild[], graceMs = 10_000): Promise
     }),
   );
 }
+
+/**
+ * When a supervised child that stopped on its own is started again: after 1 s, then 2, 4, 8 … doubling
+ * up to 60 s between attempts, for as long as it keeps failing (it is never given up on: a worker that
+ * cannot reach its database comes back when the database does). A run that lasted 5 minutes counts as
+ * healthy and the next failure waits 1 s again.
+ */
+export const restartPolicy = { firstDelayMs: 1_000, maxDelayMs: 60_000, healthyRunMs: 300_000 };
+
+/** The wait before the next start, given the previous wait (null for none yet) and how long the last run lasted. */
+export function nextRestartDelay(previousDelayMs: number | null, ranForMs: number, policy = restartPolicy): number {
+  if (previousDelayMs === null || ranForMs >= policy.healthyRunMs) return policy.firstDelayMs;
+  return Math.min(policy.maxDelayMs, previousDelayMs * 2);
+}
+
+/** A child that is started again whenever it stops on its own. */
+export interface SupervisedChild {
+  name: string;
+  /** The process running now (undefined while waiting to restart). */
+  current(): ChildProcess | undefined;
+  /** Stops restarting and stops the child (SIGTERM, then SIGKILL after `graceMs`). */
+  stop(graceMs?: number): Promise<void>;
+}
+
+/** Runs `start()` now and again after each exit not asked for, waiting as {@link nextRestartDelay} says. */
+export function supervise(name: string, start: () => ChildProcess, log: (line: string) => void, policy = restartPolicy): SupervisedChild {
+  let child: ChildProcess | undefined;
+  let stopping = false;
+  let delay: number | null = null;
+  let timer: NodeJS.Timeout | undefined;
+
+  const run = () => {
+    const startedAt = Date.now();
+    child = start();
+    child.once('exit', (code, signal) => {
+      child = undefined;
+      if (stopping) return;
+      delay = nextRestartDelay(delay, Date.now() - startedAt, policy);
+      const how = signal ? `was killed (${signal})` : `stopped unexpectedly (exit code ${code})`;
+      log(`The ${name} process ${how}; starting it again in ${delay / 1000} s. The API keeps serving meanwhile.`);
+      timer = setTimeout(run, delay);
+    });
+  };
+  run();
+  return {
+    name,
+    current: () => child,
+    async stop(graceMs = 10_000) {
+      stopping = true;
+      clearTimeout(timer);
+      if (child) await stopAll([{ name, process: child }], graceMs);
+    },
+  };
+}

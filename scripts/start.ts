@@ -2,12 +2,14 @@
  * `npm start`: everything a fresh machine needs to run Loadwright with its demo data. Starts
  * PostgreSQL on loopback (unless DATABASE_URL names a server), migrates, seeds the demo cooperative
  * when the database is empty, rebuilds the web app when stale, then runs the API and the worker(s)
- * until Ctrl-C, which stops all it started.
+ * until Ctrl-C, which stops all it started. A worker that dies is started again with backoff (see
+ * restartPolicy in child-processes.ts) while the API, the mail catcher and PostgreSQL keep serving;
+ * the API is the front door, so if it stops, everything stops.
  */
 import { resolve } from 'node:path';
 import { migrate } from '@loadwright/db';
 import { ConfigError, loadConfig } from '@loadwright/runtime';
-import { firstExit, startTypeScript, stopAll, type NamedChild } from './child-processes';
+import { firstExit, startTypeScript, stopAll, supervise, type NamedChild, type SupervisedChild } from './child-processes';
 import { AlreadyRunningError, acquireInstanceLock } from './instance-lock';
 import { defaultLocation, ensurePostgres, localDataDir, stopPostgres } from './postgres';
 import { buildWeb, isWebBuildStale } from './web-build';
@@ -25,6 +27,7 @@ async function main(): Promise<number> {
     startedAt: new Date().toISOString(),
   });
   const children: NamedChild[] = [];
+  const workers: SupervisedChild[] = [];
   let startedPostgres = false;
   let catcher: MailCatcher | undefined;
   let stopping = false;
@@ -33,7 +36,7 @@ async function main(): Promise<number> {
     if (stopping) return;
     stopping = true;
     console.log('\nStopping Loadwright…');
-    await stopAll(children);
+    await Promise.all([stopAll(children), ...workers.map((worker) => worker.stop())]);
     await catcher?.stop();
     if (startedPostgres) await stopPostgres(defaultLocation());
     releaseLock();
@@ -66,8 +69,11 @@ async function main(): Promise<number> {
       console.log(`  Mail goes to the local catcher (${catcher.smtpUrl}); admins read it on the Outbox page.`);
     }
     children.push(startTypeScript('API', 'apps/api/src/server.ts', env));
-    for (let i = 1; i <= config.WORKER_PROCESSES; i++)
-      children.push(startTypeScript(`worker ${i}`, 'jobs/worker.ts', { ...env, WORKER_NAME: `worker-${i}` }));
+    for (let i = 1; i <= config.WORKER_PROCESSES; i++) {
+      const name = `worker ${i}`;
+      const start = () => startTypeScript(name, 'jobs/worker.ts', { ...env, WORKER_NAME: `worker-${i}` }).process;
+      workers.push(supervise(name, start, (line) => console.error(line)));
+    }
     console.log(`\nLoadwright is running at ${url}\n\n${demoAccountsText()}\nPress Ctrl-C to stop.\n`);
     const exited = await firstExit(children);
     if (!stopping) {

@@ -1,7 +1,8 @@
 /**
  * `npm start` as a person runs it: it comes up with the demo data and says where; a second start says
  * the first is running; Ctrl-C stops what it started; a PostgreSQL left behind by a killed start is
- * reused, not duplicated. Runs the real script against its own data folder and ports.
+ * reused, not duplicated; a worker killed outright is started again while the API keeps serving. Runs
+ * the real script against its own data folder and ports.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { chmodSync, mkdtempSync, rmSync } from 'node:fs';
@@ -48,10 +49,16 @@ async function waitFor(condition: () => boolean | Promise<boolean>, what: string
   throw new Error(`timed out waiting for ${what}`);
 }
 
-async function healthOf(port: number): Promise<{ status: string } | null> {
+/** The part of the health report these checks read. */
+interface Health {
+  status: string;
+  workers?: { processes: Array<{ name: string; pid: number; live: boolean }> };
+}
+
+async function healthOf(port: number): Promise<Health | null> {
   try {
     const response = await fetch(`http://127.0.0.1:${port}/api/health`);
-    return (await response.json()) as { status: string };
+    return (await response.json()) as Health;
   } catch {
     return null;
   }
@@ -91,6 +98,21 @@ describe('npm start', () => {
     expect(third.output()).toContain('already running on 127.0.0.1');
     expect(third.output()).not.toContain('Seeded the demo cooperative.');
     await waitFor(async () => (await healthOf(port))?.status === 'ok', 'a healthy API again');
+
+    // A worker killed outright is started again (after 1 s, restartPolicy) and nothing else stops.
+    const liveWorkers = async () => ((await healthOf(port))?.workers?.processes ?? []).filter((w) => w.live);
+    const [killed] = await liveWorkers();
+    expect(killed?.name).toBe('worker-1');
+    process.kill(killed!.pid, 'SIGKILL');
+    await waitFor(
+      () => third.output().includes('The worker 1 process was killed (SIGKILL); starting it again in 1 s.'),
+      'the restart notice',
+      20_000,
+    );
+    await waitFor(async () => (await liveWorkers()).some((w) => w.pid !== killed!.pid), 'a new live worker', 60_000);
+    expect(third.child.exitCode).toBeNull();
+    expect(third.output()).not.toContain('stopping the rest');
+    expect((await fetch(`http://127.0.0.1:${port}/`)).status).toBe(200);
 
     third.child.kill('SIGINT');
     expect(await third.exited).toBe(0);
