@@ -37,8 +37,14 @@ export interface TestServer {
 }
 
 /** Starts an instance; call close() in afterAll. */
-export async function startTestServer(options: { worker?: boolean; logLines?: string[] } = {}): Promise<TestServer> {
-  const databaseUrl = await createTestDatabase();
+export async function startTestServer(
+  options: {
+    worker?: boolean;
+    logLines?: string[];
+    /** A migrated database of the test's own (default: a fresh clone). */ databaseUrl?: string;
+  } = {},
+): Promise<TestServer> {
+  const databaseUrl = options.databaseUrl ?? (await createTestDatabase());
   // Tests that check what reaches the log pass an array that collects every line.
   const logger = options.logLines
     ? pino({ level: 'trace' }, { write: (line: string) => void options.logLines!.push(line) })
