@@ -24,8 +24,10 @@ if (!config.DATABASE_URL) {
   process.exit(1);
 }
 
-// pg-boss 10 records a job's completion or failure without awaiting it, and a lost connection can
-// surface outside any handler: while the database is away such errors are logged, not fatal. The jobs
+// pg-boss 10 records a job's completion or failure without awaiting it (Manager.watch calls
+// this.fail(...) unawaited), so a database restart during a job surfaced as an unhandled rejection
+// that killed the worker; a lost connection can also surface outside any handler. While the
+// database is away such errors are logged, not fatal. The jobs
 // they leave active are handed back by the reaper once the database returns (worker-presence.ts).
 // Anything else is a bug: log it and exit, and `npm start` restarts the worker.
 for (const event of ['unhandledRejection', 'uncaughtException'] as const)

@@ -1,7 +1,7 @@
 /** The API process: reads its configuration, connects to PostgreSQL and serves until told to stop. */
 import { randomBytes } from 'node:crypto';
 import { resolve } from 'node:path';
-import { createDb } from '@loadwright/db';
+import { createDb, isDatabaseUnavailable } from '@loadwright/db';
 import { pino } from 'pino';
 import { createApp } from './app';
 import { ConfigError, loadConfig, type Config } from '@loadwright/runtime';
@@ -23,6 +23,12 @@ export async function startServer(config: Config) {
   }
   const publicUrl = config.PUBLIC_URL ?? `http://${config.HOST}:${config.PORT}`;
   const { db, pool, close } = createDb(config.DATABASE_URL, { applicationName: 'loadwright-api' });
+  // Requests that hit a lost database answer 503 (problem-middleware.ts); a lost connection that
+  // surfaces outside a request is logged, not fatal, and the pool reconnects on the next query.
+  process.on('unhandledRejection', (error: unknown) => {
+    if (!isDatabaseUnavailable(error)) throw error;
+    logger.warn({ err: error }, 'database unavailable');
+  });
   const app = createApp({
     db,
     pool,
