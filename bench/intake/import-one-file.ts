@@ -9,9 +9,7 @@
  *
  * Usage: node --import tsx --expose-gc bench/intake/import-one-file.ts --rows 1000000 [--mode reference]
  */
-import { createWriteStream } from 'node:fs';
 import { rm, stat } from 'node:fs/promises';
-import { once } from 'node:events';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parseArgs } from 'node:util';
@@ -20,6 +18,7 @@ import { migrate } from '../../libs/db/src/migrate';
 import { createDatabase, dropDatabase, ensurePostgres } from '../../scripts/postgres';
 import { importUpload } from '@loadwright/intake';
 import { insertObservations } from '../../libs/db/src/seed/insert-observations';
+import { writeLoadFile } from './load-file';
 
 const { values: args } = parseArgs({
   options: { rows: { type: 'string', default: '1000000' }, mode: { type: 'string', default: 'import' } },
@@ -28,32 +27,6 @@ const rows = Number(args.rows);
 const seriesCount = 12;
 const hourMs = 3_600_000;
 const start = Date.UTC(2015, 0, 1);
-
-/** Writes the file: hour by hour, one row per series; a few short gaps so estimation runs too. */
-async function writeFile(path: string): Promise<number> {
-  const out = createWriteStream(path);
-  out.write('timestamp,series,value_kw\n');
-  const hours = Math.ceil(rows / seriesCount);
-  let written = 0;
-  let chunk: string[] = [];
-  for (let h = 0; h < hours && written < rows; h++) {
-    const ts = new Date(start + h * hourMs).toISOString();
-    const daily = Math.sin(((h % 24) / 24) * 2 * Math.PI - Math.PI / 2);
-    for (let s = 1; s <= seriesCount && written < rows; s++) {
-      written++;
-      if ((h + s * 977) % 5003 === 0) continue; // an occasional missing hour
-      const noise = (((s * 2654435761 + h * 40503) >>> 0) % 1000) / 1000 - 0.5;
-      chunk.push(`${ts},fdr-${s},${(400 + 40 * s + 120 * daily + 8 * noise).toFixed(1)}\n`);
-    }
-    if (chunk.length >= 10_000) {
-      if (!out.write(chunk.join(''))) await once(out, 'drain');
-      chunk = [];
-    }
-  }
-  out.end(chunk.join(''));
-  await once(out, 'finish');
-  return written;
-}
 
 /** The reference: the same readings through the seed's batched insert, in one transaction. */
 async function referenceInsert(db: ReturnType<typeof createDb>['db']) {
@@ -91,7 +64,7 @@ try {
       timeZone: 'America/Chicago',
     })),
   );
-  const fileRows = await writeFile(path);
+  const fileRows = await writeLoadFile(path, rows, seriesCount);
   const bytes = (await stat(path)).size;
   const [upload] = await db
     .insert(uploads)
