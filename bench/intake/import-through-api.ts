@@ -64,9 +64,9 @@ export const bench: Benchmark = {
       direct.push(child<DirectRun>(directScript, ['--expose-gc']));
       api.push(child<ApiRun>(apiScript));
     }
-    const directRate = median(direct.map((r) => r.rowsPerSecond));
-    const apiRate = median(api.map((r) => r.rowsPerSecond));
-    const importRate = median(api.map((r) => r.importRowsPerSecond));
+    const directRate = Math.round(median(direct.map((r) => r.rowsPerSecond)));
+    const apiRate = Math.round(median(api.map((r) => r.rowsPerSecond)));
+    const importRate = Math.round(median(api.map((r) => r.importRowsPerSecond)));
     const step = (key: keyof ApiRun) => round1(median(api.map((r) => r[key] as number)));
     return {
       rows: [

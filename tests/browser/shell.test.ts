@@ -158,7 +158,7 @@ describe('web shell with no job queue installed', () => {
   let viewer: { email: string };
 
   beforeAll(async () => {
-    // No worker has started, so pg-boss never installed its schema: the API answers 503 "degraded".
+    // No worker has started, so pg-boss never installed its schema and no heartbeat exists: the API answers 503 "degraded".
     server = await startTestServer({ worker: false });
     ({ viewer } = await createPeople(server.db));
     await browser.context.clearCookies();
@@ -170,7 +170,7 @@ describe('web shell with no job queue installed', () => {
     await server?.close();
   });
 
-  it('shows a degraded service and names the job queue as the part not working', async () => {
+  it('shows a degraded service and names the job queue and the worker as the parts not working', async () => {
     const answer = await fetch(`${server.url}/api/health`);
     expect(answer.status).toBe(503);
     const requests = watchRequests(page);
@@ -178,9 +178,10 @@ describe('web shell with no job queue installed', () => {
     await signInThroughPage(page, server.url, viewer.email, testPassword);
     const status = page.getByRole('status');
     await status.getByText('Service degraded').waitFor({ timeout: 15_000 });
-    expect(await status.textContent()).toContain('The job queue is not working.');
+    expect(await status.textContent()).toContain('The job queue and the worker are not working.');
     const main = page.getByRole('main');
     expect(await main.getByText('Job queue: unavailable').isVisible()).toBe(true);
+    expect(await main.getByText('Workers: none running').isVisible()).toBe(true);
     expect(await main.getByText('Database: connected').isVisible()).toBe(true);
     expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
     await page.screenshot({ path: resolve(artifacts, 'overview-degraded.png') });
