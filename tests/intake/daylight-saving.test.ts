@@ -1,7 +1,9 @@
 /**
  * Local-time files across the daylight-saving changes of 2026, in a zone with daylight saving
  * (America/Chicago: spring forward 2026-03-08 02:00 → 03:00, fall back 2026-11-01 02:00 → 01:00) and
- * one without (America/Phoenix, UTC−7 all year): the right UTC instants and the right findings.
+ * one without (America/Phoenix, UTC−7 all year): the right UTC instants and the right findings. The
+ * proposed policy, by-order, places the repeated hour by file order and drops, with the reason, only
+ * what order cannot decide; a 25-hour day in Phoenix refuses the file.
  */
 import { series } from '@loadwright/db';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -19,6 +21,9 @@ beforeAll(async () => {
   await server.db.insert(series).values([
     { key: 'chicago-a', name: 'Chicago A', timeZone: 'America/Chicago', ...feeder },
     { key: 'chicago-b', name: 'Chicago B', timeZone: 'America/Chicago', ...feeder },
+    { key: 'chicago-c', name: 'Chicago C', timeZone: 'America/Chicago', ...feeder },
+    { key: 'chicago-d', name: 'Chicago D', timeZone: 'America/Chicago', ...feeder },
+    { key: 'chicago-e', name: 'Chicago E', timeZone: 'America/Chicago', ...feeder },
     { key: 'phoenix-a', name: 'Phoenix A', timeZone: 'America/Phoenix', ...feeder },
   ]);
 });
@@ -30,7 +35,12 @@ function localFile(day: string, hours: number[], base = 500): string {
 }
 
 /** Uploads a local-time file for one series and returns the stored rows and the findings. */
-async function importLocal(key: string, timeZone: string, content: string, repeatedHourPolicy: 'reject' | 'first-is-daylight') {
+async function importLocal(
+  key: string,
+  timeZone: string,
+  content: string,
+  repeatedHourPolicy: 'reject' | 'first-is-daylight' | 'by-order',
+) {
   const posted = await postFile(server.url, steward, `${key}.csv`, content);
   expect(posted.status).toBe(201);
   const mapping = { layout: 'long', timestampColumn: 'local time', valueColumn: 'kW', seriesKeyColumn: null, seriesKey: key } as const;
@@ -44,7 +54,6 @@ async function importLocal(key: string, timeZone: string, content: string, repea
   } as const;
   expect((await confirm(server.url, steward, posted.body.upload.id, { mapping, settings })).status).toBe(200);
   const done = await waitForImport(server.url, steward, posted.body.upload.id);
-  expect(done.upload.status).toBe('done');
   const stored = await server.pool.query(
     `select o.ts, o.value, o.estimated, o.quality from observations o join series s on s.id = o.series_id where s.key = $1 and o.upload_id = $2 order by o.ts`,
     [key, posted.body.upload.id],
@@ -89,9 +98,58 @@ describe('America/Chicago (daylight saving)', () => {
       { ts: '2026-11-01T08:00:00.000Z', value: 503, estimated: null, quality: 0 },
     ]);
     expect(result.findings).toEqual([
-      { rule: 'dst_repeated_hour', ts: '2026-11-01T06:00:00.000Z', row: 3, resolution: 'daylight (first occurrence)' },
-      { rule: 'dst_repeated_hour', ts: '2026-11-01T07:00:00.000Z', row: 4, resolution: 'standard (second occurrence)' },
+      { rule: 'dst_resolved', ts: '2026-11-01T06:00:00.000Z', row: 3, resolution: 'daylight (first occurrence)' },
+      { rule: 'dst_resolved', ts: '2026-11-01T07:00:00.000Z', row: 4, resolution: 'standard (second occurrence)' },
     ]);
+  });
+
+  it('fall back, by-order (the proposal): a file in time order places the first 01:00 as CDT and the second as CST, as information', async () => {
+    const hours = [0, 1, 1, ...allHours.slice(2)];
+    const result = await importLocal('chicago-c', 'America/Chicago', localFile('2026-11-01', hours, 800), 'by-order');
+    expect(result.upload.status).toBe('done');
+    // 00:00 CDT = 05:00Z; 01:00 CDT = 06:00Z; 01:00 CST = 07:00Z; 02:00 CST = 08:00Z … 23:00 CST = 05:00Z next day.
+    expect(result.rows.map((r) => r.ts)).toEqual(utcHours('2026-11-01T05:00:00Z', 25));
+    expect(result.rows.map((r) => r.value)).toEqual(Array.from({ length: 25 }, (_, i) => 800 + i));
+    expect(result.rows.map((r) => r.quality).slice(0, 4)).toEqual([0, 128, 128, 0]);
+    expect(result.findings).toEqual([
+      { rule: 'dst_resolved', ts: '2026-11-01T06:00:00.000Z', row: 3, resolution: 'daylight time (first in the file)' },
+      { rule: 'dst_resolved', ts: '2026-11-01T07:00:00.000Z', row: 4, resolution: 'standard time (second in the file)' },
+    ]);
+    const report = await server.pool.query(
+      `select count(*)::int as n from upload_findings where upload_id = $1 and rule = 'dst_repeated_hour'`,
+      [result.upload.id],
+    );
+    expect(report.rows[0].n).toBe(0);
+  });
+
+  it('fall back, by-order: one 01:00 alone cannot be placed, so it is dropped with the reason and the hours around it estimated', async () => {
+    // 00:00 CDT (05:00Z) = 900, 01:00 (which one?) = 901, 02:00 CST (08:00Z) = 902 …
+    const result = await importLocal('chicago-d', 'America/Chicago', localFile('2026-11-01', allHours, 900), 'by-order');
+    expect(result.upload).toMatchObject({ status: 'done', rowsTotal: 24, rowsRejected: 1 });
+    expect(result.rows.slice(0, 4)).toEqual([
+      { ts: '2026-11-01T05:00:00.000Z', value: 900, estimated: null, quality: 0 },
+      // Linear between 900 at 05:00Z and 902 at 08:00Z: 900 + 2/3 and 900 + 4/3, rounded to 6 decimals.
+      { ts: '2026-11-01T06:00:00.000Z', value: null, estimated: 900.666667, quality: 3 },
+      { ts: '2026-11-01T07:00:00.000Z', value: null, estimated: 901.333333, quality: 3 },
+      { ts: '2026-11-01T08:00:00.000Z', value: 902, estimated: null, quality: 0 },
+    ]);
+    expect(result.findings.find((f) => f.rule === 'dst_repeated_hour')).toEqual({
+      rule: 'dst_repeated_hour',
+      ts: null,
+      row: 3,
+      resolution:
+        'dropped: the file holds one reading at a time that occurs twice, so it cannot tell daylight from standard time; give times with a UTC offset',
+    });
+  });
+
+  it('fall back, by-order: rows in reverse time order say nothing about which 01:00 is which, so both are dropped with the reason', async () => {
+    const hours = [0, 1, 1, ...allHours.slice(2)].reverse();
+    const result = await importLocal('chicago-e', 'America/Chicago', localFile('2026-11-01', hours, 1000), 'by-order');
+    expect(result.upload).toMatchObject({ status: 'done', rowsTotal: 25, rowsRejected: 2 });
+    const dropped = result.findings.filter((f) => f.rule === 'dst_repeated_hour');
+    expect(dropped.map((f) => f.row)).toEqual([24, 25]);
+    expect(dropped[0]!.resolution).toMatch(/^dropped: the rows are not in time order/);
+    expect(result.rows.filter((r) => r.value !== null)).toHaveLength(23);
   });
 
   it('fall back, reject: both 01:00 readings are dropped with findings and the two-hour hole is estimated and reported', async () => {
@@ -120,15 +178,31 @@ describe('America/Phoenix (no daylight saving)', () => {
     expect(result.findings).toEqual([]);
   });
 
-  it('reads the fall-back day as 24 ordinary hours, and a repeated 01:00 is a duplicate, not a daylight-saving hour', async () => {
+  it('refuses a fall-back day of 25 hourly rows: the file was written in a zone with daylight saving, not in Phoenix', async () => {
     const result = await importLocal(
       'phoenix-a',
       'America/Phoenix',
       localFile('2026-11-01', [0, 1, 1, ...allHours.slice(2)], 700),
-      'reject',
+      'by-order',
     );
-    expect(result.rows.map((r) => r.ts)).toEqual(utcHours('2026-11-01T07:00:00Z', 24));
-    expect(result.rows[1]).toEqual({ ts: '2026-11-01T08:00:00.000Z', value: 701, estimated: null, quality: 64 });
-    expect(result.findings).toEqual([{ rule: 'duplicate_conflict', ts: '2026-11-01T08:00:00.000Z', row: 4, resolution: 'first kept' }]);
+    expect(result.upload).toMatchObject({
+      status: 'failed',
+      error:
+        'Series "phoenix-a" has 25 hours of readings on 2026-11-01 (from row 2), as a day has when clocks fall back, but America/Phoenix keeps one UTC offset all year: the file\'s times were written in a zone with daylight saving. Choose the zone the file was written in and upload it again.',
+    });
+    expect(result.rows).toEqual([]);
+    expect(result.findings).toEqual([]);
+  });
+
+  it('still reads a single repeated 01:00 on an ordinary day as a duplicate, the first kept', async () => {
+    const result = await importLocal('phoenix-a', 'America/Phoenix', localFile('2026-11-03', [0, 1, 1, 2], 750), 'by-order');
+    expect(result.upload.status).toBe('done');
+    // 2026-11-03 00:00 MST = 07:00Z.
+    expect(result.rows.map((r) => [r.ts, r.value, r.quality])).toEqual([
+      ['2026-11-03T07:00:00.000Z', 750, 0],
+      ['2026-11-03T08:00:00.000Z', 751, 64],
+      ['2026-11-03T09:00:00.000Z', 753, 0],
+    ]);
+    expect(result.findings).toEqual([{ rule: 'duplicate_conflict', ts: '2026-11-03T08:00:00.000Z', row: 4, resolution: 'first kept' }]);
   });
 });

@@ -91,9 +91,14 @@ describe('demo histories', () => {
       { key: 'fdr-c2', ts: '2025-08-12T21:00:00.000Z', detail: expect.objectContaining({ method: 'Hampel identifier' }) },
     ]);
     const flat = await findings('flat_line');
-    expect(flat).toHaveLength(10);
-    expect(new Set(flat.map((f) => f.key))).toEqual(new Set(['fdr-s1']));
-    expect(flat[0]).toMatchObject({ ts: '2026-02-03T05:00:00.000Z', detail: { runIntervals: 10 } });
+    // One finding for the whole run of 10 identical hours, not one per reading.
+    expect(flat).toEqual([
+      {
+        key: 'fdr-s1',
+        ts: '2026-02-03T05:00:00.000Z',
+        detail: { runIntervals: 10, runHours: 10, until: '2026-02-03T14:00:00.000Z', limitIntervals: 6 },
+      },
+    ]);
     expect(await findings('negative')).toEqual([{ key: 'fdr-n3', ts: '2025-10-07T16:00:00.000Z', detail: {} }]);
     expect(await findings('gap')).toEqual([
       { key: 'fdr-n2', ts: '2025-04-15T14:00:00.000Z', detail: { intervals: 3, until: '2025-04-15T16:00:00.000Z', estimated: true } },
@@ -122,7 +127,7 @@ describe('demo histories', () => {
         { column: 'wx-upland', seriesKey: 'wx-upland', unit: 'degF' },
       ],
     });
-    expect(proposal.settings).toMatchObject({ timeZone: zone, repeatedHourPolicy: 'reject' });
+    expect(proposal.settings).toMatchObject({ timeZone: zone, repeatedHourPolicy: 'by-order' });
     expect(done.upload.status).toBe('done');
 
     // Every stored raw reading sits at its generated UTC instant with its generated value.
@@ -144,7 +149,7 @@ describe('demo histories', () => {
       { key: 'zone-south', ts: '2026-01-20T08:00:00.000Z', detail: { intervals: 2, until: '2026-01-20T09:00:00.000Z', estimated: true } },
     ]);
     // Two fall-back nights: 01:00 twice for each series, except fdr-c3's lost second hour in 2025.
-    const repeated = await findings('dst_repeated_hour');
+    const repeated = await findings('dst_resolved');
     expect(repeated.map((f) => `${f.key} ${f.ts} ${String(f.detail.resolution).split(' ')[0]}`)).toEqual([
       'fdr-c3 2025-11-02T06:00:00.000Z daylight',
       'fdr-c3 2026-11-01T06:00:00.000Z daylight',

@@ -25,18 +25,25 @@ export const uploadStatuses = ['received', 'queued', 'importing', 'done', 'faile
 export type UploadStatus = (typeof uploadStatuses)[number];
 
 /**
- * Units a file's values may be in. Demand: W, kW, MW. Energy per interval: kWh, MWh, converted to the
- * mean demand over the interval (kWh per 15 minutes × 4 = kW). Temperature: degC, degF.
+ * Units a file's values may be in. Demand: W, kW, MW. Energy per interval: Wh, kWh, MWh, converted to
+ * the mean demand over the file's own interval (kWh per 15 minutes × 4 = kW). Temperature: degC, degF.
  */
-export const uploadUnits = ['W', 'kW', 'MW', 'kWh', 'MWh', 'degC', 'degF'] as const;
+export const uploadUnits = ['W', 'kW', 'MW', 'Wh', 'kWh', 'MWh', 'degC', 'degF'] as const;
 export type UploadUnit = (typeof uploadUnits)[number];
 
 /**
  * What to do with a local time that occurs twice (the repeated hour when clocks fall back):
- * `reject` drops those readings with a finding; `first-is-daylight` takes the first occurrence in
- * the file as daylight time and the second as standard time, with a finding on each.
+ * `by-order` (proposed) places the two readings of a repeated time by their order in the file when the
+ * series' rows are in time order (the first is daylight time, the second standard time) and drops
+ * the readings it cannot place, saying why (a single reading at a repeated time, or rows out of
+ * order); `first-is-daylight` takes the first occurrence as daylight time and any later one as
+ * standard time whatever the order; `reject` drops every reading at a repeated time.
  */
-export const repeatedHourPolicies = ['reject', 'first-is-daylight'] as const;
+export const repeatedHourPolicies = ['by-order', 'first-is-daylight', 'reject'] as const;
+
+/** How to read a slashed date such as 3/9/2026: month first (US) or day first. */
+export const slashDateOrders = ['month-first', 'day-first'] as const;
+export type SlashDateOrder = (typeof slashDateOrders)[number];
 export type RepeatedHourPolicy = (typeof repeatedHourPolicies)[number];
 
 /** The validation rules whose findings an import records. */
@@ -55,6 +62,8 @@ export const validationRules = [
   'unparseable',
   'unknown_series',
   'estimated',
+  'dst_resolved',
+  'partial_interval',
 ] as const;
 export type ValidationRule = (typeof validationRules)[number];
 
@@ -65,16 +74,43 @@ export const validationRuleDescriptions: Record<ValidationRule, string> = {
     'Reading far from its neighbours (Hampel identifier: more than 6 robust standard deviations from the median of the 13 readings around it)',
   flat_line: 'Identical values for longer than the limit (6 hours for load, 12 for temperature)',
   negative: 'Load below zero',
-  impossible: 'Beyond what the series can physically read (load over 10× its robust maximum; temperature outside −60…60 °C)',
+  impossible:
+    'Beyond what the series can physically read (load over 10× its robust maximum; temperature outside −60…60 °C); a value beyond any electric load (over 10 TW) or below absolute zero is refused with its row',
   duplicate_equal: 'The same instant twice with the same value (dropped)',
   duplicate_conflict: 'The same instant twice with different values (the first kept, the other dropped)',
   off_grid: "Timestamp off the series' interval grid (dropped)",
   future: 'Reading after the time of the import (dropped)',
-  dst_repeated_hour: 'Local time in the repeated daylight-saving hour (resolved or dropped by the upload setting)',
+  dst_repeated_hour: 'Local time in the repeated daylight-saving hour that could not be placed (dropped; the detail says why)',
   dst_missing_hour: 'Local time that does not exist (skipped by the spring-forward change; dropped)',
-  unparseable: 'A cell that could not be read',
+  unparseable: 'A cell that holds no reading (a marker such as NaN or NA): no reading stored for it',
   unknown_series: 'Series key not in the catalogue (row dropped)',
   estimated: 'An estimate was stored (method in the detail)',
+  dst_resolved: 'A reading in the repeated daylight-saving hour placed by its order in the file (daylight time first, then standard time)',
+  partial_interval:
+    "Readings of a series interval the file covers only in part (the file's finer readings are combined only when every one is there; dropped)",
+};
+
+/**
+ * Whether a rule's finding asks the steward to act (`defect`) or only says what the import did
+ * (`information`: an estimate stored, a repeated hour placed by order).
+ */
+export const validationRuleSeverity: Record<ValidationRule, 'defect' | 'information'> = {
+  gap: 'defect',
+  spike: 'defect',
+  flat_line: 'defect',
+  negative: 'defect',
+  impossible: 'defect',
+  duplicate_equal: 'information',
+  duplicate_conflict: 'defect',
+  off_grid: 'defect',
+  future: 'defect',
+  dst_repeated_hour: 'defect',
+  dst_missing_hour: 'defect',
+  unparseable: 'defect',
+  unknown_series: 'defect',
+  estimated: 'information',
+  dst_resolved: 'information',
+  partial_interval: 'defect',
 };
 
 /** Field separators Loadwright detects. */
@@ -95,6 +131,15 @@ export const uploadLayoutSchema = z.object({
   decimalSeparator: z.enum(['.', ',']),
   /** Whether the timestamps carry a UTC offset (ISO 8601 with Z or ±hh:mm) or are local times. */
   timestampsHaveOffset: z.boolean().nullable(),
+  /**
+   * How the first rows' slashed dates read: `month-first` when a second field exceeds 12 (3/13/2026),
+   * `day-first` when a first field does (13/3/2026), null when no row decides or there are none.
+   */
+  slashDateOrder: z.enum(slashDateOrders).nullable().optional(),
+  /** Whether the first rows write midnight as 24:00 of the day before, as files stamped at interval ends do. */
+  endOfDayStamps: z.boolean().optional(),
+  /** Minutes between consecutive timestamps in the first rows (the most common step); null when undecided. */
+  intervalMinutes: z.number().int().positive().nullable().optional(),
 });
 export type UploadLayout = z.infer<typeof uploadLayoutSchema>;
 
@@ -150,6 +195,14 @@ export const uploadSettingsSchema = z.object({
   decimalSeparator: z.enum(['.', ',']).default('.'),
   /** Fill gaps of up to 3 intervals with linear estimates (flagged); default true. */
   estimateShortGaps: z.boolean().default(true),
+  /** How slashed dates such as 3/9/2026 read; month first when absent. */
+  slashDateOrder: z.enum(slashDateOrders).optional(),
+  /**
+   * Minutes between the file's readings, when they differ from the series' interval: energy per
+   * interval converts by this interval, and finer readings combine into the series' interval as
+   * their mean. Null or absent: the step seen in the file's first rows, else the series' interval.
+   */
+  fileIntervalMinutes: z.number().int().min(1).max(1440).nullable().optional(),
 });
 export type UploadSettings = z.infer<typeof uploadSettingsSchema>;
 
@@ -213,7 +266,15 @@ export type UploadFinding = z.infer<typeof uploadFindingSchema>;
 
 /** The validation report: counts per rule and up to 10 examples of each. */
 export const uploadReportSchema = z.object({
-  counts: z.array(z.object({ rule: z.enum(validationRules), count: z.number().int(), description: z.string() })),
+  counts: z.array(
+    z.object({
+      rule: z.enum(validationRules),
+      count: z.number().int(),
+      description: z.string(),
+      /** `information` findings say what the import did; `defect` ones ask the steward to act. */
+      severity: z.enum(['defect', 'information']),
+    }),
+  ),
   examples: z.array(uploadFindingSchema),
 });
 export type UploadReport = z.infer<typeof uploadReportSchema>;

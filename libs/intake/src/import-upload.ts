@@ -166,11 +166,20 @@ function noUsableRowsMessage(
 ): string {
   if (rows === 0) return 'The file has a header row but no data rows.';
   if (!first) return `None of the ${rows} data rows holds a reading: every mapped value cell is empty.`;
+  const d = first.detail;
   const why =
     first.rule === 'unknown_series'
-      ? `column "${String(first.detail['column'])}": "${String(first.detail['key'])}" is not a series in the catalogue`
+      ? `column "${String(d['column'])}": "${String(d['key'])}" is not a series in the catalogue`
       : first.rule === 'dst_missing_hour'
-        ? `${String(first.detail['local'])} does not exist in ${String(first.detail['timeZone'])} (clocks skip that hour)`
-        : `${String(first.detail['local'])} occurs twice in ${String(first.detail['timeZone'])} and the upload rejects repeated hours`;
+        ? `${String(d['local'])} does not exist in ${String(d['timeZone'])} (clocks skip that hour)`
+        : first.rule === 'dst_repeated_hour'
+          ? `${String(d['local'])} occurs twice in ${String(d['timeZone'])}${d['resolution'] === 'rejected' ? ' and the upload rejects repeated hours' : `; ${String(d['resolution'])}`}`
+          : first.rule === 'unparseable'
+            ? `column "${String(d['column'])}" reads "${String(d['cell'])}", which is no reading`
+            : first.rule === 'impossible'
+              ? `column "${String(d['column'])}": ${String(d['cell'])} ${String(d['unit'])} lies beyond anything the series can read`
+              : first.rule === 'partial_interval'
+                ? `its ${String(d['fileIntervalMinutes'])}-minute readings fill ${String(d['readings'])} of the ${String(d['needed'])} a ${String(d['intervalMinutes'])}-minute interval needs`
+                : `${first.rule.replaceAll('_', ' ')}`;
   return `None of the ${rows} data rows can be stored; the first problem is row ${first.sourceRow}, ${why}.`;
 }

@@ -1,29 +1,44 @@
 /**
  * Streams an uploaded CSV file once, row by row (never whole in memory), and turns each row into
  * readings per series in the series' stored unit at UTC interval starts: timestamps with an offset
- * are taken as given, local ones are resolved in the upload's time zone (a spring-forward time that
- * does not exist, or a repeated fall-back time under the `reject` policy, drops the reading with a
- * finding), end-of-interval stamps move back one interval, units are converted. A cell that makes
- * the file unusable (a formula, a non-number, an impossible date) rejects the whole file with one
- * sentence naming its row and column.
+ * are taken as given, local ones are resolved in the upload's time zone, end-of-interval stamps move
+ * back one of the file's intervals, units are converted (energy by the file's own interval), and
+ * readings finer than their series are combined into its intervals (see combine-intervals.ts).
+ *
+ * Local times: a spring-forward time that does not exist drops its reading with a finding. A time
+ * that occurs twice when clocks fall back is placed by the repeated-hour policy; under `by-order`
+ * the two readings of a series at that time are placed by their order in the file (daylight time
+ * first) when the series' rows are in time order, and dropped with the reason otherwise. A day with
+ * an hour's readings too many in a zone that never changes its clocks refuses the file: its times
+ * were written in another zone.
+ *
+ * A cell that makes the file unusable (a formula, a non-number, an impossible date, 24:00 read as an
+ * interval start) rejects the whole file with one sentence naming its row and column. A marker such
+ * as NaN stores no reading and says so per row; a value beyond any electric load (or below absolute
+ * zero) is refused with its row and never stored.
  */
 import { stat } from 'node:fs/promises';
 import { qualityFlag } from '@loadwright/db';
 import type { UploadLayout, UploadUnit } from '@loadwright/contracts';
 import type { CatalogueEntry } from './catalogue-entry';
+import { combineIntervals } from './combine-intervals';
 import { csvRecords } from './csv/record-source';
 import { parseValueCell } from './csv/parse-number';
 import { parseTimestamp, type ParsedTimestamp } from './csv/parse-timestamp';
 import { unitConversion } from './csv/units';
+import { readingMinutesFor } from './file-interval';
 import type { Finding } from './findings';
 import type { ImportPlan } from './import-plan';
 import { intervalGrid, type IntervalGrid } from './interval-grid';
 import { ReadingColumns } from './reading-columns';
-import { instantsForWallClock } from './time-zone-offset';
+import { absurdRange } from './rules/physical-bounds';
+import { instantsForWallClock, offsetMsAt } from './time-zone-offset';
 import { UploadRejection } from './upload-rejection';
 
 /** Plausible reading years; a date outside them is a format mistake, not data. */
 export const plausibleYears = { from: 1950, to: 2100 } as const;
+
+const dayMs = 86_400_000;
 
 /** Readings gathered for one series. */
 export interface SeriesIntake {
@@ -34,7 +49,7 @@ export interface SeriesIntake {
 /** What reading the file produced. */
 export interface FileReadings {
   bySeries: Map<number, SeriesIntake>;
-  /** Findings on rows dropped while reading (unknown series, daylight-saving times). */
+  /** Findings on rows dropped while reading (unknown series, daylight-saving times, markers, absurd values). */
   findings: Finding[];
   /** Data rows read. */
   rows: number;
@@ -42,11 +57,29 @@ export interface FileReadings {
   rejected: number;
 }
 
-/** Per-series facts the hot loop needs, computed once. */
+/** A reading in a repeated local hour, held until the whole file is read (policy `by-order`). */
+interface HeldReading {
+  wallMs: number;
+  value: number;
+  line: number;
+}
+
+/** Per-series facts the hot loop needs, computed once, and what it learns of the series' rows. */
 interface SeriesRoute {
   intake: SeriesIntake;
   convert: (value: number) => number;
   grid: IntervalGrid;
+  absurd: { low: number; high: number };
+  /** Minutes each file reading covers (the series' interval unless the file is finer). */
+  readingMinutes: number;
+  /** Wall-clock time of the series' previous local-time row, and whether it lay in a repeated hour. */
+  lastWall: number;
+  lastRepeated: boolean;
+  /** A local time went backwards other than into a repeated hour: file order says nothing. */
+  outOfOrder: boolean;
+  held: HeldReading[];
+  /** Local-time readings per local day, kept only in zones that never change their clocks. */
+  perDay: Map<number, { count: number; line: number }> | null;
 }
 
 /** Reads the file at `path` following the plan; `onProgress` hears the fraction of bytes read. */
@@ -58,23 +91,38 @@ export async function readUploadFile(
 ): Promise<FileReadings> {
   const { settings } = plan;
   const bySeries = new Map<number, SeriesIntake>();
-  const routes = new Map<string, SeriesRoute>();
+  const routes = new Map<number, SeriesRoute>();
   const findings: Finding[] = [];
   let rejected = 0;
   let rows = 0;
   const headerRows = layout.hasHeader ? 1 : 0;
   const columnName = (index: number) => plan.columns[index] ?? `column ${index + 1}`;
+  const policy = settings.repeatedHourPolicy;
+  const zoneKeepsOneOffset = !changesClocks(settings.timeZone);
 
   const routeFor = (series: CatalogueEntry, line: number, column: string, unit: UploadUnit = settings.unit): SeriesRoute => {
-    let route = routes.get(series.key);
+    let route = routes.get(series.id);
     if (route) return route;
-    const convert = unitConversion(unit, series.unit, series.intervalMinutes);
+    const readingMinutes = readingMinutesFor(series, plan.fileIntervalMinutes);
+    if (typeof readingMinutes === 'string') throw new UploadRejection(`Row ${line}, column "${column}": ${readingMinutes}.`);
+    const convert = unitConversion(unit, series.unit, readingMinutes);
     if (typeof convert === 'string')
       throw new UploadRejection(`Row ${line}, column "${column}": unit ${unit} does not fit series "${series.key}": ${convert}.`);
     const intake = { series, readings: new ReadingColumns(4096) };
     bySeries.set(series.id, intake);
-    route = { intake, convert, grid: intervalGrid(series.intervalMinutes, series.timeZone) };
-    routes.set(series.key, route);
+    route = {
+      intake,
+      convert,
+      grid: intervalGrid(series.intervalMinutes, series.timeZone),
+      absurd: absurdRange(series),
+      readingMinutes,
+      lastWall: Number.NEGATIVE_INFINITY,
+      lastRepeated: false,
+      outOfOrder: false,
+      held: [],
+      perDay: zoneKeepsOneOffset ? new Map() : null,
+    };
+    routes.set(series.id, route);
     return route;
   };
 
@@ -84,10 +132,13 @@ export async function readUploadFile(
   let lastWall = Number.NaN;
   let lastInstants: number[] = [];
   const repeatedSeen = new Map<string, number>();
+  // Long files repeat each key over many rows, so the last lookup is reused.
+  let lastKeyText: string | null = null;
+  let lastKeySeries: CatalogueEntry | null = null;
 
   const stampOf = (text: string, line: number): ParsedTimestamp => {
     if (text === lastStampText && lastStamp) return lastStamp;
-    const stamp = parseTimestamp(text);
+    const stamp = parseTimestamp(text, plan.dayFirst);
     const column = columnName(plan.timestampIndex);
     if (!stamp) {
       if (text.trim() === '') throw new UploadRejection(`Row ${line}, column "${column}" is empty; every row needs its timestamp.`);
@@ -100,70 +151,96 @@ export async function readUploadFile(
         `Row ${line}, column "${column}": "${clip(text)}" lies outside the years ${plausibleYears.from} to ${plausibleYears.to}; check the date and its format.`,
       );
     }
+    if (settings.timestampsMark === 'start' && /(?:^|[T\s])24:00(?::00)?$/.test(text.trim())) {
+      throw new UploadRejection(
+        `Row ${line}, column "${column}": "${clip(text)}" is midnight written as the end of a day, which only an interval's end can be; set timestamps to mark the end of each interval and upload the file again.`,
+      );
+    }
     lastStampText = text;
     lastStamp = stamp;
     return stamp;
   };
 
-  /** The UTC instant of one reading, or null when it was dropped with a finding. */
-  const instantOf = (stamp: ParsedTimestamp, route: SeriesRoute, value: number, line: number): { ms: number; flags: number } | null => {
-    let ms: number;
-    let flags = 0;
-    if (stamp.kind === 'instant') {
-      ms = stamp.ms;
-    } else {
-      if (stamp.wallMs !== lastWall) {
-        lastWall = stamp.wallMs;
-        lastInstants = instantsForWallClock(settings.timeZone, stamp.wallMs);
-      }
-      const local = new Date(stamp.wallMs).toISOString().slice(0, 16).replace('T', ' ');
-      const base = { seriesId: route.intake.series.id, value, sourceRow: line };
-      if (lastInstants.length === 0) {
-        findings.push({
-          ...base,
-          rule: 'dst_missing_hour',
-          tsMs: null,
-          detail: { local, timeZone: settings.timeZone, resolution: 'rejected' },
-        });
-        return null;
-      }
-      if (lastInstants.length === 2) {
-        if (settings.repeatedHourPolicy === 'reject') {
-          findings.push({
-            ...base,
-            rule: 'dst_repeated_hour',
-            tsMs: null,
-            detail: { local, timeZone: settings.timeZone, resolution: 'rejected' },
-          });
-          return null;
-        }
-        const key = `${route.intake.series.id}:${stamp.wallMs}`;
-        const seen = repeatedSeen.get(key) ?? 0;
-        repeatedSeen.set(key, seen + 1);
-        ms = lastInstants[seen === 0 ? 0 : 1]!;
-        flags = qualityFlag.dstAmbiguous;
-        findings.push({
-          ...base,
-          rule: 'dst_repeated_hour',
-          tsMs: ms,
-          detail: {
-            local,
-            timeZone: settings.timeZone,
-            resolution: seen === 0 ? 'daylight (first occurrence)' : 'standard (second occurrence)',
-          },
-        });
-      } else {
-        ms = lastInstants[0]!;
-      }
+  /** Moves an interval-end instant back to its interval's start. */
+  const startOf = (route: SeriesRoute, ms: number) =>
+    settings.timestampsMark !== 'end'
+      ? ms
+      : route.readingMinutes === route.grid.intervalMinutes
+        ? route.grid.instantOf(route.grid.indexOf(ms) - 1)
+        : ms - route.readingMinutes * 60_000;
+
+  /**
+   * The UTC instant of one reading; null when it was dropped with a finding, 'held' when it waits
+   * for the end of the file to be placed by order.
+   */
+  const instantOf = (
+    stamp: ParsedTimestamp,
+    route: SeriesRoute,
+    value: number,
+    line: number,
+  ): { ms: number; flags: number } | null | 'held' => {
+    if (stamp.kind === 'instant') return { ms: startOf(route, stamp.ms), flags: 0 };
+    if (stamp.wallMs !== lastWall) {
+      lastWall = stamp.wallMs;
+      lastInstants = instantsForWallClock(settings.timeZone, stamp.wallMs);
     }
-    if (settings.timestampsMark === 'end') ms = route.grid.instantOf(route.grid.indexOf(ms) - 1);
-    return { ms, flags };
+    const repeated = lastInstants.length === 2;
+    if (stamp.wallMs < route.lastWall && !(repeated && route.lastRepeated)) route.outOfOrder = true;
+    route.lastWall = stamp.wallMs;
+    route.lastRepeated = repeated;
+    if (route.perDay) {
+      const day = Math.floor(stamp.wallMs / dayMs);
+      const seen = route.perDay.get(day);
+      if (seen) seen.count++;
+      else route.perDay.set(day, { count: 1, line });
+    }
+    const local = localText(stamp.wallMs);
+    const base = { seriesId: route.intake.series.id, value, sourceRow: line };
+    if (lastInstants.length === 0) {
+      findings.push({
+        ...base,
+        rule: 'dst_missing_hour',
+        tsMs: null,
+        detail: { local, timeZone: settings.timeZone, resolution: 'rejected' },
+      });
+      return null;
+    }
+    if (!repeated) return { ms: startOf(route, lastInstants[0]!), flags: 0 };
+    if (policy === 'reject') {
+      findings.push({
+        ...base,
+        rule: 'dst_repeated_hour',
+        tsMs: null,
+        detail: { local, timeZone: settings.timeZone, resolution: 'rejected' },
+      });
+      return null;
+    }
+    if (policy === 'by-order') {
+      route.held.push({ wallMs: stamp.wallMs, value, line });
+      return 'held';
+    }
+    const key = `${route.intake.series.id}:${stamp.wallMs}`;
+    const seen = repeatedSeen.get(key) ?? 0;
+    repeatedSeen.set(key, seen + 1);
+    const ms = lastInstants[seen === 0 ? 0 : 1]!;
+    findings.push({
+      ...base,
+      rule: 'dst_resolved',
+      tsMs: ms,
+      detail: {
+        local,
+        timeZone: settings.timeZone,
+        resolution: seen === 0 ? 'daylight (first occurrence)' : 'standard (second occurrence)',
+      },
+    });
+    return { ms: startOf(route, ms), flags: qualityFlag.dstAmbiguous };
   };
 
-  const valueOf = (text: string, line: number, index: number): number | null => {
+  /** The value of a cell, or null when it holds none (a marker such as NaN gets a finding once the series is known). */
+  const valueOf = (text: string, line: number, index: number): { value: number | null; marker: string | null } => {
     const cell = parseValueCell(text, settings.decimalSeparator);
-    if (cell.kind === 'number') return cell.value;
-    if (cell.kind === 'missing') return null;
+    if (cell.kind === 'number') return { value: cell.value, marker: null };
+    if (cell.kind === 'missing') return { value: null, marker: cell.marker };
     if (cell.kind === 'formula')
       throw new UploadRejection(
         `Row ${line}, column "${columnName(index)}": "${clip(text)}" looks like a spreadsheet formula, not a number; export the values rather than the formulas.`,
@@ -173,9 +250,48 @@ export async function readUploadFile(
     );
   };
 
-  const take = (route: SeriesRoute, stamp: ParsedTimestamp, raw: number, line: number) => {
-    const value = route.convert(raw);
+  const take = (
+    route: SeriesRoute,
+    stamp: ParsedTimestamp,
+    cell: { value: number | null; marker: string | null },
+    line: number,
+    index: number,
+  ) => {
+    const seriesId = route.intake.series.id;
+    if (cell.value === null) {
+      if (cell.marker === null) return;
+      findings.push({
+        rule: 'unparseable',
+        seriesId,
+        tsMs: null,
+        value: null,
+        sourceRow: line,
+        detail: { column: columnName(index), cell: clip(cell.marker), resolution: 'no reading stored' },
+      });
+      return;
+    }
+    const value = route.convert(cell.value);
+    if (value < route.absurd.low || value > route.absurd.high) {
+      rejected++;
+      findings.push({
+        rule: 'impossible',
+        seriesId,
+        tsMs: null,
+        value: null,
+        sourceRow: line,
+        detail: {
+          column: columnName(index),
+          cell: clip(cell.value.toString()),
+          low: route.absurd.low,
+          high: route.absurd.high,
+          unit: route.intake.series.unit,
+          resolution: 'row refused, not stored',
+        },
+      });
+      return;
+    }
     const at = instantOf(stamp, route, value, line);
+    if (at === 'held') return;
     if (!at) {
       rejected++;
       return;
@@ -195,10 +311,16 @@ export async function readUploadFile(
       const stamp = stampOf(cells[plan.timestampIndex] ?? '', line);
       if (plan.long) {
         const { valueIndex, keyIndex } = plan.long;
+        // The cell's own problem (a formula, a word) is reported before an unknown series key.
+        const value = valueOf(cells[valueIndex] ?? '', line, valueIndex);
         let series = plan.long.series;
         if (!series) {
-          const key = (cells[keyIndex] ?? '').trim();
-          series = plan.seriesByKey.get(key) ?? null;
+          const key = cells[keyIndex] ?? '';
+          if (key !== lastKeyText) {
+            lastKeyText = key;
+            lastKeySeries = plan.seriesByKey.find(key);
+          }
+          series = lastKeySeries;
           if (!series) {
             findings.push({
               rule: 'unknown_series',
@@ -206,25 +328,127 @@ export async function readUploadFile(
               tsMs: null,
               value: null,
               sourceRow: line,
-              detail: { key: clip(key), column: columnName(keyIndex) },
+              detail: { key: clip(key.trim()), column: columnName(keyIndex) },
             });
             rejected++;
             continue;
           }
         }
-        const value = valueOf(cells[valueIndex] ?? '', line, valueIndex);
-        if (value !== null) take(routeFor(series, line, columnName(keyIndex >= 0 ? keyIndex : valueIndex)), stamp, value, line);
+        take(routeFor(series, line, columnName(keyIndex >= 0 ? keyIndex : valueIndex)), stamp, value, line, valueIndex);
       } else {
         for (const { index, series, unit } of plan.wide!) {
           const value = valueOf(cells[index] ?? '', line, index);
-          if (value !== null) take(routeFor(series, line, columnName(index), unit), stamp, value, line);
+          take(routeFor(series, line, columnName(index), unit), stamp, value, line, index);
         }
       }
     }
     await onProgress?.(bytes / size, rows);
   }
+
+  for (const route of routes.values()) {
+    refuseLongDays(route, settings.timeZone);
+    rejected += placeHeld(route, settings.timeZone, findings, startOf);
+    if (route.readingMinutes < route.grid.intervalMinutes) {
+      const combined = combineIntervals(route.intake.readings, route.intake.series.id, route.grid, route.readingMinutes);
+      route.intake.readings = combined.readings;
+      findings.push(...combined.findings);
+      rejected += combined.dropped;
+    }
+  }
   await onProgress?.(1, rows);
   return { bySeries, findings, rows, rejected };
+}
+
+/**
+ * Places the held readings of repeated local hours by their order in the file (policy `by-order`):
+ * of two readings at one repeated time the first is daylight time and the second standard time;
+ * a third is kept as a repeat of the second (and collapsed as a duplicate later). A time held only
+ * once, or any held time when the series' rows are out of time order, is dropped with the reason.
+ * Returns the readings dropped.
+ */
+function placeHeld(route: SeriesRoute, timeZone: string, findings: Finding[], startOf: (route: SeriesRoute, ms: number) => number): number {
+  if (route.held.length === 0) return 0;
+  const seriesId = route.intake.series.id;
+  const byWall = new Map<number, HeldReading[]>();
+  for (const reading of route.held) {
+    const group = byWall.get(reading.wallMs);
+    if (group) group.push(reading);
+    else byWall.set(reading.wallMs, [reading]);
+  }
+  let dropped = 0;
+  const placed: Array<{ ms: number; reading: HeldReading }> = [];
+  for (const [wallMs, group] of byWall) {
+    const local = localText(wallMs);
+    if (route.outOfOrder || group.length === 1) {
+      for (const reading of group) {
+        dropped++;
+        findings.push({
+          rule: 'dst_repeated_hour',
+          seriesId,
+          tsMs: null,
+          value: reading.value,
+          sourceRow: reading.line,
+          detail: {
+            local,
+            timeZone,
+            resolution: route.outOfOrder
+              ? 'dropped: the rows are not in time order, so their order cannot tell daylight from standard time; sort the file or give times with a UTC offset'
+              : 'dropped: the file holds one reading at a time that occurs twice, so it cannot tell daylight from standard time; give times with a UTC offset',
+          },
+        });
+      }
+      continue;
+    }
+    const [daylight, standard] = instantsForWallClock(timeZone, wallMs) as [number, number];
+    group.forEach((reading, k) => {
+      const ms = k === 0 ? daylight : standard;
+      placed.push({ ms, reading });
+      findings.push({
+        rule: 'dst_resolved',
+        seriesId,
+        tsMs: ms,
+        value: reading.value,
+        sourceRow: reading.line,
+        detail: { local, timeZone, resolution: k === 0 ? 'daylight time (first in the file)' : 'standard time (second in the file)' },
+      });
+    });
+  }
+  placed.sort((a, b) => a.reading.line - b.reading.line);
+  for (const { ms, reading } of placed)
+    route.intake.readings.push(startOf(route, ms), reading.value, reading.line, qualityFlag.dstAmbiguous);
+  return dropped;
+}
+
+/**
+ * Refuses the file when a series has a local day with an hour's readings too many (25 hourly rows)
+ * in a zone that never changes its clocks: the times were written in a zone with daylight saving.
+ */
+function refuseLongDays(route: SeriesRoute, timeZone: string): void {
+  if (!route.perDay) return;
+  const perHour = 60 / route.readingMinutes;
+  if (!Number.isInteger(perHour)) return;
+  for (const [day, { count, line }] of route.perDay) {
+    if (count !== 25 * perHour) continue;
+    const date = new Date(day * dayMs).toISOString().slice(0, 10);
+    throw new UploadRejection(
+      `Series "${route.intake.series.key}" has 25 hours of readings on ${date} (from row ${line}), as a day has when clocks fall back, but ${timeZone} keeps one UTC offset all year: the file's times were written in a zone with daylight saving. Choose the zone the file was written in and upload it again.`,
+    );
+  }
+}
+
+/** True when the zone's UTC offset changes during the year (daylight saving), checked this year and last. */
+function changesClocks(timeZone: string): boolean {
+  const year = new Date().getUTCFullYear();
+  for (const y of [year, year - 1]) {
+    const offsets = new Set([0, 2, 4, 6, 8, 10].map((month) => offsetMsAt(timeZone, Date.UTC(y, month, 1))));
+    if (offsets.size > 1) return true;
+  }
+  return false;
+}
+
+/** A local wall-clock time as the findings write it: 2026-11-01 01:00. */
+function localText(wallMs: number): string {
+  return new Date(wallMs).toISOString().slice(0, 16).replace('T', ' ');
 }
 
 /** A cell shortened for a message. */

@@ -2,6 +2,7 @@
 import { and, count, desc, eq, sql } from 'drizzle-orm';
 import {
   validationRuleDescriptions,
+  validationRuleSeverity,
   type Upload,
   type UploadFinding,
   type UploadMapping,
@@ -101,6 +102,7 @@ export async function uploadReport(db: Database, uploadId: number): Promise<Uplo
     counts: (counts.rows as { rule: ValidationRule; count: number }[]).map((row) => ({
       ...row,
       description: validationRuleDescriptions[row.rule],
+      severity: validationRuleSeverity[row.rule],
     })),
     examples: (examples.rows as unknown as FindingRow[]).map((row) => toFinding({ ...row, ts: row.ts ? new Date(row.ts) : null })),
   };

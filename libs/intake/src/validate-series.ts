@@ -72,11 +72,16 @@ export function validateSeries(readings: SeriesReadings, options: ValidateOption
     quality[i]! |= qualityFlag.spike;
     finding('spike', i, { method: 'Hampel identifier', ...hampelDefaults });
   }
-  for (const run of flatRuns(values, gridIndex, n, flatLineLimit(options.kind, grid.intervalMinutes))) {
-    for (let i = run.start; i <= run.end; i++) {
-      quality[i]! |= qualityFlag.flatLine;
-      finding('flat_line', i, { runStart: new Date(readings.ts[run.start]!).toISOString(), runIntervals: run.end - run.start + 1 });
-    }
+  const flatLimit = flatLineLimit(options.kind, grid.intervalMinutes);
+  for (const run of flatRuns(values, gridIndex, n, flatLimit)) {
+    // One finding per run, at its first reading: the steward acts on the run, not on each reading in it.
+    for (let i = run.start; i <= run.end; i++) quality[i]! |= qualityFlag.flatLine;
+    finding('flat_line', run.start, {
+      runIntervals: run.end - run.start + 1,
+      runHours: ((run.end - run.start + 1) * grid.intervalMinutes) / 60,
+      until: new Date(readings.ts[run.end]!).toISOString(),
+      limitIntervals: flatLimit,
+    });
   }
 
   const clean = (i: number) => (quality[i]! & (unusable | qualityFlag.flatLine)) === 0;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { parseTimestamp } from './parse-timestamp';
+import { parseTimestamp, slashedDateFields } from './parse-timestamp';
 
 describe('parseTimestamp', () => {
   it('takes ISO 8601 with an offset as the instant it names', () => {
@@ -33,5 +33,22 @@ describe('parseTimestamp', () => {
       expect(parseTimestamp(text), text).toBeNull();
     }
     expect(parseTimestamp('2024-02-29')).not.toBeNull();
+  });
+
+  it('reads a 12-hour clock with AM and PM: 12:00 AM is midnight, 12:00 PM noon', () => {
+    const wall = (text: string) => (parseTimestamp(text) as { wallMs: number }).wallMs;
+    expect(wall('3/9/2026 12:00 AM')).toBe(Date.UTC(2026, 2, 9, 0));
+    expect(wall('3/9/2026 1:00 AM')).toBe(Date.UTC(2026, 2, 9, 1));
+    expect(wall('3/9/2026 12:00 PM')).toBe(Date.UTC(2026, 2, 9, 12));
+    expect(wall('3/9/2026 11:45 p.m.')).toBe(Date.UTC(2026, 2, 9, 23, 45));
+    expect(parseTimestamp('3/9/2026 13:00 PM')).toBeNull();
+    expect(parseTimestamp('3/9/2026 0:00 AM')).toBeNull();
+  });
+
+  it('reads slashed dates day first when told', () => {
+    expect(parseTimestamp('13/3/2026 08:00', true)).toEqual({ kind: 'wall', wallMs: Date.UTC(2026, 2, 13, 8), year: 2026 });
+    expect(parseTimestamp('13/3/2026 08:00')).toBeNull();
+    expect(slashedDateFields(' 3/13/2026 1:00 PM')).toEqual([3, 13]);
+    expect(slashedDateFields('2026-03-13')).toBeNull();
   });
 });

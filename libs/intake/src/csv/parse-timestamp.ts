@@ -1,7 +1,8 @@
 /**
  * Timestamps as interval files write them. Read: ISO 8601 dates and times with `T` or a space,
  * optional seconds and fraction, and optional `Z` or ±hh:mm / ±hhmm offset (2025-03-09T02:00:00-06:00,
- * 2025-03-09 02:00); US month/day/year (3/9/2025 2:00 or 03/09/2025 14:00:00); dates alone
+ * 2025-03-09 02:00); slashed dates, month first unless told day first (3/9/2025 2:00, 03/09/2025
+ * 14:00:00, 3/9/2026 12:00 AM with a 12-hour clock: 12:00 AM is midnight, 12:00 PM noon); dates alone
  * (2025-03-09) for daily series. `24:00` means midnight at the end of the day, as some meters write
  * the last interval end.
  */
@@ -10,10 +11,19 @@
 export type ParsedTimestamp = { kind: 'instant'; ms: number; year: number } | { kind: 'wall'; wallMs: number; year: number };
 
 const iso = /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{2}):(\d{2})(?::(\d{2})(?:\.(\d{1,9}))?)?)?\s*(Z|[+-]\d{2}:?\d{2})?$/i;
-const us = /^(\d{1,2})\/(\d{1,2})\/(\d{4})(?:\s+(\d{1,2}):(\d{2})(?::(\d{2}))?)?$/;
+const slashed = /^(\d{1,2})\/(\d{1,2})\/(\d{4})(?:\s+(\d{1,2}):(\d{2})(?::(\d{2}))?(?:\s*([AaPp])\.?[Mm]\.?)?)?$/;
 
-/** Parses one cell; null when it is no timestamp of a form above (or names a date that does not exist). */
-export function parseTimestamp(text: string): ParsedTimestamp | null {
+/** The two numbers before the year of a slashed date (3/13/2026 → [3, 13]), or null for other cells. */
+export function slashedDateFields(text: string): [number, number] | null {
+  const match = slashed.exec(text.trim());
+  return match ? [Number(match[1]), Number(match[2])] : null;
+}
+
+/**
+ * Parses one cell; null when it is no timestamp of a form above (or names a date that does not
+ * exist). `dayFirst` reads slashed dates as day/month/year.
+ */
+export function parseTimestamp(text: string, dayFirst = false): ParsedTimestamp | null {
   const cell = text.trim();
   let year: number,
     month: number,
@@ -30,10 +40,16 @@ export function parseTimestamp(text: string): ParsedTimestamp | null {
     if (match[6] !== undefined) second = Number(match[6]);
     if (match[7] !== undefined) fraction = Number(`0.${match[7]}`);
     offset = match[8];
-  } else if ((match = us.exec(cell))) {
+  } else if ((match = slashed.exec(cell))) {
     [month, day, year] = [Number(match[1]), Number(match[2]), Number(match[3])];
+    if (dayFirst) [month, day] = [day, month];
     if (match[4] !== undefined) [hour, minute] = [Number(match[4]), Number(match[5])];
     if (match[6] !== undefined) second = Number(match[6]);
+    if (match[7] !== undefined) {
+      // A 12-hour clock: hours 1–12 only; 12 AM is midnight, 12 PM noon.
+      if (hour < 1 || hour > 12) return null;
+      hour = (hour % 12) + (match[7].toLowerCase() === 'p' ? 12 : 0);
+    }
   } else {
     return null;
   }

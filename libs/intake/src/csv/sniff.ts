@@ -6,7 +6,7 @@
 import { open } from 'node:fs/promises';
 import { parse } from 'csv-parse/sync';
 import type { UploadLayout, UploadPreview } from '@loadwright/contracts';
-import { parseTimestamp } from './parse-timestamp';
+import { parseTimestamp, slashedDateFields } from './parse-timestamp';
 
 /** Bytes read for the first look. */
 export const sniffBytes = 64 * 1024;
@@ -74,6 +74,8 @@ export function sniffBytesOf(bytes: Buffer, whole: boolean): SniffResult {
     };
   }
   if (text.trim() === '') return { ok: false, message: 'The file holds no rows.' };
+  const markup = markupMessage(text);
+  if (markup) return { ok: false, message: markup };
 
   const delimiter = detectDelimiter(text);
   if (!delimiter.ok) return delimiter;
@@ -89,7 +91,7 @@ export function sniffBytesOf(bytes: Buffer, whole: boolean): SniffResult {
     return { ok: false, message: csvErrorMessage(error) };
   }
   const first = records[0] ?? [];
-  const hasHeader = !first.some((cell) => parseTimestamp(cell) !== null);
+  const hasHeader = !first.some((cell) => parseTimestamp(cell) !== null || parseTimestamp(cell, true) !== null);
   const columns = hasHeader ? first.map((name, i) => name.trim() || `column ${i + 1}`) : first.map((_, i) => `column ${i + 1}`);
   const seen = new Map<string, number>();
   for (const [i, name] of columns.entries()) {
@@ -101,7 +103,10 @@ export function sniffBytesOf(bytes: Buffer, whole: boolean): SniffResult {
   const rows = records.slice(hasHeader ? 1 : 0, (hasHeader ? 1 : 0) + previewRows);
   if (rows.length === 0) return { ok: false, message: 'The file has a header row but no data rows.' };
   const decimalSeparator = delimiter.value === ';' && rows.some((row) => row.some((cell) => /^-?\d+,\d+$/.test(cell.trim()))) ? ',' : '.';
-  const stamps = rows.flatMap((row) => row.map((cell) => parseTimestamp(cell)).filter((stamp) => stamp !== null));
+  const sample = records.slice(hasHeader ? 1 : 0);
+  const slashDateOrder = slashOrderOf(sample);
+  const dayFirst = slashDateOrder === 'day-first';
+  const stamps = rows.flatMap((row) => row.map((cell) => parseTimestamp(cell, dayFirst)).filter((stamp) => stamp !== null));
   return {
     ok: true,
     layout: {
@@ -111,9 +116,69 @@ export function sniffBytesOf(bytes: Buffer, whole: boolean): SniffResult {
       columns,
       decimalSeparator,
       timestampsHaveOffset: stamps.length === 0 ? null : stamps.every((stamp) => stamp.kind === 'instant'),
+      slashDateOrder,
+      endOfDayStamps: sample.some((row) =>
+        row.some((cell) => /(?:^|[T\s])24:00(?::00)?$/.test(cell.trim()) && parseTimestamp(cell, dayFirst)),
+      ),
+      intervalMinutes: intervalOf(sample, dayFirst),
     },
     preview: { columns, rows },
   };
+}
+
+/** The order slashed dates in the sampled rows must be read in, when some row decides it. */
+function slashOrderOf(sample: readonly string[][]): UploadLayout['slashDateOrder'] {
+  for (const row of sample) {
+    for (const cell of row) {
+      const fields = slashedDateFields(cell);
+      if (fields && fields[1] > 12 && fields[0] <= 12) return 'month-first';
+      if (fields && fields[0] > 12 && fields[1] <= 12) return 'day-first';
+    }
+  }
+  return null;
+}
+
+/**
+ * Minutes between readings in the sampled rows: the most common step between consecutive distinct
+ * times of the first column that holds timestamps only (so one stray time or a gap does not decide).
+ */
+function intervalOf(sample: readonly string[][], dayFirst: boolean): number | null {
+  const width = sample[0]?.length ?? 0;
+  for (let column = 0; column < width; column++) {
+    const times: number[] = [];
+    let all = true;
+    for (const row of sample) {
+      const cell = row[column] ?? '';
+      if (cell.trim() === '') continue;
+      const stamp = parseTimestamp(cell, dayFirst);
+      if (!stamp) {
+        all = false;
+        break;
+      }
+      times.push(stamp.kind === 'instant' ? stamp.ms : stamp.wallMs);
+    }
+    if (!all || times.length < 2) continue;
+    const distinct = [...new Set(times)].sort((a, b) => a - b);
+    const steps = new Map<number, number>();
+    for (let i = 1; i < distinct.length; i++) {
+      const minutes = (distinct[i]! - distinct[i - 1]!) / 60_000;
+      if (Number.isInteger(minutes)) steps.set(minutes, (steps.get(minutes) ?? 0) + 1);
+    }
+    let best: number | null = null;
+    for (const [minutes, count] of steps)
+      if (best === null || count > steps.get(best)! || (count === steps.get(best)! && minutes < best)) best = minutes;
+    return best;
+  }
+  return null;
+}
+
+/** The refusal for XML or HTML text, naming the Green Button import for ESPI files; null for other text. */
+function markupMessage(text: string): string | null {
+  const start = text.trimStart().slice(0, 4096);
+  if (!start.startsWith('<')) return null;
+  if (/naesb\.org\/espi|<(?:\w+:)?(?:IntervalBlock|UsagePoint|ReadingType)\b/i.test(start))
+    return 'The file is Green Button (ESPI) XML, not CSV: import it with "Green Button file" on the Uploads page, which reads its intervals and units.';
+  return `The file is ${/^<(?:!doctype\s+)?html/i.test(start) ? 'an HTML page' : 'XML'}, not CSV text. ${saveAsCsv}`;
 }
 
 function hasUtf8Bom(bytes: Buffer): boolean {

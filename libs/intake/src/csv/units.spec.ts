@@ -18,6 +18,10 @@ describe('unitConversion', () => {
     expect(convert('kWh', 'kW', 15, 25)).toBe(100);
     expect(convert('MWh', 'MW', 60, 3.2)).toBe(3.2);
     expect(convert('kWh', 'MW', 5, 10)).toBe(0.12);
+    // 1,347,100 Wh in an hour is a mean of 1,347,100 W = 1347.1 kW, without binary noise.
+    expect(convert('Wh', 'kW', 60, 1_347_100)).toBe(1347.1);
+    // 514.6 kWh in 15 minutes is 514.6 × 60 / 15 = 2058.4 kW.
+    expect(convert('kWh', 'kW', 15, 514.6)).toBe(2058.4);
   });
 
   it('converts temperatures between °C and °F', () => {

@@ -7,8 +7,12 @@
 import type { UploadUnit } from '@loadwright/contracts';
 
 const demandInWatts: Record<string, number> = { W: 1, kW: 1e3, MW: 1e6 };
+const energyInWattHours: Record<string, number> = { Wh: 1, kWh: 1e3, MWh: 1e6 };
 
-/** A function from the file's value to the stored value, or a sentence saying why there is none. */
+/**
+ * A function from the file's value to the stored value, or a sentence saying why there is none.
+ * `intervalMinutes` is the interval each file value covers (the file's own, for energy).
+ */
 export function unitConversion(from: UploadUnit, to: string, intervalMinutes: number): ((value: number) => number) | string {
   if (from === 'degC' || from === 'degF') {
     if (to !== 'degC' && to !== 'degF') return `${from} is a temperature unit but the series stores ${to}`;
@@ -19,7 +23,8 @@ export function unitConversion(from: UploadUnit, to: string, intervalMinutes: nu
   }
   const target = demandInWatts[to];
   if (target === undefined) return `${from} is a load unit but the series stores temperatures in ${to}`;
-  const sourceWatts = from === 'kWh' || from === 'MWh' ? ((from === 'kWh' ? 1e3 : 1e6) * 60) / intervalMinutes : demandInWatts[from]!;
+  const energy = energyInWattHours[from];
+  const sourceWatts = energy !== undefined ? (energy * 60) / intervalMinutes : demandInWatts[from]!;
   if (sourceWatts === target) return (value) => value;
   // Rounded to 12 significant digits, so that 1234 W reads 1.234 kW as written, not 1.2340000000000002.
   return (value) => Number(((value * sourceWatts) / target).toPrecision(12));

@@ -35,3 +35,24 @@ export function possibleRange(subject: BoundsSubject, values: Float64Array, leng
 export function isNegativeLoad(subject: BoundsSubject, value: number): boolean {
   return subject.kind === 'load' && value < 0;
 }
+
+/**
+ * Load beyond which a reading is no electric load at all, in watts: 10 TW, above the generating
+ * capacity installed on the whole planet (about 9 TW in 2023, IRENA Renewable Capacity Statistics
+ * 2024 with non-renewable capacity). Such a value (1e300 kW, a unit or exponent gone wrong) is refused
+ * with its row and never stored, where a merely impossible one is stored flagged beside an estimate.
+ */
+export const absurdLoadWatts = 1e13;
+
+const wattsPer: Record<string, number> = { W: 1, kW: 1e3, MW: 1e6 };
+
+/**
+ * The closed range outside which a value in the series' stored unit is absurd: beyond any electric
+ * load (|value| over 10 TW), or a temperature below absolute zero (−273.15 °C, −459.67 °F) or above
+ * 1,000 °C (1,832 °F), which no weather station reads.
+ */
+export function absurdRange(subject: BoundsSubject): { low: number; high: number } {
+  if (subject.kind === 'temperature') return subject.unit === 'degF' ? { low: -459.67, high: 1832 } : { low: -273.15, high: 1000 };
+  const limit = absurdLoadWatts / (wattsPer[subject.unit] ?? 1e3);
+  return { low: -limit, high: limit };
+}
