@@ -77,7 +77,14 @@ describe('uploads', () => {
     });
     expect(posted.body.preview.rows).toHaveLength(20);
     expect(posted.body.proposal.mapping).toEqual(mapping);
-    expect(posted.body.proposal.settings).toMatchObject({ unit: 'kW', timeZone: 'America/Chicago', repeatedHourPolicy: 'reject' });
+    expect(posted.body.proposal.settings).toMatchObject({
+      unit: 'kW',
+      timeZone: 'America/Chicago',
+      repeatedHourPolicy: 'by-order',
+      slashDateOrder: 'month-first',
+      // The file's hourly rows match the hourly series: nothing to combine.
+      fileIntervalMinutes: null,
+    });
     firstId = posted.body.upload.id;
 
     const confirmed = await confirm(server.url, steward, firstId, { mapping, settings });

@@ -15,10 +15,7 @@
 
 /** What a value cell holds. */
 export type ValueCell =
-  | { kind: 'number'; value: number }
-  | { kind: 'missing'; marker: string | null }
-  | { kind: 'formula' }
-  | { kind: 'invalid' };
+  { kind: 'number'; value: number } | { kind: 'missing'; marker: string | null } | { kind: 'formula' } | { kind: 'invalid' };
 
 /** Significant digits a value keeps (see Conventions). */
 export const meterDigits = 12;

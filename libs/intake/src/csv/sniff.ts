@@ -167,7 +167,8 @@ function intervalOf(sample: readonly string[][], dayFirst: boolean): number | nu
     let best: number | null = null;
     for (const [minutes, count] of steps)
       if (best === null || count > steps.get(best)! || (count === steps.get(best)! && minutes < best)) best = minutes;
-    return best;
+    // A step longer than a day is a gap or a stray date, not an interval.
+    return best !== null && best <= 1440 ? best : null;
   }
   return null;
 }
