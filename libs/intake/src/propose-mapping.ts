@@ -99,9 +99,9 @@ export function proposeMapping(
   if (endLike.test(timestampColumn) || layout.endOfDayStamps) {
     timestampsMark = 'end';
     notes.push(
-      layout.endOfDayStamps
-        ? 'The file writes midnight as 24:00, so its timestamps mark the end of each interval.'
-        : `Column "${timestampColumn}" names interval ends, so its timestamps mark the end of each interval.`,
+      endLike.test(timestampColumn)
+        ? `Column "${timestampColumn}" names interval ends, so its timestamps mark the end of each interval.`
+        : 'The file writes midnight as 24:00, so its timestamps mark the end of each interval.',
     );
   } else if (startLike.test(timestampColumn)) {
     timestampsMark = 'start';
