@@ -3,10 +3,12 @@
  * validate, and write every reading and finding in ONE transaction, so the upload lands whole or
  * not at all. Progress goes to the upload row over a separate connection while the transaction
  * runs, so the web app can show it. A rejection marks the upload failed with its one message and
- * stores nothing. Safe to run twice: a finished upload is left alone.
+ * stores nothing. Safe to run twice: a finished upload is left alone. A steward may cancel a queued
+ * or running import (cancelUpload): the running one notices at its next progress update, or at the
+ * latest when it would mark itself done, and rolls back.
  */
 import { rm } from 'node:fs/promises';
-import { eq, sql } from 'drizzle-orm';
+import { and, eq, inArray, sql } from 'drizzle-orm';
 import type { UploadMapping, UploadSettings } from '@loadwright/contracts';
 import { auditLog, uploads, type Database } from '@loadwright/db';
 import type { Pool } from 'pg';
@@ -35,7 +37,11 @@ export interface ImportUploadDeps {
 export type ImportUploadOutcome =
   | { status: 'done'; rows: number; inserted: number; unchanged: number; revised: number; rejected: number; findings: FindingTally }
   | { status: 'failed'; message: string }
+  | { status: 'cancelled' }
   | { status: 'skipped'; reason: string };
+
+/** Thrown inside the import when a steward cancelled it meanwhile: the transaction rolls back. */
+class ImportCancelled extends Error {}
 
 /** Runs the import of upload `uploadId`. Throws only on unexpected errors (the job retries those). */
 export async function importUpload(deps: ImportUploadDeps, uploadId: number): Promise<ImportUploadOutcome> {
@@ -44,18 +50,23 @@ export async function importUpload(deps: ImportUploadDeps, uploadId: number): Pr
   if (!upload) return { status: 'skipped', reason: `upload ${uploadId} does not exist` };
   if (upload.status === 'done' || upload.status === 'failed' || upload.status === 'received')
     return { status: 'skipped', reason: `upload ${uploadId} is ${upload.status}` };
+  // Each progress update also learns whether the steward cancelled the import (the row is then no longer importing).
   const progress = (fraction: number, rows: number) =>
     pool
-      .query('update uploads set progress = $2, rows_processed = $3, updated_at = now() where id = $1', [
+      .query(`update uploads set progress = $2, rows_processed = $3, updated_at = now() where id = $1 and status = 'importing'`, [
         uploadId,
         Math.min(1, Math.max(0, fraction)),
         rows,
       ])
-      .then(() => undefined);
-  await db
+      .then((result) => {
+        if (result.rowCount === 0) throw new ImportCancelled();
+      });
+  const started = await db
     .update(uploads)
     .set({ status: 'importing', startedAt: new Date(), progress: 0, rowsProcessed: 0, error: null })
-    .where(eq(uploads.id, uploadId));
+    .where(and(eq(uploads.id, uploadId), inArray(uploads.status, ['queued', 'importing'])))
+    .returning({ id: uploads.id });
+  if (started.length === 0) return { status: 'skipped', reason: `upload ${uploadId} was cancelled` };
 
   try {
     if (!upload.storagePath || !upload.mapping || !upload.settings)
@@ -119,7 +130,7 @@ export async function importUpload(deps: ImportUploadDeps, uploadId: number): Pr
       }
       await writing;
       await writeFindings(tx, uploadId, file.findings);
-      await tx
+      const finished = await tx
         .update(uploads)
         .set({
           status: 'done',
@@ -134,7 +145,10 @@ export async function importUpload(deps: ImportUploadDeps, uploadId: number): Pr
           storagePath: null,
           updatedAt: new Date(),
         })
-        .where(eq(uploads.id, uploadId));
+        .where(and(eq(uploads.id, uploadId), eq(uploads.status, 'importing')))
+        .returning({ id: uploads.id });
+      // Cancelled while the last rows were written: nothing of the file stays.
+      if (finished.length === 0) throw new ImportCancelled();
       await tx.insert(auditLog).values({
         actorUserId: upload.uploadedById,
         actorTokenId: upload.uploadedByTokenId,
@@ -149,11 +163,15 @@ export async function importUpload(deps: ImportUploadDeps, uploadId: number): Pr
     await rm(upload.storagePath, { force: true });
     return { status: 'done', rows: file.rows, ...totals, findings: tally };
   } catch (error) {
+    if (error instanceof ImportCancelled) {
+      if (upload.storagePath) await rm(upload.storagePath, { force: true });
+      return { status: 'cancelled' };
+    }
     if (!(error instanceof UploadRejection)) throw error;
     await db
       .update(uploads)
       .set({ status: 'failed', error: error.message, progress: 0, finishedAt: new Date(), storagePath: null, updatedAt: new Date() })
-      .where(eq(uploads.id, uploadId));
+      .where(and(eq(uploads.id, uploadId), eq(uploads.status, 'importing')));
     if (upload.storagePath) await rm(upload.storagePath, { force: true });
     return { status: 'failed', message: error.message };
   }

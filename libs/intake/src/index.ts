@@ -1,4 +1,5 @@
 /** @loadwright/intake: the public surface of the library. */
+export * from './cancel-upload';
 export * from './csv/sniff';
 export * from './findings';
 export * from './import-plan';

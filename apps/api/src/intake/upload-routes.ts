@@ -35,7 +35,7 @@ import { planImport } from '@loadwright/intake';
 import { enqueueImport, importQueueReady } from '@loadwright/intake';
 import { loadCatalogue } from '@loadwright/intake';
 import { proposeMapping } from '@loadwright/intake';
-import { allFindings, findUpload, listUploads, uploadReport, uploadWithContent } from '@loadwright/intake';
+import { allFindings, cancelUpload, findUpload, listUploads, uploadReport, uploadWithContent } from '@loadwright/intake';
 
 const tag = 'Uploads';
 const idParams = z.object({ id: z.coerce.number().int().positive() });
@@ -51,7 +51,12 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
   const { db, pool } = context;
   const folder = context.uploadFolder ?? defaultUploadFolder;
   const maxBytes = context.uploadMaxBytes ?? defaultMaxBytes;
-  const receiver = multer({ storage: hashingDiskStorage(folder), limits: { fileSize: maxBytes, files: 1, fields: 5 } }).single('file');
+  // Browsers send file names as UTF-8 bytes (Zähler-Süd.csv); busboy would read them as Latin-1 by default.
+  const receiver = multer({
+    storage: hashingDiskStorage(folder),
+    limits: { fileSize: maxBytes, files: 1, fields: 5 },
+    defParamCharset: 'utf8',
+  }).single('file');
 
   /** Runs multer; resolves with the stored file, or throws a problem the steward can act on. */
   const receive = (req: Request, res: Response) =>
@@ -238,6 +243,36 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
           detail: { fileName: row.fileName },
           ip: clientAddress(req),
         });
+      },
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/uploads/:id/cancel',
+      access: 'data.upload',
+      tag,
+      summary: 'Cancel an import that is queued or running: it ends failed, saying who cancelled it, and stores nothing',
+      params: idParams,
+      response: uploadSchema,
+      handler: async ({ params, actor, req }) => {
+        const by = actor.kind === 'user' ? actor.displayName : actor.kind === 'token' ? `token "${actor.name}"` : 'someone';
+        const outcome = await cancelUpload(db, params.id, by);
+        if (!outcome.cancelled && outcome.reason === 'missing') throw new HttpProblem('notFound', `No upload with id ${params.id}.`);
+        if (!outcome.cancelled)
+          throw new HttpProblem(
+            'conflict',
+            outcome.status === 'received'
+              ? `Upload ${params.id} awaits its mapping; discard it instead.`
+              : `Upload ${params.id} is ${outcome.status}; only a queued or running import can be cancelled.`,
+          );
+        await recordAudit(db, {
+          actor,
+          action: 'upload.cancelled',
+          targetType: 'upload',
+          targetId: params.id,
+          detail: { fileName: outcome.fileName, from: outcome.from },
+          ip: clientAddress(req),
+        });
+        return (await findUpload(db, params.id))!;
       },
     }),
     defineRoute({
