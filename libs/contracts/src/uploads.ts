@@ -100,7 +100,7 @@ export const validationRuleSeverity: Record<ValidationRule, 'defect' | 'informat
   flat_line: 'defect',
   negative: 'defect',
   impossible: 'defect',
-  duplicate_equal: 'information',
+  duplicate_equal: 'defect',
   duplicate_conflict: 'defect',
   off_grid: 'defect',
   future: 'defect',

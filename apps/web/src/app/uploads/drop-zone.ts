@@ -7,22 +7,26 @@ import { RouterLink } from '@angular/router';
 import type { UploadReceipt } from '@loadwright/contracts';
 import { type Subscription, filter, map } from 'rxjs';
 import { problemMessage } from '../core/problems/api-problem';
+import { greenButtonRefusal, isXmlFile } from './green-button-file';
+import { GreenButtonImport } from './green-button-import';
 import { type TransferState, transferStep } from './transfer-progress';
 import { UploadsClient } from './uploads-client';
 
 /** What the drop zone shows about the last file. */
 type DropOutcome =
   | { readonly kind: 'refused'; readonly fileName: string; readonly message: string }
+  | { readonly kind: 'green-button'; readonly file: File }
   | { readonly kind: 'repeat'; readonly message: string; readonly uploadId: number };
 
 /**
  * Takes one CSV file, dropped or picked, and sends it with a progress bar for the transfer. A file
  * Loadwright accepts is handed on (`received`); a refused one shows the server's message, which
- * names the row and column; the same bytes again point to the earlier upload.
+ * names the row and column; the same bytes again point to the earlier upload. A Green Button (ESPI)
+ * XML file (by its name or type, or as the server recognised it) goes to the Green Button import.
  */
 @Component({
   selector: 'lw-drop-zone',
-  imports: [DecimalPipe, RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule],
+  imports: [DecimalPipe, RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule, GreenButtonImport],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './drop-zone.html',
   styleUrl: './drop-zone.scss',
@@ -71,10 +75,14 @@ export class DropZone {
     if (file) this.sendFile(file);
   }
 
-  /** Sends a file and follows the transfer. */
+  /** Sends a file and follows the transfer; an XML file goes to the Green Button import instead. */
   private sendFile(file: File): void {
     this.subscription?.unsubscribe();
     this.outcome.set(null);
+    if (isXmlFile(file)) {
+      this.outcome.set({ kind: 'green-button', file });
+      return;
+    }
     this.sending.set({ name: file.name, size: file.size });
     this.transfer.set({ phase: 'sending', percent: 0, loaded: 0 });
     this.subscription = this.client
@@ -90,7 +98,7 @@ export class DropZone {
             return;
           }
           this.transfer.set(null);
-          this.answer(file.name, step.receipt);
+          this.answer(file, step.receipt);
         },
         error: (error: unknown) => {
           this.transfer.set(null);
@@ -100,7 +108,8 @@ export class DropZone {
   }
 
   /** Decides what the answer means for the steward. */
-  private answer(fileName: string, receipt: UploadReceipt): void {
+  private answer(file: File, receipt: UploadReceipt): void {
+    const fileName = file.name;
     this.answered.emit();
     if (receipt.duplicateOf !== null) {
       this.outcome.set({
@@ -108,6 +117,8 @@ export class DropZone {
         message: receipt.message ?? `Already uploaded as upload ${receipt.duplicateOf}.`,
         uploadId: receipt.duplicateOf,
       });
+    } else if (receipt.upload.status === 'failed' && receipt.upload.error?.startsWith(greenButtonRefusal)) {
+      this.outcome.set({ kind: 'green-button', file });
     } else if (receipt.upload.status === 'failed') {
       this.outcome.set({
         kind: 'refused',

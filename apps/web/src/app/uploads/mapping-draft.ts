@@ -99,7 +99,7 @@ export function withSeries(draft: MappingDraft, series: SeriesSummary | undefine
       ...draft.settings,
       timeZone: series.timeZone,
       timestampsMark: series.timestampsMark,
-      unit: draft.settings.unit === 'kWh' || draft.settings.unit === 'MWh' ? draft.settings.unit : series.unit,
+      unit: ['Wh', 'kWh', 'MWh'].includes(draft.settings.unit) ? draft.settings.unit : series.unit,
     },
   };
 }

@@ -32,6 +32,7 @@ const unitWords: Record<(typeof uploadUnits)[number], string> = {
   W: 'W (mean demand)',
   kW: 'kW (mean demand)',
   MW: 'MW (mean demand)',
+  Wh: 'Wh per interval (energy, converted to demand)',
   kWh: 'kWh per interval (energy, converted to demand)',
   MWh: 'MWh per interval (energy, converted to demand)',
   degC: '°C',
@@ -40,8 +41,9 @@ const unitWords: Record<(typeof uploadUnits)[number], string> = {
 
 /** Words for the repeated-hour policies. */
 const policyWords: Record<(typeof repeatedHourPolicies)[number], string> = {
-  reject: 'Drop readings in that hour',
+  'by-order': 'By file order: first daylight, then standard time',
   'first-is-daylight': 'First is daylight, second standard time',
+  reject: 'Drop readings in that hour',
 };
 
 /**

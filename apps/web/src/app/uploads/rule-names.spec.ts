@@ -1,10 +1,14 @@
 import { validationRules } from '@loadwright/contracts';
 import { describe, expect, it } from 'vitest';
-import { detailWords, ruleNames } from './rule-names';
+import { detailWords, informationalRules, ruleNames } from './rule-names';
 
 describe('ruleNames', () => {
   it('names every validation rule the contracts list', () => {
     expect(Object.keys(ruleNames).sort()).toEqual([...validationRules].sort());
+  });
+
+  it('counts an estimate and a repeated hour placed by order as information, not as problems', () => {
+    expect([...informationalRules].sort()).toEqual(['dst_resolved', 'estimated']);
   });
 });
 

@@ -1,4 +1,4 @@
-import type { ValidationRule } from '@loadwright/contracts';
+import { validationRuleSeverity, validationRules, type ValidationRule } from '@loadwright/contracts';
 
 /** Short headings of the validation rules, as the report lists them. */
 export const ruleNames: Record<ValidationRule, string> = {
@@ -16,10 +16,14 @@ export const ruleNames: Record<ValidationRule, string> = {
   unparseable: 'Unreadable cells',
   unknown_series: 'Unknown series',
   estimated: 'Estimates stored',
+  dst_resolved: 'Repeated daylight-saving hour placed by order',
+  partial_interval: 'Intervals the file covers only in part',
 };
 
-/** Rules that record what Loadwright did rather than something wrong with the file. */
-export const informationalRules: ReadonlySet<ValidationRule> = new Set(['estimated']);
+/** Rules that record what Loadwright did rather than something wrong with the file (the contracts' severity). */
+export const informationalRules: ReadonlySet<ValidationRule> = new Set(
+  validationRules.filter((rule) => validationRuleSeverity[rule] === 'information'),
+);
 
 /** A finding's rule-specific facts in words, e.g. "intervals 3 · estimated yes". */
 export function detailWords(detail: Record<string, unknown>): string {

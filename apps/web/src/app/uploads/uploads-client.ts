@@ -8,7 +8,7 @@ import {
   withXsrfConfiguration,
 } from '@angular/common/http';
 import { EnvironmentInjector, Injectable, createEnvironmentInjector, inject } from '@angular/core';
-import type { ConfirmUploadRequest, Upload, UploadDetail, UploadPage, UploadReceipt } from '@loadwright/contracts';
+import type { ConfirmUploadRequest, GreenButtonImportResult, Upload, UploadDetail, UploadPage, UploadReceipt } from '@loadwright/contracts';
 import type { Observable } from 'rxjs';
 import { sessionExpiryInterceptor } from '../core/auth/session-expiry-interceptor';
 import { problemInterceptor } from '../core/problems/problem-interceptor';
@@ -20,9 +20,14 @@ export class UploadsClient {
   /** Sends files: the app's HttpClient uses fetch, which cannot report how much of a request body has gone. */
   private readonly transfers = xhrHttpClient(inject(EnvironmentInjector));
 
-  /** The newest uploads first. */
-  list(limit = 20): Observable<UploadPage> {
-    return this.http.get<UploadPage>('/api/uploads', { params: { limit } });
+  /** The newest uploads first, a page at a time. */
+  list(limit = 20, offset = 0): Observable<UploadPage> {
+    return this.http.get<UploadPage>('/api/uploads', { params: { limit, offset } });
+  }
+
+  /** Cancels a queued or running import; nothing from its file is stored. */
+  cancel(id: number): Observable<Upload> {
+    return this.http.post<Upload>(`/api/uploads/${id}/cancel`, {});
   }
 
   /** One upload: status, progress, counts and report; while awaiting its mapping also preview and proposal. */
@@ -40,6 +45,13 @@ export class UploadsClient {
   /** Confirms the mapping and settings; the import job is queued. */
   confirm(id: number, request: ConfirmUploadRequest): Observable<Upload> {
     return this.http.post<Upload>(`/api/uploads/${id}/mapping`, request);
+  }
+
+  /** Imports a Green Button (ESPI) XML file into one series, validated and stored like an upload. */
+  importGreenButton(seriesKey: string, file: Blob): Observable<GreenButtonImportResult> {
+    return this.http.post<GreenButtonImportResult>(`/api/series/${encodeURIComponent(seriesKey)}/green-button`, file, {
+      headers: { 'Content-Type': 'application/xml' },
+    });
   }
 
   /** Address of the findings CSV, for a download link. */
