@@ -105,7 +105,7 @@ describe('a steward uploads a day of feeder readings', () => {
     expect(await page.getByRole('combobox', { name: 'Unit of the values' }).textContent()).toContain('kW (mean demand)');
     expect(await page.getByLabel('Time zone of local times').inputValue()).toBe(demoScenario.organisation.timeZone);
     expect(await page.getByRole('combobox', { name: 'Repeated hour when clocks fall back' }).textContent()).toContain(
-      'Drop readings in that hour',
+      'By file order: first daylight, then standard time',
     );
     expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
     await page.screenshot({ path: resolve(artifacts, 'upload-preview.png') });
@@ -216,6 +216,27 @@ describe('a steward uploads a day of feeder readings', () => {
     const status = page.getByRole('status').filter({ hasText: `Already imported as upload ${uploadId}` });
     await status.waitFor({ timeout: 15_000 });
     expect(await status.getByRole('link', { name: `Open upload ${uploadId}` }).getAttribute('href')).toBe(`/uploads/${uploadId}`);
+  });
+});
+
+describe('a Green Button file dropped on the Uploads page', () => {
+  it('goes to the Green Button import: the steward picks the feeder and the usage lands there', async () => {
+    await page.goto(`${server.url}/uploads`, { waitUntil: 'networkidle' });
+    await picker().setInputFiles(resolve(import.meta.dirname, '../../fixtures/green-button/hourly-energy-wh.xml'));
+    const card = page.getByRole('region', { name: 'Green Button file' });
+    await card.waitFor({ timeout: 15_000 });
+    expect(await card.textContent()).toContain('hourly-energy-wh.xml is a Green Button (ESPI) usage file, not CSV.');
+    await card.getByRole('combobox', { name: 'Series of this file' }).click();
+    await page.getByRole('option', { name: new RegExp(`^${feeder.key} ·`) }).click();
+    expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
+    await card.getByRole('button', { name: 'Import Green Button file' }).click();
+    const done = card.getByRole('status');
+    await done.waitFor({ timeout: 30_000 });
+    // The fixture holds 47 hourly intervals in Wh (see libs/readings/src/green-button/parse-green-button.spec.ts).
+    expect(await done.textContent()).toMatch(/47 intervals read \(Wh\)/);
+    await page.screenshot({ path: resolve(artifacts, 'upload-green-button.png') });
+    const row = page.getByRole('row', { name: /hourly-energy-wh|green_button/ });
+    await row.first().waitFor({ timeout: 15_000 });
   });
 });
 

@@ -71,7 +71,7 @@ export type ValidationRule = (typeof validationRules)[number];
 export const validationRuleDescriptions: Record<ValidationRule, string> = {
   gap: 'Missing intervals between readings (short gaps are estimated, longer ones only reported)',
   spike:
-    'Reading far from its neighbours (Hampel identifier: more than 6 robust standard deviations from the median of the 13 readings around it)',
+    "Reading far from its neighbours (Hampel identifier: more than 6 robust standard deviations from the median of the 13 readings around it) and from the series' own shape (the same time on the 3 days and 2 weeks either side)",
   flat_line: 'Identical values for longer than the limit (6 hours for load, 12 for temperature)',
   negative: 'Load below zero',
   impossible:

@@ -14,8 +14,10 @@ import type { Finding } from './findings';
 import type { IntervalGrid } from './interval-grid';
 import { flatLineLimit, flatRuns } from './rules/flat-lines';
 import { findGaps } from './rules/gaps';
-import { hampelDefaults, hampelOutliers } from './rules/hampel-spikes';
+import { hampelDefaults } from './rules/hampel-spikes';
 import { isNegativeLoad, possibleRange, type BoundsSubject } from './rules/physical-bounds';
+import { shapeDefaults, shapeSpikes } from './rules/shape-spikes';
+import { offsetMsAt } from './time-zone-offset';
 import type { SeriesReadings } from './series-readings';
 
 /** Rows ready to store: value NaN where there is no raw reading, estimated NaN where none. */
@@ -37,6 +39,8 @@ export interface ValidateOptions extends BoundsSubject {
   maxEstimatedGap?: number;
   /** Farthest a clean neighbour may lie from a replaced reading, in intervals (default 3). */
   maxEstimateReach?: number;
+  /** IANA zone of the series: the spike rule compares readings at the same local time of day (default UTC). */
+  timeZone?: string;
 }
 
 /** Quality bits that make a raw value unusable for models and neighbours' estimates. */
@@ -67,10 +71,18 @@ export function validateSeries(readings: SeriesReadings, options: ValidateOption
       finding('impossible', i, { low: Number.isFinite(range.low) ? range.low : null, high: range.high });
     }
   }
-  for (const i of hampelOutliers(values, n)) {
+  const stepMs = grid.intervalMinutes * 60_000;
+  const zone = options.timeZone ?? 'UTC';
+  const stepsEast = (g: number) => offsetMsAt(zone, grid.instantOf(g)) / stepMs;
+  for (const i of shapeSpikes(values, gridIndex, n, grid.intervalMinutes, stepsEast)) {
     if (quality[i]! & unusable) continue;
     quality[i]! |= qualityFlag.spike;
-    finding('spike', i, { method: 'Hampel identifier', ...hampelDefaults });
+    finding('spike', i, {
+      method: 'Hampel identifier against the daily and weekly shape',
+      ...hampelDefaults,
+      shapeDays: shapeDefaults.days,
+      shapeWeeks: shapeDefaults.weeks,
+    });
   }
   const flatLimit = flatLineLimit(options.kind, grid.intervalMinutes);
   for (const run of flatRuns(values, gridIndex, n, flatLimit)) {
