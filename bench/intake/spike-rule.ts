@@ -30,7 +30,7 @@ const startMs = Date.parse(demoScenario.start);
 
 /** The rules compared. */
 const rules = {
-  'Hampel alone (before)': (values: Float64Array, grid: Float64Array) => hampelOutliers(values, values.length),
+  'Hampel alone (before)': (values: Float64Array, _grid: Float64Array) => hampelOutliers(values, values.length),
   'Hampel + daily/weekly shape (now)': (values: Float64Array, grid: Float64Array) =>
     shapeSpikes(values, grid, values.length, 60, (g) => offsetMsAt(zone, startMs + g * 3_600_000) / 3_600_000),
 } as const;

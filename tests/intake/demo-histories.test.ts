@@ -91,7 +91,11 @@ describe('demo histories', () => {
     expect(done.upload).toMatchObject({ status: 'done', rowsTotal: readings, rowsImported: readings + 3, rowsRejected: 0, error: null });
 
     expect(await findings('spike')).toEqual([
-      { key: 'fdr-c2', ts: '2025-08-12T21:00:00.000Z', detail: expect.objectContaining({ method: 'Hampel identifier against the daily and weekly shape' }) },
+      {
+        key: 'fdr-c2',
+        ts: '2025-08-12T21:00:00.000Z',
+        detail: expect.objectContaining({ method: 'Hampel identifier against the daily and weekly shape' }),
+      },
     ]);
     const flat = await findings('flat_line');
     // One finding for the whole run of 10 identical hours, not one per reading.
