@@ -143,6 +143,12 @@ export class MappingStep {
     this.draft.update((draft) => (draft ? { ...draft, settings: { ...draft.settings, [field]: value } } : draft));
   }
 
+  /** Sets the minutes between the file's readings; an empty field reads them from the rows. */
+  protected setFileInterval(value: number | string | null): void {
+    const minutes = value === '' || value === null ? null : Number(value);
+    this.setting('fileIntervalMinutes', minutes !== null && Number.isInteger(minutes) && minutes > 0 ? minutes : null);
+  }
+
   /** Maps a column of a wide file onto a series ('' leaves it out). */
   protected mapColumn(column: string, seriesKey: string): void {
     this.draft.update((draft) => (draft ? { ...draft, wideColumns: { ...draft.wideColumns, [column]: seriesKey } } : draft));
