@@ -189,7 +189,8 @@ export async function readUploadFile(
     route.lastWall = stamp.wallMs;
     route.lastRepeated = repeated;
     if (route.perDay) {
-      const day = Math.floor(stamp.wallMs / dayMs);
+      // An interval-end stamp of 24:00 (or 00:00) closes the day before.
+      const day = Math.floor((stamp.wallMs - (settings.timestampsMark === 'end' ? 1 : 0)) / dayMs);
       const seen = route.perDay.get(day);
       if (seen) seen.count++;
       else route.perDay.set(day, { count: 1, line });
