@@ -11,7 +11,7 @@ import { pino } from 'pino';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createBoss } from '../../jobs/boss';
-import { registerImportQueue } from '../../jobs/import.worker';
+import { registerQueues } from '../../jobs/queues';
 import { createPeople, signIn, type SignedIn } from '../support/people';
 import { startTestServer, type TestServer } from '../support/server';
 import { confirm, postFile, waitForImport } from './upload-client';
@@ -118,7 +118,7 @@ describe('cancelling an import', () => {
     expect(again.body.detail).toBe(`Upload ${id} is failed; only a queued or running import can be cancelled.`);
 
     // A worker now takes the job, finds the upload cancelled and leaves it so.
-    await registerImportQueue(boss, { logger: pino({ level: 'silent' }), databaseUrl: server.databaseUrl });
+    await registerQueues(boss, { logger: pino({ level: 'silent' }), concurrency: 1, databaseUrl: server.databaseUrl });
     const audit = await server.pool.query(`select action from audit_log where target_id = $1 and target_type = 'upload' order by id`, [
       String(id),
     ]);
