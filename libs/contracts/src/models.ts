@@ -166,11 +166,20 @@ export const fitCandidateSchema = z.object({
   /** Mean absolute error over the backtest steps (series' unit). */
   backtestMae: z.number().nullable(),
   backtestRmse: z.number().nullable(),
+  /** Mean absolute percentage error over the backtest steps, percent (fits before this field: absent). */
+  backtestMape: z.number().nullable().optional(),
+  /** Share of backtest hours inside the candidate's 80 % and 95 % Gaussian bands, percent. */
+  coverage80: z.number().nullable().optional(),
+  coverage95: z.number().nullable().optional(),
+  /** Ljung-Box test of the candidate's estimation residuals at 48 lags. */
+  ljungBox: z.object({ statistic: z.number(), df: z.number().int(), pValue: z.number() }).nullable().optional(),
   /** 1 − MAE / seasonal-naive MAE on the same steps (positive: better than the benchmark). */
   skill: z.number().nullable(),
   fitMs: z.number(),
-  /** Why the candidate has no scores (failed, or left out by the time budget). */
+  /** Why the candidate has no scores (it failed). */
   error: z.string().nullable(),
+  /** Why the candidate was not chosen, in plain words (null for the chosen one). */
+  note: z.string().nullable().optional(),
   chosen: z.boolean(),
 });
 

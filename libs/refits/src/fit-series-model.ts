@@ -53,7 +53,7 @@ export function fitSeriesModel(inputs: RefitInputs, holidays: HolidaySpec | null
   const cpuAt = cpuMilliseconds();
   const chosen =
     settings.method === 'auto'
-      ? autoSelect(design, data, { maxArOrder: settings.maxArOrder, ...autoOptions })
+      ? autoSelect(design, data, { maxArOrder: settings.maxArOrder, maxDifferencedArOrder: settings.maxArOrder, dayTypes: settings.dayTypes, ...autoOptions })
       : fitFixedMethod(settings, design, data);
   const fitMs = performance.now() - at;
   const fitCpu = cpuMilliseconds() - cpuAt;

@@ -18,16 +18,17 @@
 /** The partial autocorrelations implied by φ_1..φ_p, or null when some |φ_kk| ≥ 1. */
 export function arToPartialAutocorrelations(ar: ArrayLike<number>): Float64Array | null {
   const p = ar.length;
+  // Two buffers used in turn: the step-down runs p times per call and a penalty path calls it per λ.
   let a = Float64Array.from(ar);
+  let lower = new Float64Array(p);
   const pacf = new Float64Array(p);
   for (let k = p; k >= 1; k--) {
     const kappa = a[k - 1];
     if (!(Math.abs(kappa) < 1)) return null;
     pacf[k - 1] = kappa;
     const scale = 1 - kappa * kappa;
-    const lower = new Float64Array(k - 1);
     for (let j = 1; j < k; j++) lower[j - 1] = (a[j - 1] + kappa * a[k - j - 1]) / scale;
-    a = lower;
+    [a, lower] = [lower, a];
   }
   return pacf;
 }
