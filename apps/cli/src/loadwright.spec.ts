@@ -34,6 +34,7 @@ describe('loadwright fit', { timeout: 60_000 }, () => {
       'bic',
       'converged',
       'iterations',
+      'warnings',
     ]);
     expect(maxRelativeDifference(fit.ar, lm.ar)).toBeLessThan(1e-8);
     expect(

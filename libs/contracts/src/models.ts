@@ -192,8 +192,31 @@ export const fitSelectionSchema = z.object({
   candidates: z.array(fitCandidateSchema),
 });
 
+/** Which kind of prediction band a forecast carries. */
+export const forecastBandKinds = ['empirical', 'gaussian'] as const;
+
+/**
+ * How a forecast's bands were made: `empirical` (calibrated on the series' own rolling-origin errors,
+ * split conformal by horizon band and hour of day) or `gaussian` (ψ-weight standard errors, the fallback
+ * for short histories and seasonal naive); `scale` says whether they were set on log load.
+ */
+export const forecastBandsSchema = z.object({
+  kind: z.enum(forecastBandKinds),
+  scale: z.enum(['load', 'log']),
+  /** Daily origins and errors the calibration used (0 for Gaussian bands). */
+  origins: z.number().int(),
+  scores: z.number().int(),
+  reason: z.string(),
+});
+export type ForecastBands = z.infer<typeof forecastBandsSchema>;
+
 /** A note on how a forecast was made, e.g. `temperature-fallback`. */
-export const fitWarningSchema = z.object({ code: z.string(), message: z.string() });
+export const fitWarningSchema = z.object({
+  code: z.string(),
+  message: z.string(),
+  /** What to do about it, e.g. "Difference the series (weekly or daily) and fit again." */
+  suggestion: z.string().optional(),
+});
 
 /** Residual checks and settings effects recorded with every fit. */
 export const fitDiagnosticsSchema = z.object({
@@ -205,6 +228,8 @@ export const fitDiagnosticsSchema = z.object({
   /** Whether temperature regressors were used, and why not when they were not. */
   temperature: z.object({ used: z.boolean(), reason: z.string() }),
   warnings: z.array(fitWarningSchema),
+  /** The kind of band the fit's forecast carries (fits made before calibration existed: absent). */
+  bands: forecastBandsSchema.optional(),
 });
 
 /** GET /api/series/:id/fit: the newest fit of a series. */

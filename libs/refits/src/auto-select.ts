@@ -38,6 +38,7 @@ import {
   type FittedLoadModel,
   type LoadModelSpec,
   type LoadSeriesData,
+  type RegularisedFit,
 } from '@loadwright/forecasting';
 import { regularisedLags, seasonalNaiveSpec, type ModelDesign } from './model-plan';
 import { extendModel, modelAtOrigin, type ExtendedModel } from './reanchor';
@@ -153,7 +154,12 @@ export function autoSelect(design: ModelDesign, data: LoadSeriesData, options: A
       const started = clock();
       try {
         const fit = part.run(designModel.remainder);
-        candidates.push({ ...blank(`${name} + ${part.label(fit)}`, part.method), designModel, fit, fitMs: clock() - started + designMs / parts.length });
+        candidates.push({
+          ...blank(`${name} + ${part.label(fit)}`, part.method),
+          designModel,
+          fit,
+          fitMs: clock() - started + designMs / parts.length,
+        });
       } catch (error) {
         candidates.push({ ...blank(`${name} + ${part.method}`, part.method), fitMs: clock() - started, error: describeRefitError(error) });
       }
@@ -180,11 +186,14 @@ export function autoSelect(design: ModelDesign, data: LoadSeriesData, options: A
       method: 'lasso',
       run: (u) => fitArmaPart({ method: 'lasso', p: 168, q: 0, lags: regularisedLags(48, [168]), select: 'bic' }, u),
     },
-
   ]);
   for (const lag of [168, 24] as const) {
     if (design.seasonal.kind === 'difference' && design.seasonal.lag === lag) continue;
-    const differenced: ModelDesign = { ...design, seasonal: { kind: 'difference', lag }, dayTypes: options.dayTypes ?? (design.dayTypes || design.holidays !== null) };
+    const differenced: ModelDesign = {
+      ...design,
+      seasonal: { kind: 'difference', lag },
+      dayTypes: options.dayTypes ?? (design.dayTypes || design.holidays !== null),
+    };
     const prefix = lag === 168 ? 'weekly' : 'daily';
     let order: number | null = null;
     const orderOf = (u: Float64Array) => (order ??= yuleWalkerOrderByAic(u, maxDiffP));
@@ -262,8 +271,10 @@ export function autoSelect(design: ModelDesign, data: LoadSeriesData, options: A
     for (const c of scored) {
       if (c === winner) continue;
       if (c.mae! > best * NEAR) c.note = `MAE ${round(c.mae!)} is more than 2 % above the best (${round(best)})`;
-      else if (failsBadly(c) && passing.length > 0) c.note = `near-equal MAE, but its residuals fail Ljung-Box badly (Q = ${round(c.ljung!.statistic)} on ${c.ljung!.df} df)`;
-      else c.note = `near-equal MAE, but its bands cover further from nominal (80 %: ${round(c.coverage80!)} %, 95 %: ${round(c.coverage95!)} %)`;
+      else if (failsBadly(c) && passing.length > 0)
+        c.note = `near-equal MAE, but its residuals fail Ljung-Box badly (Q = ${round(c.ljung!.statistic)} on ${c.ljung!.df} df)`;
+      else
+        c.note = `near-equal MAE, but its bands cover further from nominal (80 %: ${round(c.coverage80!)} %, 95 %: ${round(c.coverage95!)} %)`;
     }
     if (!winner || winner.mae! >= naiveMae) {
       reason = winner
@@ -321,8 +332,7 @@ export function autoSelect(design: ModelDesign, data: LoadSeriesData, options: A
     chosen: winner === null,
   });
   const selection: FitSelection = {
-    rule:
-      'lowest backtest MAE; within 2 % of it, residuals that pass the Ljung-Box screen, then bands covering closest to nominal; seasonal naive only when no model beats it',
+    rule: 'lowest backtest MAE; within 2 % of it, residuals that pass the Ljung-Box screen, then bands covering closest to nominal; seasonal naive only when no model beats it',
     reason,
     backtest: { origins: origins.length, horizon },
     candidates: table,
@@ -399,7 +409,14 @@ function coverageGap(c: Candidate): number {
 
 /** The design model with another ARMA part fitted to the same remainder. */
 function withArma(model: FittedLoadModel, fit: FitResult): FittedLoadModel {
-  const spec: LoadModelSpec = { ...model.spec, method: fit.method, p: fit.p, q: fit.q };
+  const regularised = fit as Partial<RegularisedFit>;
+  const spec: LoadModelSpec = {
+    ...model.spec,
+    method: fit.method,
+    p: fit.p,
+    q: fit.q,
+    ...(regularised.lags ? { lags: regularised.lags, lambda: regularised.lambda } : {}),
+  };
   return { ...model, spec, arma: fit, residuals: fit.residuals };
 }
 

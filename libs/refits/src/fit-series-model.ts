@@ -2,14 +2,14 @@
  * The computing half of one series' refit, with no database: choose or fit the model, check its
  * residuals, forecast the horizon with the interval levels. Phase times are measured here.
  */
-import type { FitDiagnostics, FitSelection, FittedMethod, ModelSettingsRequest } from '@loadwright/contracts';
+import type { FitDiagnostics, FitSelection, FittedMethod, ForecastBands, ModelSettingsRequest } from '@loadwright/contracts';
 import {
   autocorrelation,
   cmleAr,
+  estimatorWarnings,
   fitLoadModel,
   forecastLoadModel,
   ljungBox,
-  selectOrder,
   yuleWalker,
   type FitResult,
   type FittedLoadModel,
@@ -18,7 +18,8 @@ import {
   type LoadModelSpec,
   type LoadSeriesData,
 } from '@loadwright/forecasting';
-import { autoSelect, cpuMilliseconds, type AutoOptions } from './auto-select';
+import { autoSelect, cpuMilliseconds, yuleWalkerOrderByAic, type AutoOptions } from './auto-select';
+import { calibrateForecast, heldOutModel } from './calibrate-bands';
 import { modelDesign, regularisedLags, seasonalNaiveSpec, type ModelDesign } from './model-plan';
 import type { RefitInputs } from './series-window';
 
@@ -32,6 +33,8 @@ export interface SeriesModelOutcome {
   selection: FitSelection | null;
   diagnostics: FitDiagnostics;
   forecast: LoadForecast;
+  /** Which kind of band the forecast carries (calibrated on the series' own errors, or Gaussian) and why. */
+  bands: ForecastBands;
   /** The training data as used (for the data hash and the fit's window). */
   data: LoadSeriesData;
   /** Wall milliseconds of each phase, and the CPU milliseconds of the fit (unaffected by other load). */
@@ -53,7 +56,12 @@ export function fitSeriesModel(inputs: RefitInputs, holidays: HolidaySpec | null
   const cpuAt = cpuMilliseconds();
   const chosen =
     settings.method === 'auto'
-      ? autoSelect(design, data, { maxArOrder: settings.maxArOrder, maxDifferencedArOrder: settings.maxArOrder, dayTypes: settings.dayTypes, ...autoOptions })
+      ? autoSelect(design, data, {
+          maxArOrder: settings.maxArOrder,
+          maxDifferencedArOrder: settings.maxArOrder,
+          dayTypes: settings.dayTypes,
+          ...autoOptions,
+        })
       : fitFixedMethod(settings, design, data);
   const fitMs = performance.now() - at;
   const fitCpu = cpuMilliseconds() - cpuAt;
@@ -66,6 +74,10 @@ export function fitSeriesModel(inputs: RefitInputs, holidays: HolidaySpec | null
       code: 'bridged-hours',
       message: `${window.bridgedHours} missing or excluded hours of the training window were bridged by straight lines`,
     });
+  if (chosen.model.arma) {
+    for (const w of estimatorWarnings(chosen.model.arma, chosen.model.remainder))
+      warnings.push({ code: w.code, message: w.message, suggestion: w.suggestion });
+  }
   const diagnostics: FitDiagnostics = {
     ...residualChecks(chosen.model),
     temperature: !temperature.usable
@@ -79,14 +91,25 @@ export function fitSeriesModel(inputs: RefitInputs, holidays: HolidaySpec | null
 
   at = performance.now();
   const levels = [...new Set([...settings.levels, 80, 95])].sort((a, b) => a - b);
-  const forecast = forecastLoadModel(
+  const gaussian = forecastLoadModel(
     chosen.model,
     { temperature: useTemperature ? temperature.future : undefined },
     settings.horizonHours,
     levels,
   );
+  const heldOut = heldOutModel(chosen.model, data);
+  const { forecast, bands } = calibrateForecast(chosen.model, heldOut, data, gaussian);
   const forecastMs = performance.now() - at;
-  return { ...chosen, diagnostics, forecast, data, timings: { fit: fitMs, fitCpu, diagnose: diagnoseMs, forecast: forecastMs } };
+  return {
+    model: chosen.model,
+    method: chosen.method,
+    selection: chosen.selection,
+    diagnostics: { ...diagnostics, bands },
+    forecast,
+    bands,
+    data,
+    timings: { fit: fitMs, fitCpu, diagnose: diagnoseMs, forecast: forecastMs },
+  };
 }
 
 /** A fixed method from the settings; orders left empty are chosen by AIC on the design's remainder. */
@@ -110,11 +133,13 @@ function fitFixedMethod(
   if (method === 'auto') throw new Error('fitFixedMethod is for fixed methods');
   if (settings.arOrder !== null)
     return { model: fitLoadModel({ ...design, method, p: settings.arOrder, q: 0 }, data), method, selection: null };
-  // Order by AIC: the design is estimated once at the largest order, then the order chosen on its remainder.
+  // Order by AIC: the design is estimated once at the largest order, then the order chosen on its remainder by the
+  // Yule-Walker AIC of one Levinson-Durbin pass (R's ar() criterion; no time budget, so the order never depends on
+  // how busy the machine is), and the method fitted at that order.
   const model = fitLoadModel({ ...design, method, p: settings.maxArOrder, q: 0 }, data);
-  const order = selectOrder(model.remainder, { method, maxP: settings.maxArOrder, criterion: 'aic', budgetMs: 500 });
-  const fit: FitResult = method === 'cmle' ? cmleAr(model.remainder, order.best.p) : yuleWalker(model.remainder, order.best.p);
-  return { model: { ...model, arma: fit, residuals: fit.residuals }, method, selection: null };
+  const order = yuleWalkerOrderByAic(model.remainder, Math.min(settings.maxArOrder, Math.floor(model.remainder.length / 4)));
+  const fit: FitResult = method === 'cmle' ? cmleAr(model.remainder, order) : yuleWalker(model.remainder, order);
+  return { model: { ...model, spec: { ...model.spec, p: order }, arma: fit, residuals: fit.residuals }, method, selection: null };
 }
 
 /** Residual ACF with its band and Ljung-Box at up to 48 lags (seasonal naive: its own errors). */

@@ -59,9 +59,24 @@ export async function writeRefit(
     );
     const warnings = outcome.diagnostics.warnings;
     const version = await client.query<{ id: string }>(
-      `insert into forecast_versions (series_id, fit_id, refit_run_id, state, origin, horizon_hours, levels, warnings)
-       values ($1, $2, $3, 'draft', to_timestamp($4::float8 / 1000), $5, $6, $7) returning id`,
-      [seriesId, fitId, runId, points.ts[0], points.ts.length, inputs.settings.levels, JSON.stringify(warnings)],
+      `insert into forecast_versions (series_id, fit_id, refit_run_id, state, origin, horizon_hours, levels, warnings, band_kind, bands)
+       values ($1, $2, $3, 'draft', to_timestamp($4::float8 / 1000), $5, $6, $7, $8, $9) returning id`,
+      [
+        seriesId,
+        fitId,
+        runId,
+        points.ts[0],
+        points.ts.length,
+        inputs.settings.levels,
+        JSON.stringify(warnings),
+        outcome.bands.kind,
+        JSON.stringify({
+          scale: outcome.bands.scale,
+          origins: outcome.bands.origins,
+          scores: outcome.bands.scores,
+          reason: outcome.bands.reason,
+        }),
+      ],
     );
     const versionId = Number(version.rows[0]!.id);
     await client.query(
@@ -104,6 +119,8 @@ async function insertFit(client: pg.PoolClient, inputs: RefitInputs, outcome: Se
         regression: { names: model.regression.names, coefficients: model.regression.coefficients, dropped: model.regression.dropped },
       }
     : { seasonalNaive: model.seasonalNaive };
+  // The scale the ARMA part and σ² are on: log load when the settings asked for logs.
+  parameters['log'] = model.spec.log;
   if (model.profile)
     parameters['profile'] = {
       slot: model.profile.slot,

@@ -9,6 +9,21 @@ import { createdAt, instant } from './timestamps';
 /** Life of a forecast version: drafted by a refit, approved by a planner, then superseded. */
 export const forecastState = pgEnum('forecast_state', ['draft', 'approved', 'superseded']);
 
+/**
+ * Which kind of prediction band a version carries: `empirical` (calibrated on the series' own
+ * out-of-sample errors, split conformal by horizon band and hour of day) or `gaussian` (ψ-weight
+ * standard errors: short histories, seasonal naive, and every version made before calibration existed).
+ */
+export const forecastBandKind = pgEnum('forecast_band_kind', ['empirical', 'gaussian']);
+
+/** How a version's bands were made (see forecastBandKind). */
+export interface ForecastBandsNote {
+  scale: 'load' | 'log';
+  origins: number;
+  scores: number;
+  reason: string;
+}
+
 /** Something the planner should know about how a version was made (e.g. temperature fallback). */
 export interface ForecastWarning {
   code: string;
@@ -40,6 +55,8 @@ export const forecastVersions = pgTable(
       .notNull()
       .default(sql`'{80,95}'::integer[]`),
     warnings: jsonb('warnings').$type<ForecastWarning[]>().notNull().default([]),
+    bandKind: forecastBandKind('band_kind').notNull().default('gaussian'),
+    bands: jsonb('bands').$type<ForecastBandsNote>(),
     approvedById: integer('approved_by_id').references(() => users.id, { onDelete: 'set null' }),
     approvedAt: instant('approved_at'),
     supersededAt: instant('superseded_at'),

@@ -1,2 +1,3 @@
 export * from './ljung-box';
 export * from './residual-diagnostics';
+export * from './fit-warnings';

@@ -42,14 +42,14 @@ export function forecastLoadModel(model: FittedLoadModel, future: FutureInputs, 
     ? forecastSeasonalNaive(model.transformed, { ...model.seasonalNaive, errors: model.residuals }, horizon)
     : forecastModelScale(model, future, timestamps);
   const gaussian = predictionIntervals({ mean, se }, levels);
-  if (!model.spec.log) return { timestamps, mean, se, median: mean, intervals: gaussian };
+  if (!model.spec.log) return { timestamps, mean, se, median: mean, intervals: gaussian, modelScale: { mean, se } };
   const back = backTransformLog(mean, se);
   const intervals: PredictionInterval[] = gaussian.map((interval) => ({
     level: interval.level,
     lower: backTransformLogBound(interval.lower),
     upper: backTransformLogBound(interval.upper),
   }));
-  return { timestamps, mean: back.mean, se: back.se, median: back.median, intervals };
+  return { timestamps, mean: back.mean, se: back.se, median: back.median, intervals, modelScale: { mean, se } };
 }
 
 /** Mean and se on the modelling scale (after log, before back-transform). */

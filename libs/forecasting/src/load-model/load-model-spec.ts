@@ -98,4 +98,6 @@ export interface LoadForecast {
   /** With `log`: the median exp(m), which the intervals surround; otherwise equal to `mean`. */
   median: Float64Array;
   intervals: PredictionInterval[];
+  /** Centre and standard error on the modelling scale (log load for a model on logs), which the Gaussian bands surround. */
+  modelScale: { mean: Float64Array; se: Float64Array };
 }

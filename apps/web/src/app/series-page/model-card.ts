@@ -33,7 +33,9 @@ export class ModelCard {
   protected readonly coefficients = computed(() => coefficientRows(this.fit().parameters));
   /** True when at least one coefficient has a standard error. */
   protected readonly hasStandardErrors = computed(() => this.coefficients().rows.some((row) => row.standardError !== null));
-  /** Innovation standard deviation in the series' unit. */
+  /** True when the model works on log load (σ² is then on the log scale, not in the series' unit). */
+  protected readonly logScale = computed(() => this.fit().diagnostics.bands?.scale === 'log' || this.fit().parameters['log'] === true);
+  /** Innovation standard deviation (in the series' unit, or on the log scale for a log model). */
   protected readonly sigma = computed(() => {
     const sigma2 = this.fit().sigma2;
     return sigma2 === null ? null : Math.sqrt(sigma2);
