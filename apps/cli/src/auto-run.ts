@@ -11,6 +11,7 @@ import type { ModelSettingsRequest, SeasonalTreatment } from '@loadwright/contra
 import type { HolidaySpec } from '@loadwright/forecasting';
 import { defaultModelSettings, fitSeriesModel, type RefitInputs, type SeriesModelOutcome } from '@loadwright/refits';
 import { loadInputSeries, type CommandContext } from './command-context';
+import type { InputSeries } from './parse-series';
 import { InputError } from './input-error';
 import { loadModelJson } from './load-model-run';
 import { choiceOption, integerOption, numberOption } from './option-values';
@@ -20,19 +21,26 @@ export const autoOptionConfig = {
   'training-days': { type: 'string' },
 } as const satisfies ParseArgsConfig['options'];
 
-/** The refit's outcome on the input, and the settings it ran with. */
-export interface AutoRun {
-  outcome: SeriesModelOutcome;
+/** The input and settings of an auto run, read once. */
+export interface AutoInput {
+  series: InputSeries;
   settings: ModelSettingsRequest;
-  timestamps: Float64Array;
+  timeZone: string;
+  holidays: HolidaySpec | null;
+  temperatureColumn: string | undefined;
 }
 
-/** Runs the refit's computing half on the input with the refit's defaults and the options given. */
-export async function runAuto(
+/** The refit's outcome on the input, and what it ran on. */
+export interface AutoRun extends AutoInput {
+  outcome: SeriesModelOutcome;
+}
+
+/** Reads the input and settings of `--method auto`. */
+export async function readAutoInput(
   values: Record<string, string | boolean | undefined>,
   context: CommandContext,
   forecast: { horizon?: number; levels?: number[] } = {},
-): Promise<AutoRun> {
+): Promise<AutoInput> {
   const text = (name: string) => values[name] as string | undefined;
   for (const name of ['p', 'q', 'lags', 'lambda', 'select']) {
     if (text(name) !== undefined) throw new InputError(`--${name} does not apply to --method auto: it chooses the orders itself`);
@@ -41,11 +49,28 @@ export async function runAuto(
   const temperatureColumn = text('temperature-column');
   const series = await loadInputSeries(text('input'), context, { temperatureColumn });
   if (!series.timestamps) throw new InputError('--method auto needs CSV input with an hourly "timestamp" column');
-  const n = series.values.length;
+  return { series, settings, timeZone: text('time-zone') ?? 'UTC', holidays: holidaysOption(text('holidays')), temperatureColumn };
+}
+
+/** Runs the refit's computing half on the input with the refit's default settings and the options given. */
+export async function runAuto(
+  values: Record<string, string | boolean | undefined>,
+  context: CommandContext,
+  forecast: { horizon?: number; levels?: number[] } = {},
+): Promise<AutoRun> {
+  return runAutoOn(await readAutoInput(values, context, forecast));
+}
+
+/**
+ * The refit on the first `prefix` hours of the input (all of them by default), forecasting `horizon` hours (the
+ * settings' horizon by default); with a prefix, the observed temperatures after it stand in for the forecast.
+ */
+export function runAutoOn(input: AutoInput, horizon = input.settings.horizonHours, prefix?: number): AutoRun {
+  const { series, timeZone, temperatureColumn } = input;
+  const settings = { ...input.settings, horizonHours: horizon };
+  const n = prefix ?? series.values.length;
   const window = Math.min(n, settings.trainingWindowDays * 24);
   const start = n - window;
-  const timestamps = series.timestamps.subarray(start, n);
-  const timeZone = text('time-zone') ?? 'UTC';
   const station = { id: 0, key: 'input', name: `column ${temperatureColumn ?? ''} of the input`, unit: 'degC' };
   let temperature: RefitInputs['temperature'] = {
     usable: false,
@@ -54,24 +79,24 @@ export async function runAuto(
     fallback: false,
   };
   if (temperatureColumn !== undefined) {
-    const future = series.futureTemperature;
+    const future = prefix === undefined ? series.futureTemperature : series.temperature!.subarray(n);
     temperature =
-      future && future.length >= settings.horizonHours
-        ? { usable: true, station, training: series.temperature!.subarray(start, n), future: future.subarray(0, settings.horizonHours) }
+      future && future.length >= horizon
+        ? { usable: true, station, training: series.temperature!.subarray(start, n), future: future.subarray(0, horizon) }
         : {
             usable: false,
             station,
-            reason: `the input has ${future?.length ?? 0} future temperature rows; ${settings.horizonHours} are needed`,
+            reason: `the input has ${future?.length ?? 0} future temperature rows; ${horizon} are needed`,
             fallback: true,
           };
   }
   const inputs: RefitInputs = {
     series: { id: 0, key: 'input', name: 'input', unit: '', intervalMinutes: 60, timeZone, temperatureSeriesId: null },
     settings,
-    window: { timestamps, values: series.values.subarray(start, n), bridgedHours: 0 },
+    window: { timestamps: series.timestamps!.subarray(start, n), values: series.values.subarray(start, n), bridgedHours: 0 },
     temperature,
   };
-  return { outcome: fitSeriesModel(inputs, holidaysOption(text('holidays'))), settings, timestamps };
+  return { ...input, settings, outcome: fitSeriesModel(inputs, input.holidays) };
 }
 
 /** The refit's default settings with the options given applied. */

@@ -15,6 +15,7 @@ import {
   type DayLayout,
 } from '@loadwright/forecasting';
 import { loadInputSeries, parseOptions, type Command } from './command-context';
+import { autoOptionConfig, readAutoInput, runAutoOn } from './auto-run';
 import { fitOptionConfig, fitSeries, readFitSpec } from './fit-options';
 import { loadModelOptionConfig, wantsLoadModel } from './load-model-options';
 import { fitLoadModelPrefix, readLoadModelInput } from './load-model-run';
@@ -32,6 +33,7 @@ export const backtestCommand: Command = async (context) => {
   const values = parseOptions(context.args, {
     ...fitOptionConfig,
     ...loadModelOptionConfig,
+    ...autoOptionConfig,
     horizon: { type: 'string' },
     origins: { type: 'string' },
     season: { type: 'string' },
@@ -50,7 +52,19 @@ export const backtestCommand: Command = async (context) => {
   let forecaster: (train: Float64Array, h: number) => BacktestForecast;
   let day: DayLayout | undefined;
   let model: Record<string, unknown>;
-  if (wantsLoadModel(values)) {
+  if (values.method === 'auto') {
+    // Each origin runs the nightly refit's own choice on the hours before it (observed temperatures as the forecast).
+    const input = await readAutoInput(values, context, { horizon, levels });
+    x = input.series.values;
+    day = dayLayout(input.series.timestamps!, input.timeZone);
+    const chosen: string[] = [];
+    forecaster = (train, h) => {
+      const at = runAutoOn(input, h, train.length);
+      chosen.push(at.outcome.selection?.candidates.find((c) => c.chosen)?.label ?? at.outcome.method);
+      return { mean: at.outcome.forecast.mean, intervals: at.outcome.forecast.intervals.filter((i) => levels.includes(i.level)) };
+    };
+    model = { method: 'auto', chosen };
+  } else if (wantsLoadModel(values)) {
     const input = await readLoadModelInput(values, context);
     x = input.series.values;
     day = dayLayout(input.series.timestamps, input.spec.timeZone);

@@ -90,9 +90,11 @@ describe('autoSelect', () => {
 });
 
 describe('yuleWalkerOrderByAic', () => {
-  it('picks the order R\'s ar() picks on LakeHuron (AR(2), fixtures/reference/ref/LakeHuron.json yule_walker_aic_selection)', async () => {
+  it("picks the order R's ar() picks on LakeHuron (AR(2), fixtures/reference/ref/LakeHuron.json yule_walker_aic_selection)", async () => {
     const { readFileSync } = await import('node:fs');
-    const series = JSON.parse(readFileSync(new URL('../../../fixtures/reference/data/LakeHuron.json', import.meta.url), 'utf8')) as { values: number[] };
+    const series = JSON.parse(readFileSync(new URL('../../../fixtures/reference/data/LakeHuron.json', import.meta.url), 'utf8')) as {
+      values: number[];
+    };
     const ref = JSON.parse(readFileSync(new URL('../../../fixtures/reference/ref/LakeHuron.json', import.meta.url), 'utf8')) as {
       yule_walker_aic_selection: { order_selected: number; order_max: number };
     };

@@ -68,9 +68,10 @@ export function conformalQuantiles(z: ArrayLike<number>, level: number): { lower
   if (!(level > 0 && level < 100))
     throw new ForecastingError('invalid-argument', 'conformalQuantiles', `level must lie in (0, 100), got ${level}`);
   const n = z.length;
-  const alpha = 1 - level / 100;
-  const lo = Math.floor((n + 1) * (alpha / 2));
-  const hi = Math.ceil((n + 1) * (1 - alpha / 2));
+  // (n + 1)·α/2 with α/2 = (100 − level)/200, guarded against rounding (20 × 0.1 must give 2, not 1.999…).
+  const tail = (n + 1) * ((100 - level) / 200);
+  const lo = Math.floor(tail + 1e-9);
+  const hi = Math.ceil(n + 1 - tail - 1e-9);
   if (lo < 1 || hi > n) return null;
   const sorted = Float64Array.from(z).sort();
   return { lower: sorted[lo - 1], upper: sorted[hi - 1] };

@@ -55,7 +55,8 @@ export function rollingOriginEvaluation(
   const n = data.values.length;
   const last = n - options.horizon;
   const origins = Array.from({ length: options.origins }, (_, i) => last - (options.origins - 1 - i) * step);
-  if (origins[0] - window < 0) throw new Error(`the data hold ${n} hours: too few for ${options.origins} origins after a ${window}-hour window`);
+  if (origins[0] - window < 0)
+    throw new Error(`the data hold ${n} hours: too few for ${options.origins} origins after a ${window}-hour window`);
 
   let absPct = 0;
   let abs = 0;
@@ -68,9 +69,21 @@ export function rollingOriginEvaluation(
   const fitCpuMs: number[] = [];
   for (const origin of origins) {
     const inputs: RefitInputs = {
-      series: { id: 1, key: 'evaluation', name: 'Evaluation', unit: 'MW', intervalMinutes: 60, timeZone: options.timeZone, temperatureSeriesId: null },
+      series: {
+        id: 1,
+        key: 'evaluation',
+        name: 'Evaluation',
+        unit: 'MW',
+        intervalMinutes: 60,
+        timeZone: options.timeZone,
+        temperatureSeriesId: null,
+      },
       settings: { ...settings, horizonHours: Math.max(settings.horizonHours, options.horizon) },
-      window: { timestamps: data.timestamps.subarray(origin - window, origin), values: data.values.subarray(origin - window, origin), bridgedHours: 0 },
+      window: {
+        timestamps: data.timestamps.subarray(origin - window, origin),
+        values: data.values.subarray(origin - window, origin),
+        bridgedHours: 0,
+      },
       temperature: { usable: false, station: null, reason: 'no temperature in the evaluation', fallback: false },
     };
     const outcome = fitSeriesModel(inputs, options.holidays, options.autoOptions);
