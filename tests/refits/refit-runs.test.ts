@@ -98,11 +98,21 @@ describe('a manual run for one series', () => {
     const fit = await request(server.url).get(`/api/series/${id}/fit`).set('Cookie', viewer.cookie);
     expect(fit.status).toBe(200);
     const labels = fit.body.selection.candidates.map((c: { label: string }) => c.label);
-    expect(labels).toContain('seasonal naive');
-    expect(labels.some((l: string) => l.startsWith('cmle AR('))).toBe(true);
+    expect(labels).toContain('seasonal naive (same hour last week)');
+    expect(labels.some((l: string) => /^hour-of-week profile \+ AR\(\d\) by least squares$/.test(l))).toBe(true);
+    expect(labels.some((l: string) => l.startsWith('weekly difference + AR('))).toBe(true);
     expect(fit.body.selection.candidates.filter((c: { chosen: boolean }) => c.chosen)).toHaveLength(1);
     expect(fit.body.selection.reason.length).toBeGreaterThan(20);
-    expect(fit.body.selection.backtest).toEqual({ origins: 3, horizon: 24 });
+    // 14 daily origins when the window leaves five weeks to estimate on, none (AIC only) otherwise.
+    expect([0, 14]).toContain(fit.body.selection.backtest.origins);
+    expect(fit.body.selection.backtest.horizon).toBe(24);
+    // The kind of band the forecast carries is recorded with the fit and with the version.
+    expect(['empirical', 'gaussian']).toContain(fit.body.diagnostics.bands.kind);
+    const version = await server.pool.query(`select band_kind, bands from forecast_versions where series_id = $1 and state = 'draft'`, [
+      id,
+    ]);
+    expect(version.rows[0].band_kind).toBe(fit.body.diagnostics.bands.kind);
+    expect(version.rows[0].bands.reason).toBe(fit.body.diagnostics.bands.reason);
     // Every estimated model reports its standard errors next to its estimates (seasonal naive estimates nothing).
     if (fit.body.method !== 'seasonal-naive') {
       expect(fit.body.parameters.standardErrors.ar).toHaveLength(fit.body.arOrder);
