@@ -108,11 +108,11 @@ describe('a manual run for one series', () => {
     expect(fit.body.selection.backtest.horizon).toBe(24);
     // The kind of band the forecast carries is recorded with the fit and with the version.
     expect(['empirical', 'gaussian']).toContain(fit.body.diagnostics.bands.kind);
-    const version = await server.pool.query(`select band_kind, bands from forecast_versions where series_id = $1 and state = 'draft'`, [
+    const stored = await server.pool.query(`select band_kind, bands from forecast_versions where series_id = $1 and state = 'draft'`, [
       id,
     ]);
-    expect(version.rows[0].band_kind).toBe(fit.body.diagnostics.bands.kind);
-    expect(version.rows[0].bands.reason).toBe(fit.body.diagnostics.bands.reason);
+    expect(stored.rows[0].band_kind).toBe(fit.body.diagnostics.bands.kind);
+    expect(stored.rows[0].bands.reason).toBe(fit.body.diagnostics.bands.reason);
     // Every estimated model reports its standard errors next to its estimates (seasonal naive estimates nothing).
     if (fit.body.method !== 'seasonal-naive') {
       expect(fit.body.parameters.standardErrors.ar).toHaveLength(fit.body.arOrder);
