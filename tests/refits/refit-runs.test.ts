@@ -108,9 +108,7 @@ describe('a manual run for one series', () => {
     expect(fit.body.selection.backtest.horizon).toBe(24);
     // The kind of band the forecast carries is recorded with the fit and with the version.
     expect(['empirical', 'gaussian']).toContain(fit.body.diagnostics.bands.kind);
-    const stored = await server.pool.query(`select band_kind, bands from forecast_versions where series_id = $1 and state = 'draft'`, [
-      id,
-    ]);
+    const stored = await server.pool.query(`select band_kind, bands from forecast_versions where series_id = $1 and state = 'draft'`, [id]);
     expect(stored.rows[0].band_kind).toBe(fit.body.diagnostics.bands.kind);
     expect(stored.rows[0].bands.reason).toBe(fit.body.diagnostics.bands.reason);
     // Every estimated model reports its standard errors next to its estimates (seasonal naive estimates nothing).
