@@ -13,3 +13,4 @@ export * from './forecasts';
 export * from './models';
 export * from './refits';
 export * from './uploads';
+export * from './hierarchy';

@@ -43,6 +43,25 @@ describe('minTraceMatrix', () => {
   });
 });
 
+describe('reconcileForecasts with errorScale', () => {
+  it('uses the given scales with the errors’ correlation: uncorrelated errors and scales √2, 1, 1 give the hand case above', () => {
+    // The three error series are pairwise orthogonal (1·1 − 1·1 + 2·2 − 2·2 = 0, 2 + 2 − 2 − 2 = 0, 2 − 2 − 2 + 2 = 0),
+    // so λ = 1, R* = I and W = diag(√2², 1², 1²) = diag(2, 1, 1): the same G, hence 9.5, 4.25, 5.25.
+    const errors = [
+      [1, -1, 2, -2],
+      [1, 1, 2, 2],
+      [2, -2, -1, 1],
+    ];
+    const result = reconcileForecasts(
+      parentAndTwo,
+      { mean: [[10], [4], [5]], se: [[1], [1], [1]], errors, errorScale: [Math.SQRT2, 1, 1] },
+      'min-trace',
+    );
+    expect(result.lambda).toBe(1);
+    expect(result.mean.map((m) => Math.round(m[0]! * 1e12) / 1e12)).toEqual([9.5, 4.25, 5.25]);
+  });
+});
+
 describe('bottomUpMatrix and topDownMatrix', () => {
   it('bottom-up keeps the children and sums them; its band adds variances: √(3² + 4²) = 5', () => {
     const result = reconcileForecasts(parentAndTwo, { mean: [[10], [4], [5]], se: [[1], [3], [4]] }, 'bottom-up', [95]);

@@ -46,6 +46,12 @@ export interface HierarchyBaseForecasts {
   errors?: ArrayLike<number>[];
   /** History of each series, aligned in time; needed by top-down. */
   history?: ArrayLike<number>[];
+  /**
+   * Standard deviations to give the errors' covariance instead of their own: W = diag(s) R* diag(s), with R*
+   * the correlation of the shrunk covariance. For errors taken from a benchmark (their correlations) when the
+   * base models' own error scales are known.
+   */
+  errorScale?: ArrayLike<number>;
 }
 
 /** One reconciled band. */
@@ -93,21 +99,33 @@ export function reconcileForecasts(
   }
   if (base.errors && base.errors.length !== n) throw new ForecastingError('invalid-argument', fn, `needs errors for each of ${n} series`);
   const shrunk = base.errors ? shrinkCovariance(base.errors) : null;
+  const correlation = Matrix.eye(n);
+  if (shrunk) {
+    const c = shrunk.covariance;
+    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) correlation.set(i, j, c.get(i, j) / Math.sqrt(c.get(i, i) * c.get(j, j)));
+  }
+  let w = shrunk?.covariance ?? null;
+  if (w && base.errorScale) {
+    const scale = base.errorScale;
+    if (scale.length !== n) throw new ForecastingError('invalid-argument', fn, `needs an error scale for each of ${n} series`);
+    for (let i = 0; i < n; i++) {
+      if (!(scale[i] > 0 && Number.isFinite(scale[i]))) {
+        throw new ForecastingError('invalid-argument', fn, `error scale of ${structure.keys[i]} must be finite and > 0, got ${scale[i]}`);
+      }
+    }
+    w = new Matrix(n, n);
+    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) w.set(i, j, correlation.get(i, j) * scale[i] * scale[j]);
+  }
   let g: Matrix;
   if (method === 'bottom-up') g = bottomUpMatrix(structure);
   else if (method === 'top-down') {
     if (!base.history) throw new ForecastingError('invalid-argument', fn, 'top-down needs the history of every series');
     g = topDownMatrix(structure, base.history);
   } else {
-    if (!shrunk) throw new ForecastingError('invalid-argument', fn, 'min-trace needs the in-sample errors of every series');
-    g = minTraceMatrix(structure.s, shrunk.covariance);
+    if (!w) throw new ForecastingError('invalid-argument', fn, 'min-trace needs the in-sample errors of every series');
+    g = minTraceMatrix(structure.s, w);
   }
   const sg = structure.s.mmul(g); // n × n
-  const correlation = Matrix.eye(n);
-  if (shrunk) {
-    const c = shrunk.covariance;
-    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) correlation.set(i, j, c.get(i, j) / Math.sqrt(c.get(i, i) * c.get(j, j)));
-  }
   const mean = Array.from({ length: n }, () => new Float64Array(horizon));
   const se = Array.from({ length: n }, () => new Float64Array(horizon));
   const yHat = new Matrix(n, 1);

@@ -70,9 +70,10 @@ export function minTraceMatrix(s: Matrix, w: Matrix): Matrix {
   if (w.rows !== s.rows || w.columns !== s.rows) {
     throw new ForecastingError('invalid-argument', fn, `W must be ${s.rows} × ${s.rows}, got ${w.rows} × ${w.columns}`);
   }
-  const wChol = new CholeskyDecomposition(w);
+  // Symmetric in exact arithmetic; products taken in different orders can differ in the last bit.
+  const wChol = new CholeskyDecomposition(w.clone().add(w.transpose()).mul(0.5));
   if (!wChol.isPositiveDefinite()) throw new ForecastingError('singular-matrix', fn, 'the error covariance W is not positive definite');
-  const wInvS = wChol.solve(s); // W⁻¹ S, n × m
+  const wInvS = wChol.solve(s.clone()); // W⁻¹ S, n × m
   const product = s.transpose().mmul(wInvS); // Sᵀ W⁻¹ S, m × m, symmetric up to rounding
   const normal = product.add(product.transpose()).mul(0.5);
   const normalChol = new CholeskyDecomposition(normal);
