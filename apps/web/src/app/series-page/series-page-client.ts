@@ -6,6 +6,9 @@ import type {
   CreateAdjustmentRequest,
   FitSummary,
   ForecastAdjustment,
+  HierarchyCoherence,
+  ReconcileRequest,
+  ReconciliationResult,
   ForecastReview,
   ForecastVersionPage,
   ModelSettings,
@@ -81,5 +84,15 @@ export class SeriesPageClient {
   /** Approves a draft; the previously approved version is superseded. */
   approve(versionId: number): Observable<ApprovalResult> {
     return this.http.post<ApprovalResult>(`/api/forecast-versions/${versionId}/approve`, null);
+  }
+
+  /** A parent's forecast against the sum of its children, hour by hour (drafts or approved versions). */
+  coherence(parentId: number, state: 'draft' | 'approved'): Observable<HierarchyCoherence> {
+    return this.http.get<HierarchyCoherence>(`/api/series/${parentId}/coherence`, { params: { state } });
+  }
+
+  /** Reconciles the drafts of a series and everything below it into one coherent set. */
+  reconcile(parentId: number, request: ReconcileRequest): Observable<ReconciliationResult> {
+    return this.http.post<ReconciliationResult>(`/api/series/${parentId}/reconciliations`, request);
   }
 }

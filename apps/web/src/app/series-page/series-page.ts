@@ -12,6 +12,7 @@ import {
   type ForecastReview,
   type ForecastVersionPage,
   type ModelSettings,
+  type ReconciliationResult,
   type SeriesDetail,
   forecastExportPath,
   modelMethodLabels,
@@ -22,6 +23,7 @@ import { SessionStore } from '../core/auth/session-store';
 import { problemMessage } from '../core/problems/api-problem';
 import { confirmAction } from '../shared/confirm-dialog/confirm-dialog';
 import { AdjustmentsPanel } from './adjustments-panel';
+import { CoherencePanel } from './coherence-panel';
 import { horizonPeak, methodName, peakRows, peakShiftText, reviewedVersion } from './chart-data';
 import { unitLabel, withUnit } from './chart-theme';
 import { ForecastChart } from './forecast-chart';
@@ -58,6 +60,7 @@ const optional = <T>(source: Observable<T>): Observable<T | null> => source.pipe
     MatButtonToggleModule,
     MatIconModule,
     AdjustmentsPanel,
+    CoherencePanel,
     ForecastChart,
     GroupApproval,
     HistoryChart,
@@ -205,6 +208,12 @@ export class SeriesPage {
   /** The group's drafts were approved. */
   protected groupApproved(result: ApprovalResult): void {
     this.outcome.set(`Approved ${result.approved.length} drafts of the group together.`);
+    this.reload();
+  }
+
+  /** A reconciliation wrote a coherent set of drafts for this series and below. */
+  protected hierarchyReconciled(result: ReconciliationResult): void {
+    this.outcome.set(`Reconciled ${result.versions.length} drafts (${result.method}); they are approved together.`);
     this.reload();
   }
 
