@@ -12,6 +12,7 @@ import { defineRoute, type RouteDefinition } from './http/route-table';
 import { outboxRoutes } from './outbox/outbox-routes';
 import { peopleRoutes } from './people/people-routes';
 import { readingsRoutes } from './readings/readings-routes';
+import { temperatureForecastRoutes } from './readings/temperature-forecast-routes';
 import { seriesRoutes } from './series/series-routes';
 import { tokenRoutes } from './tokens/token-routes';
 import { modelRoutes } from './models/model-routes';
@@ -33,6 +34,7 @@ export function apiRoutes(context: AppContext): RouteDefinition[] {
   routes.push(...hierarchyRoutes(context));
   routes.push(...modelRoutes(context), ...refitRoutes(context));
   routes.push(...seriesRoutes(context), ...readingsRoutes(context));
+  routes.push(...temperatureForecastRoutes(context));
   routes.push(...uploadRoutes(context));
   let document: unknown;
   routes.push(

@@ -14,3 +14,4 @@ export * from './models';
 export * from './refits';
 export * from './uploads';
 export * from './hierarchy';
+export * from './temperature-forecasts';

@@ -71,7 +71,10 @@ export function fitSeriesModel(inputs: RefitInputs, holidays: HolidaySpec | null
     temperature: !temperature.usable
       ? { used: false, reason: temperature.reason }
       : chosen.model.spec.temperature
-        ? { used: true, reason: `degree-hours from ${temperature.station.name}` }
+        ? {
+            used: true,
+            reason: `degree-hours from ${temperature.station.name}${temperature.forecastIssue ? `; ${temperature.forecastIssue.description}` : ''}`,
+          }
         : { used: false, reason: 'the chosen model (seasonal naive) uses no regressors' },
     warnings,
   };
