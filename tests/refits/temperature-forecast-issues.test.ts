@@ -3,11 +3,12 @@
  * station's °F), kept whole (the same issue time twice is refused), bad hours refused with pointers; the refit
  * reads the latest issue made before it runs, falls back with the warning when that issue does not cover the
  * horizon, and a real refit names the issue on the model card. Demo co-op: sys is linked to wx-lowland (°F),
- * whose readings stop with the load's at 2026-11-30T23:00Z, so the 168 forecast hours start 2026-12-01T00:00Z.
+ * whose readings stop with the load's at 2026-11-30T23:00Z, so the 168 forecast hours start 2026-12-01T00:00Z;
+ * the demo ships its own issues each morning at 12:00 UTC up to 30 Nov, so the pushed ones come later.
  */
 import { apiTokens, temperatureForecasts } from '@loadwright/db';
 import { readRefitInputs } from '../../libs/refits/src/series-window';
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { newApiTokenSecret } from '../../apps/api/src/auth/api-token-secret';
@@ -29,6 +30,13 @@ const hourMs = 3_600_000;
 /** `count` valid hours from the first forecast hour, each value from `value(k)`. */
 const hours = (count: number, value: (k: number) => number) =>
   Array.from({ length: count }, (_, k) => ({ ts: new Date(firstHour + k * hourMs).toISOString(), value: value(k) }));
+
+/** The stored rows of the issue pushed first (30 Nov 18:00 UTC). */
+const pushedRows = () =>
+  server.db
+    .select()
+    .from(temperatureForecasts)
+    .where(and(eq(temperatureForecasts.seriesId, station), eq(temperatureForecasts.issuedAt, new Date('2026-11-30T18:00:00Z'))));
 
 /** Pushes an issue with the read-write token. */
 const push = (body: object, token = writeToken) =>
@@ -53,20 +61,20 @@ afterAll(() => server?.close());
 
 describe('pushing a temperature forecast issue', () => {
   it('stores it in the station’s unit, converted once: 20 °C is 68 °F, 0 °C is 32 °F', async () => {
-    const response = await push({ issuedAt: '2026-11-30T06:00:00Z', unit: 'degC', hours: hours(168, (k) => (k % 2 === 0 ? 20 : 0)) });
+    const response = await push({ issuedAt: '2026-11-30T18:00:00Z', unit: 'degC', hours: hours(168, (k) => (k % 2 === 0 ? 20 : 0)) });
     expect(response.status, JSON.stringify(response.body)).toBe(201);
     expect(response.body).toMatchObject({ key: 'wx-lowland', hours: 168, unit: 'degF', converted: true, min: 32, max: 68 });
-    const rows = await server.db.select().from(temperatureForecasts).where(eq(temperatureForecasts.seriesId, station));
+    const rows = await pushedRows();
     expect(rows).toHaveLength(168);
     // °F = °C × 9/5 + 32: 20 → 68, 0 → 32.
     expect(new Set(rows.map((r) => r.value))).toEqual(new Set([68, 32]));
   });
 
   it('keeps issues whole: the same issue time again is refused and the stored values stay', async () => {
-    const again = await push({ issuedAt: '2026-11-30T06:00:00Z', unit: 'degF', hours: hours(168, () => 99) });
+    const again = await push({ issuedAt: '2026-11-30T18:00:00Z', unit: 'degF', hours: hours(168, () => 99) });
     expect(again.status).toBe(409);
     expect(again.body.detail).toMatch(/never overwritten/);
-    const rows = await server.db.select().from(temperatureForecasts).where(eq(temperatureForecasts.seriesId, station));
+    const rows = await pushedRows();
     expect(rows.every((r) => r.value !== 99)).toBe(true);
   });
 
@@ -96,7 +104,12 @@ describe('pushing a temperature forecast issue', () => {
       .send({ issuedAt: '2026-12-01T06:00:00Z', unit: 'degF', hours: hours(2, () => 40) });
     expect(asViewer.status).toBe(403);
     const list = await request(server.url).get('/api/series/wx-lowland/temperature-forecasts').set('Cookie', viewer.cookie);
-    expect(list.body.issues).toHaveLength(1);
+    // The demo's seven morning issues (06:00 local = 12:00 UTC, 24–30 Nov) and the one pushed above, newest first.
+    expect(list.body.issues.map((i: { issuedAt: string }) => i.issuedAt).slice(0, 2)).toEqual([
+      '2026-11-30T18:00:00.000Z',
+      '2026-11-30T12:00:00.000Z',
+    ]);
+    expect(list.body.issues).toHaveLength(8);
   });
 });
 
@@ -107,14 +120,14 @@ describe('the refit reads the latest issue made before it runs', () => {
     expect((await push({ issuedAt: '2026-12-02T06:00:00Z', unit: 'degF', hours: hours(100, () => 30) })).status).toBe(201);
   });
 
-  it('uses the 30 Nov issue before 1 Dec 06:00, the 1 Dec issue after it', async () => {
+  it('uses the 30 Nov 18:00 issue before 1 Dec 06:00, the 1 Dec issue after it', async () => {
     const before = await readRefitInputs(server.pool, sys, new Date('2026-12-01T05:59:00Z'));
     expect(before.temperature.usable).toBe(true);
     if (!before.temperature.usable) return;
     expect(before.temperature.future).toHaveLength(168);
     // The 30 Nov issue alternates 68, 32 °F hour by hour from the first forecast hour.
     expect(Array.from(before.temperature.future.slice(0, 4))).toEqual([68, 32, 68, 32]);
-    expect(before.temperature.forecastIssue?.description).toBe('forecast issued 2026-11-30 06:00 UTC (168 of 168 hours)');
+    expect(before.temperature.forecastIssue?.description).toBe('forecast issued 2026-11-30 18:00 UTC (168 of 168 hours)');
 
     const after = await readRefitInputs(server.pool, sys, new Date('2026-12-01T06:00:00Z'));
     expect(after.temperature.usable && new Set(after.temperature.future)).toEqual(new Set([50]));
