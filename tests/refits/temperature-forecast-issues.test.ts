@@ -173,6 +173,19 @@ describe('the refit reads the latest issue made before it runs', () => {
     expect(fit.body.diagnostics.temperature).toEqual({
       used: true,
       reason: 'degree-hours from Millrace Flats weather station; forecast issued 2026-12-02 18:00 UTC (168 of 168 hours)',
+      forecastIssuedAt: '2026-12-02T18:00:00.000Z',
     });
+
+    // The overlay: three observed days before the origin, then the issue's 168 hours in the station's °F,
+    // (5 + (k mod 24)/4) °C × 9/5 + 32: hour 0 → 41 °F, hour 4 → 6 °C = 42.8 °F.
+    const assumed = await request(server.url).get(`/api/series/${sys}/assumed-temperatures`).set('Cookie', viewer.cookie);
+    expect(assumed.status).toBe(200);
+    expect(assumed.body).toMatchObject({ used: true, issuedAt: '2026-12-02T18:00:00.000Z', station: { key: 'wx-lowland', unit: 'degF' } });
+    const observed = assumed.body.hours.filter((h: { source: string }) => h.source === 'observed');
+    const forecast = assumed.body.hours.filter((h: { source: string }) => h.source === 'forecast');
+    expect(observed).toHaveLength(72);
+    expect(forecast).toHaveLength(168);
+    expect(forecast[0]).toEqual({ ts: '2026-12-01T00:00:00.000Z', value: 41, source: 'forecast' });
+    expect(forecast[4].value).toBeCloseTo(42.8, 10);
   }, 180_000);
 });

@@ -56,3 +56,26 @@ export const temperatureForecastIssueListSchema = z.object({ issues: z.array(tem
 export type PushTemperatureForecast = z.infer<typeof pushTemperatureForecastSchema>;
 export type TemperatureForecastIssue = z.infer<typeof temperatureForecastIssueSchema>;
 export type TemperatureForecastIssueList = z.infer<typeof temperatureForecastIssueListSchema>;
+
+/** One hour of the temperatures a forecast assumed: observed (before the origin, or reported since) or forecast. */
+export const assumedTemperatureHourSchema = z.object({
+  ts: z.iso.datetime(),
+  value: z.number(),
+  source: z.enum(['observed', 'forecast']),
+});
+
+/** GET /api/series/:id/assumed-temperatures (data.read): what the reviewed version assumed about the weather. */
+export const assumedTemperaturesSchema = z.object({
+  /** The version the temperatures belong to (draft, else approved); null when the series has none. */
+  versionId: z.number().int().nullable(),
+  station: z.object({ id: z.number().int(), key: z.string(), name: z.string(), unit: z.enum(['degC', 'degF']) }).nullable(),
+  /** Whether the version's model used temperature, and the fit's words for why or why not. */
+  used: z.boolean(),
+  reason: z.string(),
+  /** The forecast issue the forecast hours came from, when one was used. */
+  issuedAt: z.iso.datetime().nullable(),
+  /** Observed for the three days before the origin, then what the forecast hours assumed. */
+  hours: z.array(assumedTemperatureHourSchema),
+});
+
+export type AssumedTemperatures = z.infer<typeof assumedTemperaturesSchema>;

@@ -10,3 +10,4 @@ export * from './series-scope';
 export * from './hierarchy-coherence';
 export * from './hierarchy-reconciliation';
 export * from './reconciled-sets';
+export * from './assumed-temperatures';

@@ -74,6 +74,7 @@ export function fitSeriesModel(inputs: RefitInputs, holidays: HolidaySpec | null
         ? {
             used: true,
             reason: `degree-hours from ${temperature.station.name}${temperature.forecastIssue ? `; ${temperature.forecastIssue.description}` : ''}`,
+            ...(temperature.forecastIssue && { forecastIssuedAt: temperature.forecastIssue.issuedAt.toISOString() }),
           }
         : { used: false, reason: 'the chosen model (seasonal naive) uses no regressors' },
     warnings,

@@ -1,8 +1,15 @@
 /**
- * Coherence across the hierarchy (read) and reconciliation of a parent's hierarchy (planners and admins).
+ * Coherence across the hierarchy (read) and reconciliation of a parent's hierarchy (planners and admins), and
+ * the temperatures a forecast assumed (read).
  */
-import { coherenceQuerySchema, hierarchyCoherenceSchema, reconcileRequestSchema, reconciliationResultSchema } from '@loadwright/contracts';
-import { hierarchyCoherence, reconcileHierarchy } from '@loadwright/forecasts';
+import {
+  assumedTemperaturesSchema,
+  coherenceQuerySchema,
+  hierarchyCoherenceSchema,
+  reconcileRequestSchema,
+  reconciliationResultSchema,
+} from '@loadwright/contracts';
+import { assumedTemperatures, hierarchyCoherence, reconcileHierarchy } from '@loadwright/forecasts';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
 import { clientAddress } from '../auth/client-address';
@@ -14,6 +21,17 @@ const tag = 'Forecasts';
 /** The routes of hierarchy coherence and reconciliation. */
 export function hierarchyRoutes({ db }: AppContext): RouteDefinition[] {
   return [
+    defineRoute({
+      method: 'get',
+      path: '/series/:id/assumed-temperatures',
+      access: 'data.read',
+      tag,
+      summary:
+        'The temperatures the current forecast assumed: observed before its origin, then observed or the forecast issue its fit used',
+      params: idParams,
+      response: assumedTemperaturesSchema,
+      handler: ({ params }) => assumedTemperatures(db, params.id),
+    }),
     defineRoute({
       method: 'get',
       path: '/series/:id/coherence',
