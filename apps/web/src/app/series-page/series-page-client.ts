@@ -2,6 +2,7 @@ import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import type {
   ApprovalPreview,
+  AssumedTemperatures,
   ApprovalResult,
   CreateAdjustmentRequest,
   FitSummary,
@@ -94,5 +95,10 @@ export class SeriesPageClient {
   /** Reconciles the drafts of a series and everything below it into one coherent set. */
   reconcile(parentId: number, request: ReconcileRequest): Observable<ReconciliationResult> {
     return this.http.post<ReconciliationResult>(`/api/series/${parentId}/reconciliations`, request);
+  }
+
+  /** The temperatures the current forecast assumed (observed, then the forecast issue its fit used). */
+  assumedTemperatures(id: number): Observable<AssumedTemperatures> {
+    return this.http.get<AssumedTemperatures>(`/api/series/${id}/assumed-temperatures`);
   }
 }

@@ -8,6 +8,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 import {
   type ApprovalResult,
+  type AssumedTemperatures,
   type FitSummary,
   type ForecastReview,
   type ForecastVersionPage,
@@ -45,6 +46,7 @@ type PageState =
       readonly versions: ForecastVersionPage | null;
       readonly fit: FitSummary | null;
       readonly settings: ModelSettings | null;
+      readonly temperatures: AssumedTemperatures | null;
     };
 
 /** Reads an optional part of the page: null when the series has none yet (404) or it fails. */
@@ -93,6 +95,7 @@ export class SeriesPage {
           versions: optional(this.client.versions(seriesId)),
           fit: optional(this.client.fit(seriesId)),
           settings: optional(this.client.modelSettings(seriesId)),
+          temperatures: optional(this.client.assumedTemperatures(seriesId)),
         }).pipe(
           map((data): PageState => ({ state: 'ready', ...data })),
           catchError((error: unknown) => of<PageState>({ state: 'failed', problem: problemMessage(error) })),
