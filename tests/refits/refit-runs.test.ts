@@ -119,11 +119,13 @@ describe('a manual run for one series', () => {
     }
     expect(fit.body.diagnostics.residualAcf).toHaveLength(48);
     expect(fit.body.diagnostics.ljungBox.pValue).toBeGreaterThanOrEqual(0);
-    // The demo's weather station has no readings past the last actual: no temperature forecast.
-    expect(fit.body.diagnostics.temperature.used).toBe(false);
-    expect(fit.body.diagnostics.warnings.map((w: { code: string }) => w.code)).toContain('temperature-fallback');
+    // The demo ships a week of station forecasts issued each morning: the latest covers the horizon, no fallback.
+    expect(fit.body.diagnostics.warnings.map((w: { code: string }) => w.code)).not.toContain('temperature-fallback');
+    if (fit.body.diagnostics.temperature.used)
+      expect(fit.body.diagnostics.temperature.reason).toContain('forecast issued 2026-11-30 12:00 UTC (168 of 168 hours)');
+    else expect(fit.body.diagnostics.temperature.reason).toMatch(/seasonal naive/);
     const [version] = await versionsOf(server.pool, id);
-    expect(version!.warnings.map((w) => w.code)).toContain('temperature-fallback');
+    expect(version!.warnings.map((w) => w.code)).not.toContain('temperature-fallback');
   });
 
   it('reports the run and its series through the status API with phase times', async () => {

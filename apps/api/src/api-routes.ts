@@ -4,6 +4,7 @@ import type { AppContext } from './app-context';
 import { auditRoutes } from './audit/audit-routes';
 import { authRoutes } from './auth/auth-routes';
 import { forecastRoutes } from './forecasts/forecast-routes';
+import { hierarchyRoutes } from './forecasts/hierarchy-routes';
 import { healthRoutes } from './health/health-routes';
 import { uploadRoutes } from './intake/upload-routes';
 import { buildOpenApiDocument } from './http/openapi';
@@ -11,6 +12,7 @@ import { defineRoute, type RouteDefinition } from './http/route-table';
 import { outboxRoutes } from './outbox/outbox-routes';
 import { peopleRoutes } from './people/people-routes';
 import { readingsRoutes } from './readings/readings-routes';
+import { temperatureForecastRoutes } from './readings/temperature-forecast-routes';
 import { seriesRoutes } from './series/series-routes';
 import { tokenRoutes } from './tokens/token-routes';
 import { modelRoutes } from './models/model-routes';
@@ -29,8 +31,10 @@ export function apiRoutes(context: AppContext): RouteDefinition[] {
     ...outboxRoutes(context),
   ];
   routes.push(...forecastRoutes(context));
+  routes.push(...hierarchyRoutes(context));
   routes.push(...modelRoutes(context), ...refitRoutes(context));
   routes.push(...seriesRoutes(context), ...readingsRoutes(context));
+  routes.push(...temperatureForecastRoutes(context));
   routes.push(...uploadRoutes(context));
   let document: unknown;
   routes.push(

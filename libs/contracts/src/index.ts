@@ -13,3 +13,5 @@ export * from './forecasts';
 export * from './models';
 export * from './refits';
 export * from './uploads';
+export * from './hierarchy';
+export * from './temperature-forecasts';

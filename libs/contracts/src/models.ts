@@ -226,7 +226,12 @@ export const fitDiagnosticsSchema = z.object({
   acfBand: z.number(),
   ljungBox: z.object({ lags: z.number().int(), statistic: z.number(), pValue: z.number(), df: z.number().int() }).nullable(),
   /** Whether temperature regressors were used, and why not when they were not. */
-  temperature: z.object({ used: z.boolean(), reason: z.string() }),
+  temperature: z.object({
+    used: z.boolean(),
+    reason: z.string(),
+    /** Issue time of the temperature forecast issue the forecast hours came from, when one was used. */
+    forecastIssuedAt: z.iso.datetime().optional(),
+  }),
   warnings: z.array(fitWarningSchema),
   /** The kind of band the fit's forecast carries (fits made before calibration existed: absent). */
   bands: forecastBandsSchema.optional(),

@@ -11,3 +11,4 @@ export * from './seasonal';
 export * from './evaluation';
 export * from './coldstart';
 export * from './load-model';
+export * from './hierarchy';

@@ -14,6 +14,7 @@ import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { recordAudit } from '@loadwright/audit';
 import { HttpProblem } from '@loadwright/problems';
 import type { Caller } from './forecast-adjustments';
+import { assertWholeReconciledSets } from './reconciled-sets';
 
 /** Why a listed version could not be approved. */
 function staleReason(versionId: number, state: string | undefined): string {
@@ -70,6 +71,7 @@ export async function approveVersions(
       );
     }
 
+    await assertWholeReconciledSets(tx, versionIds);
     const approvedAt = new Date();
     const superseded = await tx
       .update(forecastVersions)

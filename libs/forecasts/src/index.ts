@@ -7,3 +7,7 @@ export * from './forecast-repository';
 export * from './forecast-review';
 export * from './local-time';
 export * from './series-scope';
+export * from './hierarchy-coherence';
+export * from './hierarchy-reconciliation';
+export * from './reconciled-sets';
+export * from './assumed-temperatures';

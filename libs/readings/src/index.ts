@@ -4,3 +4,4 @@ export * from './green-button/parse-green-button';
 export * from './history-service';
 export * from './import-service';
 export * from './push-readings';
+export * from './temperature-forecast-issues';

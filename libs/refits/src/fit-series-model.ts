@@ -83,7 +83,11 @@ export function fitSeriesModel(inputs: RefitInputs, holidays: HolidaySpec | null
     temperature: !temperature.usable
       ? { used: false, reason: temperature.reason }
       : chosen.model.spec.temperature
-        ? { used: true, reason: `degree-hours from ${temperature.station.name}` }
+        ? {
+            used: true,
+            reason: `degree-hours from ${temperature.station.name}${temperature.forecastIssue ? `; ${temperature.forecastIssue.description}` : ''}`,
+            ...(temperature.forecastIssue && { forecastIssuedAt: temperature.forecastIssue.issuedAt.toISOString() }),
+          }
         : { used: false, reason: 'the chosen model (seasonal naive) uses no regressors' },
     warnings,
   };

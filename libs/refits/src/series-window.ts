@@ -3,9 +3,9 @@
  * values (validation estimates in place of flagged or missing readings, excluded hours left out and
  * bridged), and the linked station's temperatures over the window and the forecast hours.
  *
- * Temperature forecasts are stored as ordinary readings of the temperature series with timestamps after
- * the load's last reading (uploaded like any temperature file): whatever the station holds for the hours
- * after the last actual is the forecast the refit uses.
+ * The forecast hours take the station's observed readings where it has them (a station often reports
+ * past the load's last reading), and otherwise the latest temperature forecast issue (temperature_forecasts)
+ * issued at or before the refit runs; an issue is used as issued, never mixed with another.
  */
 import { qualityFlag } from '@loadwright/db';
 import { countMissing, fillInteriorGaps } from './fill-gaps';
@@ -60,8 +60,23 @@ export interface TrainingWindow {
 
 /** The station's temperatures on the training hours and the forecast hours, or why they cannot be used. */
 export type TemperatureInputs =
-  | { usable: true; station: Station; training: Float64Array; future: Float64Array }
+  | {
+      usable: true;
+      station: Station;
+      training: Float64Array;
+      future: Float64Array;
+      /** The forecast issue the forecast hours came from (null when observed readings covered them all). */
+      forecastIssue?: TemperatureIssueUsed | null;
+    }
   | { usable: false; station: Station | null; reason: string; fallback: boolean };
+
+/** Which temperature forecast issue a refit used, and for how many of its forecast hours. */
+export interface TemperatureIssueUsed {
+  issuedAt: Date;
+  hours: number;
+  /** In words for the model card, e.g. "forecast issued 2026-12-01 06:00 UTC (168 hours)". */
+  description: string;
+}
 
 /** Everything read for one refit. */
 export interface RefitInputs {
@@ -72,7 +87,7 @@ export interface RefitInputs {
 }
 
 /** Reads the series, its settings, window and temperatures; throws RefitDataError when unusable. */
-export async function readRefitInputs(db: Queryable, seriesId: number): Promise<RefitInputs> {
+export async function readRefitInputs(db: Queryable, seriesId: number, asOf: Date = new Date()): Promise<RefitInputs> {
   const series = await readSeries(db, seriesId);
   if (series.intervalMinutes !== 60) {
     throw new RefitDataError(`${series.key} records every ${series.intervalMinutes} minutes; the refit models hourly series only`);
@@ -83,7 +98,7 @@ export async function readRefitInputs(db: Queryable, seriesId: number): Promise<
   const settings = specRows[0] ? settingsFromRow(camelRow(specRows[0]) as unknown as ModelSpecRow) : defaultModelSettings;
   const window = await readTrainingWindow(db, series, settings.trainingWindowDays);
   const temperature = settings.temperature.enabled
-    ? await readTemperature(db, series, window, settings.horizonHours)
+    ? await readTemperature(db, series, window, settings.horizonHours, asOf)
     : { usable: false as const, station: null, reason: 'temperature regressors are switched off in the settings', fallback: false };
   return { series, settings, window, temperature };
 }
@@ -207,7 +222,13 @@ async function readTrainingWindow(db: Queryable, series: RefitSeries, days: numb
 }
 
 /** The station's temperatures aligned with the training hours and the horizon, or why not. */
-async function readTemperature(db: Queryable, series: RefitSeries, window: TrainingWindow, horizon: number): Promise<TemperatureInputs> {
+async function readTemperature(
+  db: Queryable,
+  series: RefitSeries,
+  window: TrainingWindow,
+  horizon: number,
+  asOf: Date,
+): Promise<TemperatureInputs> {
   if (series.temperatureSeriesId === null)
     return { usable: false, station: null, reason: 'the series has no linked temperature series', fallback: false };
   const { rows } = await db.query({ text: 'select id, key, name, unit from series where id = $1', values: [series.temperatureSeriesId] });
@@ -228,18 +249,57 @@ async function readTemperature(db: Queryable, series: RefitSeries, window: Train
   }
   fillInteriorGaps(training, Number.POSITIVE_INFINITY);
   fillEdges(training);
+  // future[0] is the last training hour, future[k] the k-th forecast hour.
   const future = all.slice(n - 1);
+  const issue = await latestIssue(db, station.id, asOf);
+  let fromIssue = 0;
+  if (issue) {
+    for (let k = 1; k < future.length; k++) {
+      const value = issue.values.get(lastMs + k * HOUR_MS);
+      if (Number.isNaN(future[k]!) && value !== undefined) {
+        future[k] = value;
+        fromIssue++;
+      }
+    }
+  }
   fillInteriorGaps(future, MAX_FUTURE_TEMPERATURE_GAP);
   const missingFuture = countMissing(future);
+  const issued = issue ? `issued ${utcText(issue.issuedAt)}` : '';
   if (missingFuture > 0) {
     return {
       usable: false,
       station,
-      reason: `no temperature forecast of ${station.name} covers the next ${horizon} hours (${missingFuture} hours missing): fitted without temperature`,
+      reason: issue
+        ? `the latest temperature forecast of ${station.name} (${issued}) leaves ${missingFuture} of the next ${horizon} hours uncovered: fitted without temperature`
+        : `no temperature forecast of ${station.name} covers the next ${horizon} hours (${missingFuture} hours missing): fitted without temperature`,
       fallback: true,
     };
   }
-  return { usable: true, station, training, future: future.slice(1) };
+  const forecastIssue =
+    issue && fromIssue > 0
+      ? { issuedAt: issue.issuedAt, hours: fromIssue, description: `forecast ${issued} (${fromIssue} of ${horizon} hours)` }
+      : null;
+  return { usable: true, station, training, future: future.slice(1), forecastIssue };
+}
+
+/** The newest forecast issue of a station issued at or before `asOf`, with its values by hour (epoch ms). */
+async function latestIssue(db: Queryable, stationId: number, asOf: Date): Promise<{ issuedAt: Date; values: Map<number, number> } | null> {
+  const { rows } = await db.query({
+    text: `select (extract(epoch from ts) * 1000)::float8 as ts_ms, value, issued_at
+             from temperature_forecasts
+            where series_id = $1
+              and issued_at = (select max(issued_at) from temperature_forecasts where series_id = $1 and issued_at <= $2)
+            order by ts`,
+    values: [stationId, asOf],
+  });
+  const typed = rows as Array<{ ts_ms: number; value: number; issued_at: Date }>;
+  if (typed.length === 0) return null;
+  return { issuedAt: new Date(typed[0]!.issued_at), values: new Map(typed.map((row) => [row.ts_ms, row.value])) };
+}
+
+/** "2026-12-01 06:00 UTC". */
+function utcText(date: Date): string {
+  return `${date.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
 }
 
 /** Carries the first and last known values out over leading and trailing NaNs, in place. */

@@ -14,3 +14,4 @@ export * from './refits';
 export * from './forecasts';
 export * from './misses';
 export * from './workers';
+export * from './reconciliations';

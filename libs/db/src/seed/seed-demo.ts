@@ -1,9 +1,11 @@
 import { sql } from 'drizzle-orm';
 import { generateDemo } from '../../../../fixtures/demo/generate';
 import { publicHolidays } from '../../../../fixtures/demo/local-calendar';
+import { generateForecastIssues } from '../../../../fixtures/demo/temperature-forecasts';
 import { demoScenario, type DemoScenario } from '../../../../fixtures/demo/scenario';
 import { createDb, type Database } from '../client';
 import { holidays } from '../schema/holidays';
+import { temperatureForecasts } from '../schema/temperature-forecasts';
 import { organisation } from '../schema/organisation';
 import { users } from '../schema/people';
 import { hashDemoPassword } from './demo-password-hash';
@@ -91,6 +93,15 @@ async function seedInto(db: Database, options: SeedDemoOptions): Promise<SeedDem
     );
     const ids = await insertDemoCatalogue(tx, scenario);
     await tx.insert(holidays).values(demoHolidayRows(scenario)).onConflictDoNothing();
+    // A week of station forecasts issued each morning, so demo models use temperature on the first refit.
+    for (const issue of generateForecastIssues(scenario, options.seed ?? scenario.seed)) {
+      const issuedAt = new Date(issue.issuedAtMs);
+      await tx
+        .insert(temperatureForecasts)
+        .values(
+          Array.from(issue.ts, (ms, k) => ({ seriesId: ids.get(issue.stationKey)!, issuedAt, ts: new Date(ms), value: issue.values[k]! })),
+        );
+    }
     return insertObservations(
       tx,
       data.series.map((series) => ({

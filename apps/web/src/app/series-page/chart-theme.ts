@@ -10,6 +10,7 @@ export const chartColours = {
   band95: 'rgba(42, 102, 113, 0.14)',
   approved: '#6a3f9a',
   adjusted: '#a8661c',
+  temperature: '#7a7f85',
   grid: 'rgba(0, 0, 0, 0.08)',
 } as const;
 

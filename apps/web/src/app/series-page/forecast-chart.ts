@@ -1,6 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { ChartData, ChartDataset, ChartOptions } from 'chart.js';
-import type { ForecastReview } from '@loadwright/contracts';
+import type { AssumedTemperatures, ForecastReview } from '@loadwright/contracts';
 import { BaseChartDirective } from 'ng2-charts';
 import { fanChartData, reviewedVersion } from './chart-data';
 import { chartColours, timeChartOptions, unitLabel } from './chart-theme';
@@ -33,6 +33,10 @@ import { chartColours, timeChartOptions, unitLabel } from './chart-theme';
 export class ForecastChart {
   /** Everything the review shows. */
   readonly review = input.required<ForecastReview>();
+  /** The temperatures the forecast assumed, drawn against a right-hand axis; null or unused draws none. */
+  readonly temperatures = input<AssumedTemperatures | null>(null);
+  /** True when there are assumed temperatures to draw. */
+  protected readonly withTemperature = computed(() => (this.temperatures()?.hours.length ?? 0) > 0);
 
   /** Datasets in drawing order; each band is a lower line and an upper line filled down to it. */
   protected readonly chartData = computed<ChartData<'line'>>(() => {
@@ -99,6 +103,20 @@ export class ForecastChart {
       pointRadius: 0,
       pointStyle: 'line',
     });
+    const temperatures = this.temperatures();
+    if (temperatures && temperatures.hours.length && temperatures.station) {
+      const unit = temperatures.station.unit === 'degC' ? '°C' : '°F';
+      datasets.push({
+        label: `Temperature assumed, ${unit} (grey, right axis: observed solid, forecast dotted)`,
+        data: temperatures.hours.map((h) => ({ x: Date.parse(h.ts), y: h.value })),
+        yAxisID: 'temperature',
+        borderColor: chartColours.temperature,
+        borderWidth: 1.5,
+        pointRadius: 0,
+        pointStyle: 'line',
+        segment: { borderDash: (ctx) => (temperatures.hours[ctx.p1DataIndex]?.source === 'forecast' ? [2, 3] : undefined) },
+      });
+    }
     return { datasets };
   });
 
@@ -107,8 +125,22 @@ export class ForecastChart {
     const series = this.review().series;
     const base = timeChartOptions(series.timeZone, series.unit, false);
     const unnamed = (label: string | undefined) => !label || label.endsWith(' lower');
+    const temperatures = this.temperatures();
+    const scales =
+      temperatures?.hours.length && temperatures.station
+        ? {
+            ...base.scales,
+            temperature: {
+              position: 'right' as const,
+              grid: { drawOnChartArea: false },
+              ticks: { color: '#3f484a' },
+              title: { display: true, text: `Temperature (${temperatures.station.unit === 'degC' ? '°C' : '°F'})`, color: '#3f484a' },
+            },
+          }
+        : base.scales;
     return {
       ...base,
+      scales,
       plugins: {
         ...base.plugins,
         legend: { ...base.plugins!.legend, labels: { ...base.plugins!.legend!.labels, filter: (item) => !unnamed(item.text) } },

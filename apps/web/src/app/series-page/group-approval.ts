@@ -4,8 +4,8 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
-import type { ApprovalPreview, ApprovalResult, SeriesDetail } from '@loadwright/contracts';
-import { filter, switchMap } from 'rxjs';
+import type { ApprovalPreview, ApprovalResult, HierarchyCoherence, SeriesDetail } from '@loadwright/contracts';
+import { catchError, filter, forkJoin, of, switchMap } from 'rxjs';
 import { problemMessage } from '../core/problems/api-problem';
 import { confirmAction } from '../shared/confirm-dialog/confirm-dialog';
 import { withUnit } from './chart-theme';
@@ -31,6 +31,8 @@ export class GroupApproval {
 
   /** The preview, once asked for. */
   protected readonly preview = signal<ApprovalPreview | null>(null);
+  /** Whether the group's drafts add up (the parent against its children), read with the preview. */
+  protected readonly coherence = signal<HierarchyCoherence | null>(null);
   /** True while a request is on its way. */
   protected readonly busy = signal(false);
   /** Why the last request failed. */
@@ -49,10 +51,14 @@ export class GroupApproval {
   protected previewGroup(): void {
     this.busy.set(true);
     this.problem.set(null);
-    this.client.previewApproval(this.series().id).subscribe({
-      next: (preview) => {
+    forkJoin({
+      preview: this.client.previewApproval(this.series().id),
+      coherence: this.client.coherence(this.series().id, 'draft').pipe(catchError(() => of(null))),
+    }).subscribe({
+      next: ({ preview, coherence }) => {
         this.busy.set(false);
         this.preview.set(preview);
+        this.coherence.set(coherence);
       },
       error: (error: unknown) => {
         this.busy.set(false);

@@ -2,10 +2,14 @@ import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import type {
   ApprovalPreview,
+  AssumedTemperatures,
   ApprovalResult,
   CreateAdjustmentRequest,
   FitSummary,
   ForecastAdjustment,
+  HierarchyCoherence,
+  ReconcileRequest,
+  ReconciliationResult,
   ForecastReview,
   ForecastVersionPage,
   ModelSettings,
@@ -81,5 +85,20 @@ export class SeriesPageClient {
   /** Approves a draft; the previously approved version is superseded. */
   approve(versionId: number): Observable<ApprovalResult> {
     return this.http.post<ApprovalResult>(`/api/forecast-versions/${versionId}/approve`, null);
+  }
+
+  /** A parent's forecast against the sum of its children, hour by hour (drafts or approved versions). */
+  coherence(parentId: number, state: 'draft' | 'approved'): Observable<HierarchyCoherence> {
+    return this.http.get<HierarchyCoherence>(`/api/series/${parentId}/coherence`, { params: { state } });
+  }
+
+  /** Reconciles the drafts of a series and everything below it into one coherent set. */
+  reconcile(parentId: number, request: ReconcileRequest): Observable<ReconciliationResult> {
+    return this.http.post<ReconciliationResult>(`/api/series/${parentId}/reconciliations`, request);
+  }
+
+  /** The temperatures the current forecast assumed (observed, then the forecast issue its fit used). */
+  assumedTemperatures(id: number): Observable<AssumedTemperatures> {
+    return this.http.get<AssumedTemperatures>(`/api/series/${id}/assumed-temperatures`);
   }
 }

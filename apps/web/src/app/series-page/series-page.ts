@@ -8,10 +8,12 @@ import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 import {
   type ApprovalResult,
+  type AssumedTemperatures,
   type FitSummary,
   type ForecastReview,
   type ForecastVersionPage,
   type ModelSettings,
+  type ReconciliationResult,
   type SeriesDetail,
   forecastExportPath,
   modelMethodLabels,
@@ -22,6 +24,7 @@ import { SessionStore } from '../core/auth/session-store';
 import { problemMessage } from '../core/problems/api-problem';
 import { confirmAction } from '../shared/confirm-dialog/confirm-dialog';
 import { AdjustmentsPanel } from './adjustments-panel';
+import { CoherencePanel } from './coherence-panel';
 import { horizonPeak, methodName, peakRows, peakShiftText, reviewedVersion } from './chart-data';
 import { unitLabel, withUnit } from './chart-theme';
 import { ForecastChart } from './forecast-chart';
@@ -43,6 +46,7 @@ type PageState =
       readonly versions: ForecastVersionPage | null;
       readonly fit: FitSummary | null;
       readonly settings: ModelSettings | null;
+      readonly temperatures: AssumedTemperatures | null;
     };
 
 /** Reads an optional part of the page: null when the series has none yet (404) or it fails. */
@@ -58,6 +62,7 @@ const optional = <T>(source: Observable<T>): Observable<T | null> => source.pipe
     MatButtonToggleModule,
     MatIconModule,
     AdjustmentsPanel,
+    CoherencePanel,
     ForecastChart,
     GroupApproval,
     HistoryChart,
@@ -90,6 +95,7 @@ export class SeriesPage {
           versions: optional(this.client.versions(seriesId)),
           fit: optional(this.client.fit(seriesId)),
           settings: optional(this.client.modelSettings(seriesId)),
+          temperatures: optional(this.client.assumedTemperatures(seriesId)),
         }).pipe(
           map((data): PageState => ({ state: 'ready', ...data })),
           catchError((error: unknown) => of<PageState>({ state: 'failed', problem: problemMessage(error) })),
@@ -205,6 +211,12 @@ export class SeriesPage {
   /** The group's drafts were approved. */
   protected groupApproved(result: ApprovalResult): void {
     this.outcome.set(`Approved ${result.approved.length} drafts of the group together.`);
+    this.reload();
+  }
+
+  /** A reconciliation wrote a coherent set of drafts for this series and below. */
+  protected hierarchyReconciled(result: ReconciliationResult): void {
+    this.outcome.set(`Reconciled ${result.versions.length} drafts (${result.method}); they are approved together.`);
     this.reload();
   }
 
