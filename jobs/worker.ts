@@ -6,7 +6,7 @@
 import { pino } from 'pino';
 import { isDatabaseUnavailable } from '@loadwright/db';
 import { ConfigError, loadConfig } from '@loadwright/runtime';
-import { stopWithParent } from '@loadwright/runtime';
+import { logSerializers, stopWithParent } from '@loadwright/runtime';
 import { createBoss } from './boss';
 import { registerQueues } from './queues';
 
@@ -18,7 +18,7 @@ const config = (() => {
     process.exit(1);
   }
 })();
-const logger = pino({ level: config.LOG_LEVEL, name: process.env['WORKER_NAME'] ?? 'worker' });
+const logger = pino({ level: config.LOG_LEVEL, name: process.env['WORKER_NAME'] ?? 'worker', serializers: logSerializers });
 if (!config.DATABASE_URL) {
   logger.fatal('DATABASE_URL is required by the worker (npm start sets it)');
   process.exit(1);

@@ -11,6 +11,7 @@ import { createDb, type Database } from '@loadwright/db';
 import type { Express } from 'express';
 import type pg from 'pg';
 import { pino } from 'pino';
+import { logSerializers } from '@loadwright/runtime';
 import { createApp } from '../../apps/api/src/app';
 import type { RouteDefinition } from '../../apps/api/src/http/route-table';
 import { startMailCatcher } from '@loadwright/mail';
@@ -47,8 +48,8 @@ export async function startTestServer(
   const databaseUrl = options.databaseUrl ?? (await createTestDatabase());
   // Tests that check what reaches the log pass an array that collects every line.
   const logger = options.logLines
-    ? pino({ level: 'trace' }, { write: (line: string) => void options.logLines!.push(line) })
-    : pino({ level: process.env['TEST_LOG_LEVEL'] ?? 'silent' });
+    ? pino({ level: 'trace', serializers: logSerializers }, { write: (line: string) => void options.logLines!.push(line) })
+    : pino({ level: process.env['TEST_LOG_LEVEL'] ?? 'silent', serializers: logSerializers });
   const { db, pool, close: closeDb } = createDb(databaseUrl, { max: 5, applicationName: 'loadwright-test' });
   const outboxFolder = mkdtempSync(join(tmpdir(), 'lw-outbox-'));
   const catcher = await startMailCatcher(outboxFolder);

@@ -6,13 +6,13 @@ import { pino } from 'pino';
 import { createApp } from './app';
 import { ConfigError, loadConfig, type Config } from '@loadwright/runtime';
 import { createMailer } from '@loadwright/mail';
-import { stopWithParent } from '@loadwright/runtime';
+import { logSerializers, stopWithParent } from '@loadwright/runtime';
 
 const repoRoot = resolve(import.meta.dirname, '../../..');
 
 /** Starts the server; resolves once it listens. */
 export async function startServer(config: Config) {
-  const logger = pino({ level: config.LOG_LEVEL, name: 'api' });
+  const logger = pino({ level: config.LOG_LEVEL, name: 'api', serializers: logSerializers });
   if (!config.DATABASE_URL) throw new ConfigError('Invalid configuration:\n  DATABASE_URL is required by the API (npm start sets it)');
   if (!config.SMTP_URL)
     throw new ConfigError('Invalid configuration:\n  SMTP_URL is required by the API (npm start runs a local mail catcher and sets it)');

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { digitsSchema, idParamSchema, instantSchema } from './input';
 
 /** One audit log entry as admins read it. */
 export const auditEntrySchema = z.object({
@@ -16,11 +17,11 @@ export const auditEntrySchema = z.object({
 /** GET /api/audit filters; `before` pages backwards by id. */
 export const auditQuerySchema = z.object({
   action: z.string().max(80).optional(),
-  actorUserId: z.coerce.number().int().optional(),
-  from: z.iso.datetime().optional(),
-  to: z.iso.datetime().optional(),
-  before: z.coerce.number().int().optional(),
-  limit: z.coerce.number().int().min(1).max(500).default(100),
+  actorUserId: idParamSchema.optional(),
+  from: instantSchema().optional(),
+  to: instantSchema().optional(),
+  before: idParamSchema.optional(),
+  limit: digitsSchema(1, 500).default(100),
 });
 
 export const auditPageSchema = z.object({ entries: z.array(auditEntrySchema), nextBefore: z.number().int().nullable() });

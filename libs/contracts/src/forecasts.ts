@@ -30,6 +30,7 @@
  *   `from <= ts < to`. Bounds move with the mean for a shift and are multiplied for a scale.
  */
 import { z } from 'zod';
+import { digitsSchema, idParamSchema, instantSchema, recordIdSchema } from './input';
 
 /** Life of a forecast version: drafted by a refit, approved by a planner, then superseded. */
 export const forecastStates = ['draft', 'approved', 'superseded'] as const;
@@ -252,8 +253,8 @@ export const forecastReviewSchema = z.object({
 /** GET /api/series/:id/forecast-versions: newest first; `before` continues from the last id of a page. */
 export const forecastVersionsQuerySchema = z.object({
   state: z.enum(forecastStates).optional(),
-  before: z.coerce.number().int().positive().optional(),
-  limit: z.coerce.number().int().min(1).max(200).default(50),
+  before: idParamSchema.optional(),
+  limit: digitsSchema(1, 200).default(50),
 });
 
 /** A page of version history. */
@@ -267,9 +268,9 @@ export const forecastVersionPageSchema = z.object({
 export const createAdjustmentRequestSchema = z
   .object({
     /** First instant covered (inclusive), ISO 8601 with Z or an offset. */
-    from: z.iso.datetime({ offset: true }),
+    from: instantSchema({ offset: true }),
     /** End of the period (exclusive). */
-    to: z.iso.datetime({ offset: true }),
+    to: instantSchema({ offset: true }),
     kind: z.enum(adjustmentKinds),
     /** Shift: amount added in the series' unit (may be negative). Scale: factor, greater than 0. */
     amount: z.number().finite(),
@@ -288,9 +289,9 @@ export const createAdjustmentRequestSchema = z
 /** POST /api/forecast-approvals/preview: the series to summarise, by list or by group. */
 export const approvalPreviewRequestSchema = z
   .object({
-    seriesIds: z.array(z.number().int().positive()).min(1).max(10_000).optional(),
+    seriesIds: z.array(recordIdSchema).min(1).max(10_000).optional(),
     /** A hierarchy node: it and all its descendants. */
-    parentId: z.number().int().positive().optional(),
+    parentId: recordIdSchema.optional(),
   })
   .refine((value) => (value.seriesIds === undefined) !== (value.parentId === undefined), {
     message: 'Send either seriesIds or parentId',
@@ -344,7 +345,7 @@ export const approvalPreviewSchema = z.object({
 /** POST /api/forecast-approvals: approve these drafts together, all or none. */
 export const bulkApprovalRequestSchema = z.object({
   versionIds: z
-    .array(z.number().int().positive())
+    .array(recordIdSchema)
     .min(1)
     .max(10_000)
     .refine((ids) => new Set(ids).size === ids.length, 'List each version once'),
@@ -384,10 +385,10 @@ export const forecastExportQuerySchema = z
   .object({
     series: listParameter
       .transform((parts) => parts.map(Number))
-      .pipe(z.array(z.number().int().positive()).min(1).max(10_000))
+      .pipe(z.array(recordIdSchema).min(1).max(10_000))
       .optional()
       .describe('Series ids, comma-separated, e.g. 12,14'),
-    parent: z.coerce.number().int().positive().optional().describe('A hierarchy node: it and all its descendants'),
+    parent: idParamSchema.optional().describe('A hierarchy node: it and all its descendants'),
     tz: z
       .string()
       .default('UTC')

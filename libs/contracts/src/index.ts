@@ -1,6 +1,7 @@
 // Contracts shared by the API, the worker and the web app: zod schemas and their inferred types.
 export * from './health';
 export * from './problem';
+export * from './input';
 export * from './permissions';
 export * from './auth';
 export * from './people';

@@ -4,6 +4,7 @@
  * with models.edit.
  */
 import { z } from 'zod';
+import { calendarDateSchema } from './input';
 
 /** Estimation methods a planner can choose; `auto` compares a small candidate set and picks one. */
 export const modelMethods = ['auto', 'yule-walker', 'cmle', 'nls', 'ridge', 'lasso', 'seasonal-naive'] as const;
@@ -133,7 +134,7 @@ export const holidaySchema = z.object({
 });
 
 /** GET /api/holidays?from=&to= (local dates, inclusive; default: this year and next). */
-export const holidayListQuerySchema = z.object({ from: z.iso.date().optional(), to: z.iso.date().optional() });
+export const holidayListQuerySchema = z.object({ from: calendarDateSchema.optional(), to: calendarDateSchema.optional() });
 
 /** GET /api/holidays response: the calendar and where its package days come from. */
 export const holidayCalendarSchema = z.object({
@@ -144,7 +145,7 @@ export const holidayCalendarSchema = z.object({
 
 /** POST /api/holidays: add a day (a planner's own day off, e.g. a plant shutdown). */
 export const createHolidayRequestSchema = z.object({
-  day: z.iso.date(),
+  day: calendarDateSchema,
   name: z.string().trim().min(1, 'Name the day').max(120),
   kind: z.enum(holidayKinds).default('company'),
 });

@@ -4,6 +4,7 @@
  * actuals, and the answer of a Green Button import.
  */
 import { z } from 'zod';
+import { instantSchema, isWithinYearRange } from './input';
 import { seriesUnits } from './series';
 
 /**
@@ -81,9 +82,9 @@ export const maxHistoryDays = 3660;
 export const readingHistoryQuerySchema = z
   .object({
     /** Start of the range, inclusive (ISO 8601 with offset). Default: `defaultHistoryDays` before `to`. */
-    from: z.iso.datetime({ offset: true }).optional(),
+    from: instantSchema({ offset: true }).optional(),
     /** End of the range, exclusive. Default: just after the newest reading (or now when there is none). */
-    to: z.iso.datetime({ offset: true }).optional(),
+    to: instantSchema({ offset: true }).optional(),
     /** `auto` (default): by day above `autoDailyAboveDays`, by hour above `autoHourlyAbovePoints` intervals, else each reading. */
     resolution: z.enum(['auto', ...readingResolutions]).default('auto'),
   })
@@ -160,7 +161,8 @@ export const pushedReadingSchema = z.object({
   ts: z.iso.datetime({
     offset: true,
     error: 'Give the time as ISO 8601 with an offset, e.g. 2026-01-15T14:00:00-06:00 or 2026-01-15T20:00:00Z',
-  }),
+  })
+    .refine(isWithinYearRange, 'Give a time from the years 1900 to 2200'),
   value: z.number({ error: 'Give the value as a number' }).refine(Number.isFinite, 'Give a finite number'),
 });
 

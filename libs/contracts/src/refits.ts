@@ -4,6 +4,7 @@
  * run is active (`run !== null`) and GET /api/refits slowly otherwise.
  */
 import { z } from 'zod';
+import { digitsSchema, recordIdSchema } from './input';
 import { fittedMethods } from './models';
 
 /**
@@ -12,8 +13,8 @@ import { fittedMethods } from './models';
  */
 export const refitScopeSchema = z.discriminatedUnion('kind', [
   z.object({ kind: z.literal('all') }),
-  z.object({ kind: z.literal('subtree'), seriesId: z.number().int().positive() }),
-  z.object({ kind: z.literal('series'), seriesIds: z.array(z.number().int().positive()).min(1).max(10_000) }),
+  z.object({ kind: z.literal('subtree'), seriesId: recordIdSchema }),
+  z.object({ kind: z.literal('series'), seriesIds: z.array(recordIdSchema).min(1).max(10_000) }),
 ]);
 /** See refitScopeSchema. */
 export type RefitScope = z.infer<typeof refitScopeSchema>;
@@ -95,7 +96,7 @@ export const refitRunSeriesSchema = z.object({
 export const refitRunDetailSchema = refitRunSummarySchema.extend({ series: z.array(refitRunSeriesSchema) });
 
 /** GET /api/refits?limit= */
-export const refitRunListQuerySchema = z.object({ limit: z.coerce.number().int().min(1).max(200).default(20) });
+export const refitRunListQuerySchema = z.object({ limit: digitsSchema(1, 200).default(20) });
 /** GET /api/refits response. */
 export const refitRunListSchema = z.object({ runs: z.array(refitRunSummarySchema) });
 

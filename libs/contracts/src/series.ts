@@ -4,6 +4,7 @@
  * API (which enforces these rules) and the web app's catalogue table, series page and edit form.
  */
 import { z } from 'zod';
+import { digitsSchema, int4Max, recordIdSchema } from './input';
 
 /** What a series measures. */
 export const seriesKinds = ['load', 'temperature'] as const;
@@ -152,9 +153,9 @@ export const seriesListQuerySchema = z.object({
   sort: z.enum(seriesSortKeys).default('key'),
   order: z.enum(['asc', 'desc']).default('asc'),
   /** Rows to skip (page index × page size). */
-  offset: z.coerce.number().int().min(0).default(0),
+  offset: digitsSchema(0, int4Max).default(0),
   /** Page size, at most 200. */
-  limit: z.coerce.number().int().min(1).max(200).default(50),
+  limit: digitsSchema(1, 200).default(50),
 });
 
 /** One page of the catalogue with the number of rows all pages hold. */
@@ -167,7 +168,7 @@ export const seriesPageSchema = z.object({
 
 const nameSchema = z.string().trim().min(1, 'Enter a name').max(200, 'A name has at most 200 characters');
 const optionalText = (max: number) => z.string().trim().max(max).nullable().optional();
-const idOrNull = z.number().int().positive().nullable().optional();
+const idOrNull = recordIdSchema.nullable().optional();
 
 /** The fields a steward sets on a series; `create` and `update` refine them. */
 const seriesFields = {

@@ -14,6 +14,7 @@
  *   DELETE /api/uploads/:id discards an upload still awaiting its mapping (204).
  */
 import { z } from 'zod';
+import { digitsSchema, int4Max } from './input';
 import { timeZoneSchema, timestampsMarks } from './series';
 
 /**
@@ -302,8 +303,8 @@ export type UploadReceipt = z.infer<typeof uploadReceiptSchema>;
 /** GET /api/uploads */
 export const uploadListQuerySchema = z.object({
   status: z.enum(uploadStatuses).optional(),
-  limit: z.coerce.number().int().min(1).max(200).default(50),
-  offset: z.coerce.number().int().min(0).default(0),
+  limit: digitsSchema(1, 200).default(50),
+  offset: digitsSchema(0, int4Max).default(0),
 });
 export type UploadListQuery = z.infer<typeof uploadListQuerySchema>;
 

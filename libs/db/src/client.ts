@@ -1,3 +1,4 @@
+import type { Logger } from 'drizzle-orm';
 import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
 import pg from 'pg';
 import * as relations from './relations';
@@ -19,8 +20,8 @@ export interface CreateDbOptions {
   statementTimeoutMs?: number;
   /** Milliseconds to wait for a new connection before the query fails (default 10 s), so no request hangs on a dead server. */
   connectTimeoutMs?: number;
-  /** Log every SQL statement through Drizzle's logger. */
-  logQueries?: boolean;
+  /** Log every SQL statement (its text only, never its parameters) to this function, or to the console when true. */
+  logQueries?: boolean | ((statement: string) => void);
 }
 
 /** A connected database: Drizzle on a node-postgres pool, and a way to close both. */
@@ -45,6 +46,16 @@ export function createDb(url: string, options: CreateDbOptions = {}): DbHandle {
   // A client losing its connection (idle or busy: pg-pool listens on both) must not crash the process;
   // the query in flight fails with the error, and the next query opens a new connection.
   pool.on('error', () => {});
-  const db = drizzle(pool, { schema, logger: options.logQueries ?? false });
+  const db = drizzle(pool, { schema, logger: statementLogger(options.logQueries) });
   return { db, pool, close: () => pool.end() };
+}
+
+/**
+ * Drizzle's own logger prints each statement's parameters, which hold token hashes, e-mail addresses
+ * and link secrets; this one passes on the statement text alone.
+ */
+export function statementLogger(target: CreateDbOptions['logQueries']): Logger | false {
+  if (!target) return false;
+  const write = typeof target === 'function' ? target : (statement: string) => console.debug(statement);
+  return { logQuery: (query: string, _params: unknown[]) => write(query) };
 }

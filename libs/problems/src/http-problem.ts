@@ -7,6 +7,8 @@ export class HttpProblem extends Error {
     readonly kind: ProblemKind,
     readonly detail?: string,
     readonly errors?: Problem['errors'],
+    /** A tag for the server's own use (e.g. `csrf` for the audit log); never sent. */
+    readonly reason?: string,
   ) {
     super(detail ?? problemTypes[kind].title);
   }

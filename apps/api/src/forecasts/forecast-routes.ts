@@ -14,6 +14,7 @@ import {
   forecastVersionDetailSchema,
   forecastVersionPageSchema,
   forecastVersionsQuerySchema,
+  idParamSchema, idParamsSchema,
 } from '@loadwright/contracts';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
@@ -25,8 +26,8 @@ import { approveVersions } from '@loadwright/forecasts';
 import { streamForecastCsv, streamForecastJson } from './forecast-export';
 import { reviewForecast, versionDetail, versionPage } from '@loadwright/forecasts';
 
-const idParams = z.object({ id: z.coerce.number().int().positive() });
-const adjustmentParams = idParams.extend({ adjustmentId: z.coerce.number().int().positive() });
+const idParams = idParamsSchema;
+const adjustmentParams = idParams.extend({ adjustmentId: idParamSchema });
 const tag = 'Forecasts';
 
 /** The routes of forecast review, approval and export. */

@@ -19,6 +19,7 @@ import {
   type UploadDetail,
   type UploadMapping,
   type UploadSettings,
+  idParamsSchema,
 } from '@loadwright/contracts';
 import { uploads } from '@loadwright/db';
 import type { Request, Response } from 'express';
@@ -38,7 +39,7 @@ import { proposeMapping } from '@loadwright/intake';
 import { allFindings, cancelUpload, findUpload, listUploads, uploadReport, uploadWithContent } from '@loadwright/intake';
 
 const tag = 'Uploads';
-const idParams = z.object({ id: z.coerce.number().int().positive() });
+const idParams = idParamsSchema;
 
 /** Default folder for files awaiting import (API and worker share the machine's temp folder). */
 export const defaultUploadFolder = join(tmpdir(), 'loadwright-uploads');

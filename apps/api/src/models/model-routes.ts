@@ -13,6 +13,7 @@ import {
   seedHolidaysResultSchema,
   holidaySchema,
   type Holiday,
+  idParamsSchema,
 } from '@loadwright/contracts';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
@@ -23,7 +24,7 @@ import { defineRoute, type RouteDefinition } from '../http/route-table';
 import { readHolidayPlace, seedHolidayYears } from '@loadwright/refits';
 import { NoModelError, readLatestFit, readModelSettings, writeModelSettings } from '@loadwright/refits';
 
-const idParams = z.object({ id: z.coerce.number().int().positive() });
+const idParams = idParamsSchema;
 
 /** The model and holiday routes. */
 export function modelRoutes({ db, pool }: AppContext): RouteDefinition[] {

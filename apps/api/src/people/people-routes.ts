@@ -1,6 +1,6 @@
 /** The People page's API (admins): list, invite, change role, deactivate and reactivate, resend invites. */
 import { and, asc, eq, ne, sql } from 'drizzle-orm';
-import { inviteRequestSchema, messageResponseSchema, personSchema, updatePersonRequestSchema } from '@loadwright/contracts';
+import { inviteRequestSchema, messageResponseSchema, personSchema, updatePersonRequestSchema, idParamsSchema } from '@loadwright/contracts';
 import { users } from '@loadwright/db';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
@@ -13,7 +13,7 @@ import { HttpProblem } from '@loadwright/problems';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
 import { inviteMessage } from '@loadwright/mail';
 
-const idParams = z.object({ id: z.coerce.number().int().positive() });
+const idParams = idParamsSchema;
 
 type UserRow = typeof users.$inferSelect;
 

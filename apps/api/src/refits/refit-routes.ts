@@ -6,6 +6,7 @@ import {
   refitRunListSchema,
   refitRunSummarySchema,
   startRefitRequestSchema,
+  idParamsSchema,
 } from '@loadwright/contracts';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
@@ -46,7 +47,7 @@ export function refitRoutes({ db, pool }: AppContext): RouteDefinition[] {
       access: 'data.read',
       tag: 'Refits',
       summary: 'One run with every series: status, attempts, error, phase times',
-      params: z.object({ id: z.coerce.number().int().positive() }),
+      params: idParamsSchema,
       response: refitRunDetailSchema,
       handler: async ({ params }) => {
         const run = await runDetail(pool, params.id);

@@ -5,6 +5,7 @@ import {
   seriesListQuerySchema,
   seriesPageSchema,
   updateSeriesRequestSchema,
+  idParamsSchema,
 } from '@loadwright/contracts';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
@@ -14,7 +15,7 @@ import { defineRoute, type RouteDefinition } from '../http/route-table';
 import { findSeriesByRef } from '@loadwright/series';
 import { archiveSeries, createSeries, getSeriesDetail, listSeries, restoreSeries, updateSeries } from '@loadwright/series';
 
-const idParams = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) });
+const idParams = idParamsSchema;
 
 /** Catalogue routes. */
 export function seriesRoutes({ db }: AppContext): RouteDefinition[] {

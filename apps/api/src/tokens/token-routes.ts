@@ -1,6 +1,6 @@
 /** API tokens for downstream systems (admins): list, create (secret shown once), revoke. */
 import { desc, eq, isNull, and } from 'drizzle-orm';
-import { apiTokenSchema, createApiTokenRequestSchema, createdApiTokenSchema } from '@loadwright/contracts';
+import { apiTokenSchema, createApiTokenRequestSchema, createdApiTokenSchema, idParamsSchema } from '@loadwright/contracts';
 import { apiTokens, users } from '@loadwright/db';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
@@ -85,7 +85,7 @@ export function tokenRoutes({ db }: AppContext): RouteDefinition[] {
       access: 'admin.tokens',
       tag: 'API tokens',
       summary: 'Revoke a token at once',
-      params: z.object({ id: z.coerce.number().int().positive() }),
+      params: idParamsSchema,
       handler: async ({ params, actor, req }) => {
         const [row] = await db
           .update(apiTokens)
