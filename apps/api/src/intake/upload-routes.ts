@@ -7,6 +7,7 @@ import { rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { and, eq } from 'drizzle-orm';
+import { drizzle } from 'drizzle-orm/node-postgres';
 import multer from 'multer';
 import { z } from 'zod';
 import {
@@ -20,6 +21,7 @@ import {
   type UploadMapping,
   type UploadSettings,
   idParamsSchema,
+  unstorableTextReason,
 } from '@loadwright/contracts';
 import { uploads } from '@loadwright/db';
 import type { Request, Response } from 'express';
@@ -40,6 +42,9 @@ import { allFindings, cancelUpload, findUpload, listUploads, uploadReport, uploa
 
 const tag = 'Uploads';
 const idParams = idParamsSchema;
+
+/** Messages of the multipart reader (busboy) when the body itself is broken, not the server. */
+const malformedMultipart = /^(Unexpected end of (form|multipart data)|Malformed part header|Multipart: Boundary not found|Malformed urlencoded form)/i;
 
 /** Default folder for files awaiting import (API and worker share the machine's temp folder). */
 export const defaultUploadFolder = join(tmpdir(), 'loadwright-uploads');
@@ -73,6 +78,12 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
         } else if (error instanceof multer.MulterError) {
           reject(
             new HttpProblem('invalidInput', `Send one file in the form field "file" (${error.message}).`, [
+              { pointer: '/file', detail: error.message },
+            ]),
+          );
+        } else if (error instanceof Error && malformedMultipart.test(error.message)) {
+          reject(
+            new HttpProblem('invalidInput', `The multipart/form-data body is malformed (${error.message}); send the file again.`, [
               { pointer: '/file', detail: error.message },
             ]),
           );
@@ -126,6 +137,13 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
       response: uploadReceiptSchema,
       handler: async ({ req, res, actor }) => {
         const file = await receive(req, res);
+        const nameProblem = unstorableTextReason(file.originalname);
+        if (nameProblem) {
+          await rm(file.path, { force: true });
+          throw new HttpProblem('invalidInput', `The file name cannot be stored: ${nameProblem}. Rename the file and upload it again.`, [
+            { pointer: '/file', detail: `File name: ${nameProblem}` },
+          ]);
+        }
         const earlier = await uploadWithContent(db, file.sha256);
         if (earlier !== null) {
           await rm(file.path, { force: true });
@@ -143,26 +161,29 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
           ? { status: 'received' as const, storagePath: file.path }
           : { status: 'failed' as const, error: sniffed.message, storagePath: null, finishedAt: new Date() };
         if (!sniffed.ok) await rm(file.path, { force: true });
-        const inserted = await db
-          .insert(uploads)
-          .values({ source: 'csv', fileName, contentSha256: file.sha256, byteSize: file.size, ...who(actor), ...values })
-          .onConflictDoNothing()
-          .returning({ id: uploads.id });
-        if (inserted.length === 0) {
+        const id = await db.transaction(async (tx) => {
+          const inserted = await tx
+            .insert(uploads)
+            .values({ source: 'csv', fileName, contentSha256: file.sha256, byteSize: file.size, ...who(actor), ...values })
+            .onConflictDoNothing()
+            .returning({ id: uploads.id });
+          if (inserted.length === 0) return null;
+          await recordAudit(tx, {
+            actor,
+            action: 'upload.received',
+            targetType: 'upload',
+            targetId: inserted[0]!.id,
+            detail: { fileName, byteSize: file.size, accepted: sniffed.ok },
+            ip: clientAddress(req),
+          });
+          return inserted[0]!.id;
+        });
+        if (id === null) {
           // The same bytes arrived at the same moment from elsewhere: answer as a repeat.
           await rm(file.path, { force: true });
-          const id = (await uploadWithContent(db, file.sha256))!;
-          return { ...(await detail(id)), duplicateOf: id, message: `Already uploaded as upload ${id}; nothing was added.` };
+          const earlierId = (await uploadWithContent(db, file.sha256))!;
+          return { ...(await detail(earlierId)), duplicateOf: earlierId, message: `Already uploaded as upload ${earlierId}; nothing was added.` };
         }
-        const id = inserted[0]!.id;
-        await recordAudit(db, {
-          actor,
-          action: 'upload.received',
-          targetType: 'upload',
-          targetId: id,
-          detail: { fileName, byteSize: file.size, accepted: sniffed.ok },
-          ip: clientAddress(req),
-        });
         res.status(201);
         return { ...(await detail(id)), duplicateOf: null, message: sniffed.ok ? null : sniffed.message };
       },
@@ -197,6 +218,14 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
           );
           if (updated.rowCount !== 1) throw new HttpProblem('conflict', `Upload ${row.id} was confirmed meanwhile.`);
           await enqueueImport(client, row.id);
+          await recordAudit(drizzle(client), {
+            actor,
+            action: 'upload.mapped',
+            targetType: 'upload',
+            targetId: row.id,
+            detail: { layout: body.mapping.layout, unit: body.settings.unit, timeZone: body.settings.timeZone },
+            ip: clientAddress(req),
+          });
           await client.query('commit');
         } catch (error) {
           await client.query('rollback');
@@ -204,14 +233,6 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
         } finally {
           client.release();
         }
-        await recordAudit(db, {
-          actor,
-          action: 'upload.mapped',
-          targetType: 'upload',
-          targetId: row.id,
-          detail: { layout: body.mapping.layout, unit: body.settings.unit, timeZone: body.settings.timeZone },
-          ip: clientAddress(req),
-        });
         return (await findUpload(db, row.id))!;
       },
     }),
@@ -230,20 +251,23 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
         if (!row) throw new HttpProblem('notFound', `No upload with id ${params.id}.`);
         if (row.status !== 'received')
           throw new HttpProblem('conflict', `Upload ${row.id} is ${row.status}; only an upload awaiting its mapping can be discarded.`);
-        const deleted = await db
-          .delete(uploads)
-          .where(and(eq(uploads.id, row.id), eq(uploads.status, 'received')))
-          .returning({ id: uploads.id });
-        if (deleted.length === 0) throw new HttpProblem('conflict', `Upload ${row.id} was confirmed meanwhile.`);
-        if (row.path) await rm(row.path, { force: true });
-        await recordAudit(db, {
-          actor,
-          action: 'upload.discarded',
-          targetType: 'upload',
-          targetId: row.id,
-          detail: { fileName: row.fileName },
-          ip: clientAddress(req),
+        await db.transaction(async (tx) => {
+          const deleted = await tx
+            .delete(uploads)
+            .where(and(eq(uploads.id, row.id), eq(uploads.status, 'received')))
+            .returning({ id: uploads.id });
+          if (deleted.length === 0) throw new HttpProblem('conflict', `Upload ${row.id} was confirmed meanwhile.`);
+          await recordAudit(tx, {
+            actor,
+            action: 'upload.discarded',
+            targetType: 'upload',
+            targetId: row.id,
+            detail: { fileName: row.fileName },
+            ip: clientAddress(req),
+          });
         });
+        // The file goes only once the row and its audit entry are committed.
+        if (row.path) await rm(row.path, { force: true });
       },
     }),
     defineRoute({

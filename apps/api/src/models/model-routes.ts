@@ -15,6 +15,7 @@ import {
   type Holiday,
   idParamsSchema,
 } from '@loadwright/contracts';
+import { sql } from 'drizzle-orm';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
 import { recordAudit } from '@loadwright/audit';
@@ -123,23 +124,26 @@ export function modelRoutes({ db, pool }: AppContext): RouteDefinition[] {
       response: holidaySchema,
       status: 201,
       handler: async ({ body, actor, req }) => {
-        const { rows } = await pool.query(
-          `insert into holidays (day, name, kind, source, updated_by_id) values ($1::date, $2, $3, 'manual', $4)
-           on conflict on constraint holidays_day_name_key do nothing
-           returning id, to_char(day, 'YYYY-MM-DD') as day, name, kind, source, updated_at`,
-          [body.day, body.name, body.kind, actor.kind === 'user' ? actor.userId : null],
-        );
-        if (rows.length === 0) throw new HttpProblem('conflict', `${body.day} is already in the calendar as "${body.name}".`);
-        const holiday = holidayOut(rows[0]);
-        await recordAudit(db, {
-          actor,
-          action: 'holiday.added',
-          targetType: 'holiday',
-          targetId: holiday.id,
-          detail: { day: holiday.day, name: holiday.name, kind: holiday.kind },
-          ip: clientAddress(req),
+        return db.transaction(async (tx) => {
+          const { rows } = await tx.execute<HolidayRow>(
+            sql`insert into holidays (day, name, kind, source, updated_by_id)
+                values (${body.day}::date, ${body.name}, ${body.kind}, 'manual', ${actor.kind === 'user' ? actor.userId : null})
+                on conflict on constraint holidays_day_name_key do nothing
+                returning id, to_char(day, 'YYYY-MM-DD') as day, name, kind, source,
+                          to_char(updated_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"') as updated_at`,
+          );
+          if (rows.length === 0) throw new HttpProblem('conflict', `${body.day} is already in the calendar as "${body.name}".`);
+          const holiday = holidayOut(rows[0]!);
+          await recordAudit(tx, {
+            actor,
+            action: 'holiday.added',
+            targetType: 'holiday',
+            targetId: holiday.id,
+            detail: { day: holiday.day, name: holiday.name, kind: holiday.kind },
+            ip: clientAddress(req),
+          });
+          return holiday;
         });
-        return holiday;
       },
     }),
     defineRoute({
@@ -173,17 +177,19 @@ export function modelRoutes({ db, pool }: AppContext): RouteDefinition[] {
       summary: 'Remove a day from the holiday calendar',
       params: idParams,
       handler: async ({ params, actor, req }) => {
-        const { rows } = await pool.query(`delete from holidays where id = $1 returning to_char(day, 'YYYY-MM-DD') as day, name, source`, [
-          params.id,
-        ]);
-        if (rows.length === 0) throw new HttpProblem('notFound', `No holiday with id ${params.id}.`);
-        await recordAudit(db, {
-          actor,
-          action: 'holiday.removed',
-          targetType: 'holiday',
-          targetId: params.id,
-          detail: rows[0],
-          ip: clientAddress(req),
+        await db.transaction(async (tx) => {
+          const { rows } = await tx.execute(
+            sql`delete from holidays where id = ${params.id} returning to_char(day, 'YYYY-MM-DD') as day, name, source`,
+          );
+          if (rows.length === 0) throw new HttpProblem('notFound', `No holiday with id ${params.id}.`);
+          await recordAudit(tx, {
+            actor,
+            action: 'holiday.removed',
+            targetType: 'holiday',
+            targetId: params.id,
+            detail: rows[0],
+            ip: clientAddress(req),
+          });
         });
       },
     }),
@@ -197,7 +203,7 @@ interface HolidayRow {
   name: string;
   kind: Holiday['kind'];
   source: Holiday['source'];
-  updated_at: Date;
+  updated_at: Date | string;
 }
 
 /** A holidays row as the contract shapes it. */
@@ -208,6 +214,7 @@ function holidayOut(row: HolidayRow) {
     name: row.name,
     kind: row.kind,
     source: row.source,
-    updatedAt: row.updated_at.toISOString(),
+    // A Date from pg's own parser, or already ISO text from a statement that formats it.
+    updatedAt: row.updated_at instanceof Date ? row.updated_at.toISOString() : row.updated_at,
   };
 }

@@ -69,17 +69,20 @@ export function peopleRoutes(context: AppContext): RouteDefinition[] {
           throw new HttpProblem('conflict', `${body.email} already has an account.`, [
             { pointer: '/email', detail: 'Already has an account' },
           ]);
-        const [user] = await db
-          .insert(users)
-          .values({ email: body.email, displayName: body.displayName, role: body.role, passwordHash: null })
-          .returning();
-        await recordAudit(db, {
-          actor,
-          action: 'user.invited',
-          targetType: 'user',
-          targetId: user!.id,
-          detail: { email: body.email, role: body.role },
-          ip: clientAddress(req),
+        const user = await db.transaction(async (tx) => {
+          const [row] = await tx
+            .insert(users)
+            .values({ email: body.email, displayName: body.displayName, role: body.role, passwordHash: null })
+            .returning();
+          await recordAudit(tx, {
+            actor,
+            action: 'user.invited',
+            targetType: 'user',
+            targetId: row!.id,
+            detail: { email: body.email, role: body.role },
+            ip: clientAddress(req),
+          });
+          return row;
         });
         await sendInvite(user!, actor);
         return toPerson(user!);

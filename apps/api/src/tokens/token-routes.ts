@@ -56,26 +56,24 @@ export function tokenRoutes({ db }: AppContext): RouteDefinition[] {
       handler: async ({ body, actor, req }) => {
         const { token, prefix, hash } = newApiTokenSecret();
         const expiresAt = body.expiresInDays === null ? null : new Date(Date.now() + body.expiresInDays * 86_400_000);
-        const [row] = await db
-          .insert(apiTokens)
-          .values({
-            name: body.name,
-            scope: body.scope,
-            prefix,
-            secretHash: hash,
-            expiresAt,
-            createdById: actor.kind === 'user' ? actor.userId : null,
-          })
-          .returning({ id: apiTokens.id });
-        await recordAudit(db, {
-          actor,
-          action: 'token.created',
-          targetType: 'api_token',
-          targetId: row!.id,
-          detail: { name: body.name, scope: body.scope, prefix },
-          ip: clientAddress(req),
+        if (actor.kind !== 'user') throw new HttpProblem('forbidden', 'Only a signed-in admin can create a token; it acts for them.');
+        // The token and its audit entry are written together or not at all.
+        const id = await db.transaction(async (tx) => {
+          const [row] = await tx
+            .insert(apiTokens)
+            .values({ name: body.name, scope: body.scope, prefix, secretHash: hash, expiresAt, createdById: actor.userId })
+            .returning({ id: apiTokens.id });
+          await recordAudit(tx, {
+            actor,
+            action: 'token.created',
+            targetType: 'api_token',
+            targetId: row!.id,
+            detail: { name: body.name, scope: body.scope, prefix },
+            ip: clientAddress(req),
+          });
+          return row!.id;
         });
-        const [created] = await listTokens(row!.id);
+        const [created] = await listTokens(id);
         return { token: created!, secret: token };
       },
     }),
@@ -87,19 +85,21 @@ export function tokenRoutes({ db }: AppContext): RouteDefinition[] {
       summary: 'Revoke a token at once',
       params: idParamsSchema,
       handler: async ({ params, actor, req }) => {
-        const [row] = await db
-          .update(apiTokens)
-          .set({ revokedAt: new Date() })
-          .where(and(eq(apiTokens.id, params.id), isNull(apiTokens.revokedAt)))
-          .returning({ id: apiTokens.id, name: apiTokens.name });
-        if (!row) throw new HttpProblem('notFound', `No live token with id ${params.id}.`);
-        await recordAudit(db, {
-          actor,
-          action: 'token.revoked',
-          targetType: 'api_token',
-          targetId: row.id,
-          detail: { name: row.name },
-          ip: clientAddress(req),
+        await db.transaction(async (tx) => {
+          const [row] = await tx
+            .update(apiTokens)
+            .set({ revokedAt: new Date() })
+            .where(and(eq(apiTokens.id, params.id), isNull(apiTokens.revokedAt)))
+            .returning({ id: apiTokens.id, name: apiTokens.name });
+          if (!row) throw new HttpProblem('notFound', `No live token with id ${params.id}.`);
+          await recordAudit(tx, {
+            actor,
+            action: 'token.revoked',
+            targetType: 'api_token',
+            targetId: row.id,
+            detail: { name: row.name },
+            ip: clientAddress(req),
+          });
         });
       },
     }),
