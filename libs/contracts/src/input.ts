@@ -33,7 +33,11 @@ export function digitsSchema(min: number, max: number, what = 'a whole number') 
 }
 
 /** A row id in a path or query string: decimal digits, 1 to the int4 maximum. */
-export const idParamSchema = digitsSchema(1, int4Max, 'the id');
+export const idParamSchema = z
+  .string()
+  .regex(decimalDigits, 'Write the id in plain decimal digits (0-9)')
+  .transform(Number)
+  .pipe(recordIdSchema);
 
 /** Path parameters of the routes that act on one row, `/…/:id`. */
 export const idParamsSchema = z.object({ id: idParamSchema });
