@@ -35,6 +35,7 @@ beforeAll(async () => {
       secretHash: hash,
       scope: kind === 'revoked' ? 'read-write' : kind,
       revokedAt: kind === 'revoked' ? new Date() : null,
+      createdById: people.admin.id, // a token acts for its creator, here an admin holding every permission
     });
     tokens[kind] = token;
   }

@@ -23,10 +23,13 @@ let rootId: number;
 
 beforeAll(async () => {
   server = await startTestServer({ worker: false });
+  const people = await createPeople(server.db);
   const secret = newApiTokenSecret();
-  await server.db.insert(apiTokens).values({ name: 'volume', prefix: secret.prefix, secretHash: secret.hash, scope: 'read' });
+  await server.db
+    .insert(apiTokens)
+    .values({ name: 'volume', prefix: secret.prefix, secretHash: secret.hash, scope: 'read', createdById: people.admin.id });
   token = secret.token;
-  planner = await signIn(server.url, (await createPeople(server.db)).planner.email);
+  planner = await signIn(server.url, people.planner.email);
   const root = await server.pool.query<{ id: number }>(
     `insert into series (key, name, kind, level, unit, time_zone) values ('vol-root', 'Volume system', 'load', 'system', 'MW', 'America/Chicago') returning id`,
   );

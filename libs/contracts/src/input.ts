@@ -24,12 +24,7 @@ export function digitsSchema(min: number, max: number, what = 'a whole number') 
     .string()
     .regex(decimalDigits, `Write ${what} in plain decimal digits (0-9)`)
     .transform(Number)
-    .pipe(
-      z
-        .number()
-        .min(min, `Use ${min} or more`)
-        .max(max, `Use ${max} or less`),
-    );
+    .pipe(z.number().min(min, `Use ${min} or more`).max(max, `Use ${max} or less`));
 }
 
 /** A row id in a path or query string: decimal digits, 1 to the int4 maximum. */

@@ -24,7 +24,11 @@ export const problemTypes = {
   conflict: { type: '/problems/conflict', title: 'Conflicts with the current state', status: 409 },
   tooManyAttempts: { type: '/problems/too-many-attempts', title: 'Too many attempts', status: 429 },
   payloadTooLarge: { type: '/problems/payload-too-large', title: 'The request is too large', status: 413 },
-  unsupportedMediaType: { type: '/problems/unsupported-media-type', title: 'The request body is in a form the server does not read', status: 415 },
+  unsupportedMediaType: {
+    type: '/problems/unsupported-media-type',
+    title: 'The request body is in a form the server does not read',
+    status: 415,
+  },
   unavailable: { type: '/problems/unavailable', title: 'A service the request needs is unavailable', status: 503 },
   internal: { type: '/problems/internal', title: 'Something went wrong on our side', status: 500 },
 } as const;

@@ -158,10 +158,11 @@ export const pushedReadingSchema = z.object({
    * The instant as the series' timestamps mark it (start or end of the interval), ISO 8601 with a
    * UTC offset or Z; local times without an offset are ambiguous and refused.
    */
-  ts: z.iso.datetime({
-    offset: true,
-    error: 'Give the time as ISO 8601 with an offset, e.g. 2026-01-15T14:00:00-06:00 or 2026-01-15T20:00:00Z',
-  })
+  ts: z.iso
+    .datetime({
+      offset: true,
+      error: 'Give the time as ISO 8601 with an offset, e.g. 2026-01-15T14:00:00-06:00 or 2026-01-15T20:00:00Z',
+    })
     .refine(isWithinYearRange, 'Give a time from the years 1900 to 2200'),
   value: z.number({ error: 'Give the value as a number' }).refine(Number.isFinite, 'Give a finite number'),
 });

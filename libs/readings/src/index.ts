@@ -5,3 +5,4 @@ export * from './history-service';
 export * from './import-service';
 export * from './push-readings';
 export * from './temperature-forecast-issues';
+export * from './green-button/read-green-button-off-thread';

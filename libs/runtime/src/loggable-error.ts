@@ -22,7 +22,10 @@ export function loggableError(error: unknown): Record<string, unknown> {
     ...(database.column && { column: database.column }),
     ...(database.routine && { routine: database.routine }),
     ...(cause instanceof Error && { cause: cause.message.split('\nparams:')[0] }),
-    stack: error.stack?.split('\n').filter((line) => line.trimStart().startsWith('at ')).join('\n'),
+    stack: error.stack
+      ?.split('\n')
+      .filter((line) => line.trimStart().startsWith('at '))
+      .join('\n'),
   };
 }
 

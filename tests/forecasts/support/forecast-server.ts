@@ -27,7 +27,9 @@ export async function startForecastServer(): Promise<ForecastTestContext> {
   const rows = await server.db.select({ id: series.id, key: series.key }).from(series);
   const ids = new Map(rows.map((row) => [row.key, row.id]));
   const { token, prefix, hash } = newApiTokenSecret();
-  await server.db.insert(apiTokens).values({ name: 'dispatch tool', prefix, secretHash: hash, scope: 'read' });
+  await server.db
+    .insert(apiTokens)
+    .values({ name: 'dispatch tool', prefix, secretHash: hash, scope: 'read', createdById: people.admin.id });
   return {
     server,
     seriesId: (key) => {

@@ -11,11 +11,17 @@ export function authorize(access: Access, actor: Actor): void {
     throw new HttpProblem('unauthenticated', actor.reason ?? 'Sign in, or send a valid API token, to use this.');
   if (actor.kind === 'user') {
     if (!roleHas(actor.role, access))
-      throw new HttpProblem('forbidden', `The ${actor.role} role does not have the "${access}" permission. Ask an administrator if you need it.`);
+      throw new HttpProblem(
+        'forbidden',
+        `The ${actor.role} role does not have the "${access}" permission. Ask an administrator if you need it.`,
+      );
     return;
   }
   if (!scopeHas(actor.scope, access))
-    throw new HttpProblem('forbidden', `A ${actor.scope} token does not have the "${access}" permission. Ask an administrator if you need it.`);
+    throw new HttpProblem(
+      'forbidden',
+      `A ${actor.scope} token does not have the "${access}" permission. Ask an administrator if you need it.`,
+    );
   // A token acts for the person who created it, with at most that person's current rights.
   if (!roleHas(actor.creator.role, access))
     throw new HttpProblem(

@@ -65,7 +65,11 @@ export function createGatekeeper({ db, secret, secureCookies }: GatekeeperOption
 
   async function identifySession(token: string, res: Response): Promise<Actor> {
     const claims = await verifySessionToken(secret, token);
-    const ended: Actor = { kind: 'anonymous', reason: 'Your session has ended. Sign in again.', refused: { credential: 'session', cause: 'ended' } };
+    const ended: Actor = {
+      kind: 'anonymous',
+      reason: 'Your session has ended. Sign in again.',
+      refused: { credential: 'session', cause: 'ended' },
+    };
     if (!claims) return ended;
     const [row] = await db
       .select({ userId: users.id, email: users.email, displayName: users.displayName, role: users.role, lastSeenAt: sessions.lastSeenAt })

@@ -14,7 +14,8 @@ import {
   forecastVersionDetailSchema,
   forecastVersionPageSchema,
   forecastVersionsQuerySchema,
-  idParamSchema, idParamsSchema,
+  idParamSchema,
+  idParamsSchema,
 } from '@loadwright/contracts';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';

@@ -44,7 +44,8 @@ const tag = 'Uploads';
 const idParams = idParamsSchema;
 
 /** Messages of the multipart reader (busboy) when the body itself is broken, not the server. */
-const malformedMultipart = /^(Unexpected end of (form|multipart data)|Malformed part header|Multipart: Boundary not found|Malformed urlencoded form)/i;
+const malformedMultipart =
+  /^(Unexpected end of (form|multipart data)|Malformed part header|Multipart: Boundary not found|Malformed urlencoded form)/i;
 
 /** Default folder for files awaiting import (API and worker share the machine's temp folder). */
 export const defaultUploadFolder = join(tmpdir(), 'loadwright-uploads');
@@ -182,7 +183,11 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
           // The same bytes arrived at the same moment from elsewhere: answer as a repeat.
           await rm(file.path, { force: true });
           const earlierId = (await uploadWithContent(db, file.sha256))!;
-          return { ...(await detail(earlierId)), duplicateOf: earlierId, message: `Already uploaded as upload ${earlierId}; nothing was added.` };
+          return {
+            ...(await detail(earlierId)),
+            duplicateOf: earlierId,
+            message: `Already uploaded as upload ${earlierId}; nothing was added.`,
+          };
         }
         res.status(201);
         return { ...(await detail(id)), duplicateOf: null, message: sniffed.ok ? null : sniffed.message };

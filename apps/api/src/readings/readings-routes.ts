@@ -2,8 +2,7 @@
  * The routes under /api/series/:series/…: the history the series page charts, the push API for
  * actuals from other systems, and Green Button file import. `:series` is the series' id or its key.
  */
-import express from 'express';
-import type { Request, Response } from 'express';
+import type { Request } from 'express';
 import {
   greenButtonImportResultSchema,
   greenButtonMediaTypes,
@@ -21,39 +20,32 @@ import { HttpProblem } from '@loadwright/problems';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
 import { findSeriesByRef } from '@loadwright/series';
 import { greenButtonReadings } from '@loadwright/readings';
-import { GreenButtonFormatError, greenButtonUnits, parseGreenButton } from '@loadwright/readings';
+import { GreenButtonFormatError, GreenButtonTooLargeError, greenButtonUnits, readGreenButtonOffThread } from '@loadwright/readings';
 import { readingHistory } from '@loadwright/readings';
 import { importBatch, sha256Hex } from '@loadwright/readings';
 import { pushedIntervalReadings } from '@loadwright/readings';
 
 const seriesParams = z.object({ series: z.string().trim().min(1).max(64) });
 
-/** The XML body parser, run only inside the Green Button route after access is checked. */
-const readXmlBody = express.text({ type: [...greenButtonMediaTypes], limit: maxGreenButtonBytes });
-
-/** Reads the request body as XML text; 413 above the size limit, 400 when it is not XML. */
-async function xmlBody(req: Request, res: Response): Promise<string> {
-  await new Promise<void>((resolve, reject) =>
-    readXmlBody(req, res, (error?: unknown) => {
-      if ((error as { type?: string } | undefined)?.type === 'entity.too.large') {
-        reject(
-          new HttpProblem(
-            'payloadTooLarge',
-            `Green Button files of up to ${maxGreenButtonBytes / 1024 / 1024} MB are accepted; split the download by date range.`,
-          ),
-        );
-      } else if (error) reject(error);
-      else resolve();
-    }),
-  );
-  if (typeof req.body !== 'string' || req.body.trim() === '') {
+/**
+ * Checks the request carries an XML body the reading thread can take: one of the Green Button media
+ * types, UTF-8 (the default of XML), not compressed.
+ */
+function assertXmlBody(req: Request): void {
+  const type = (req.headers['content-type'] ?? '').split(';')[0]!.trim().toLowerCase();
+  if (!(greenButtonMediaTypes as readonly string[]).includes(type)) {
     throw new HttpProblem(
       'invalidInput',
       `Send the Green Button XML file as the request body with Content-Type ${greenButtonMediaTypes.slice(0, 2).join(' or ')}.`,
       [{ pointer: '', detail: 'Expected an XML body' }],
     );
   }
-  return req.body;
+  const charset = /;\s*charset\s*=\s*"?([^";\s]+)/i.exec(req.headers['content-type'] ?? '')?.[1]?.toLowerCase();
+  if (charset && charset !== 'utf-8' && charset !== 'utf8')
+    throw new HttpProblem('unsupportedMediaType', 'Send the Green Button file as UTF-8 (charset=utf-8), as utilities publish it.');
+  const encoding = (req.headers['content-encoding'] ?? 'identity').trim().toLowerCase();
+  if (encoding !== 'identity')
+    throw new HttpProblem('unsupportedMediaType', 'Send the Green Button file uncompressed (no Content-Encoding).');
 }
 
 /** Readings routes. */
@@ -119,26 +111,33 @@ export function readingsRoutes({ db }: AppContext): RouteDefinition[] {
       params: seriesParams,
       query: z.object({ fileName: z.string().trim().min(1).max(200).optional() }),
       response: greenButtonImportResultSchema,
-      handler: async ({ params, query, actor, req, res }) => {
+      handler: async ({ params, query, actor, req }) => {
         const series = await liveSeriesOf(params.series);
-        const xml = await xmlBody(req, res);
-        let usage;
+        assertXmlBody(req);
+        let file;
         let readings;
         try {
-          usage = parseGreenButton(xml);
-          readings = greenButtonReadings(usage, series);
+          // Parsed in a worker thread as the bytes arrive: a large file never blocks other requests.
+          file = await readGreenButtonOffThread(req, { maxBytes: maxGreenButtonBytes, hashPrefix: `${series.key}\n` });
+          readings = greenButtonReadings(file.usage, series);
         } catch (error) {
           if (error instanceof GreenButtonFormatError)
             throw new HttpProblem('invalidInput', error.message, [{ pointer: '', detail: error.message }]);
+          if (error instanceof GreenButtonTooLargeError)
+            throw new HttpProblem(
+              'payloadTooLarge',
+              `Green Button files of up to ${maxGreenButtonBytes / 1024 / 1024} MB are accepted; split the download by date range.`,
+            );
           throw error;
         }
+        const { usage } = file;
         const result = await importBatch(db, {
           series,
           readings,
           source: 'green_button',
           fileName: query.fileName ?? `Green Button file for ${series.key}`,
-          contentSha256: sha256Hex(`${series.key}\n${xml}`),
-          byteSize: Buffer.byteLength(xml),
+          contentSha256: file.sha256,
+          byteSize: file.byteSize,
           // Values were converted to the series' unit from the file's interval starts.
           unit: series.unit,
           timestampsMark: 'start',

@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { GreenButtonFormatError, parseGreenButton } from './parse-green-button';
+import { createGreenButtonReader, GreenButtonFormatError, parseGreenButton } from './parse-green-button';
 
 const fixture = (name: string) => readFileSync(resolve(import.meta.dirname, '../../../../fixtures/green-button', name), 'utf8');
 const iso = (seconds: number) => new Date(seconds * 1000).toISOString();
@@ -81,5 +81,35 @@ describe('parseGreenButton', () => {
     expect(() => parseGreenButton(doubled)).toThrow(
       /holds interval readings of 2 meter readings \(Interval usage, Second register\); send one meter reading per file/,
     );
+  });
+});
+
+describe('createGreenButtonReader', () => {
+  it('reads a file fed in chunks of 7 characters exactly as in one piece', () => {
+    const xml = fixture('fifteen-minute-milliwatt-hours.xml');
+    const reader = createGreenButtonReader();
+    for (let i = 0; i < xml.length; i += 7) reader.write(xml.slice(i, i + 7));
+    expect(reader.end()).toEqual(parseGreenButton(xml));
+  });
+
+  it('refuses a DTD at its declaration, before any entity could be declared or expanded', () => {
+    const reader = createGreenButtonReader();
+    expect(() =>
+      reader.write('<?xml version="1.0"?>\n<!DOCTYPE feed [<!ENTITY a "aaaa"><!ENTITY b "&a;&a;&a;">]>\n<feed>&b;</feed>'),
+    ).toThrow(
+      /^The file declares a DTD \(<!DOCTYPE …>\)\. Green Button files have none and Loadwright reads none; remove it \(line 2, column 1\)\.$/,
+    );
+  });
+
+  it('refuses nesting deeper than 32 elements at the element that goes too deep', () => {
+    // Elements 1 to 32 are accepted; the 33rd opening tag is refused.
+    const reader = createGreenButtonReader();
+    expect(() => reader.write('<a>'.repeat(33))).toThrow(/nests elements more than 32 deep/);
+    expect(() => parseGreenButton(`<feed>${'<a>'.repeat(10_000)}${'</a>'.repeat(10_000)}</feed>`)).toThrow(/more than 32 deep/);
+  });
+
+  it('refuses mismatched and unclosed elements as not well-formed, with the position', () => {
+    expect(() => parseGreenButton('<feed><entry></feed>')).toThrow(/^The file is not well-formed XML: .+ \(line 1, column \d+\)\.$/);
+    expect(() => parseGreenButton('<feed>\n<entry>')).toThrow(/ends inside <entry>.+\(line 2, column 8\)/);
   });
 });

@@ -11,7 +11,7 @@
  * Only what Loadwright can store as load is accepted: energy per interval (uom 72, Wh, delta data)
  * or demand (uom 38, W) of electricity, delivered or net; anything else is refused with the reason.
  */
-import { XMLParser, XMLValidator } from 'fast-xml-parser';
+import { createXmlTreeReader, GreenButtonXmlError } from './green-button-xml';
 
 /** A file that is not a usable Green Button feed; the message tells the sender what to fix. */
 export class GreenButtonFormatError extends Error {
@@ -81,18 +81,6 @@ interface Entry {
 /** Elements that may repeat and must always parse as arrays. */
 const repeating = new Set(['entry', 'link', 'IntervalBlock', 'IntervalReading', 'ReadingQuality']);
 
-const parser = new XMLParser({
-  ignoreAttributes: false,
-  attributeNamePrefix: '@_',
-  removeNSPrefix: true,
-  parseTagValue: false,
-  // No entity expansion: nothing in ESPI needs it, and it closes the door on entity bombs.
-  processEntities: false,
-  ignoreDeclaration: true,
-  ignorePiTags: true,
-  isArray: (name) => repeating.has(name),
-});
-
 /**
  * Parses a Green Button feed (or a single ESPI entry) and returns the intervals of its one meter
  * reading, sorted by start.
@@ -100,12 +88,40 @@ const parser = new XMLParser({
  *   holds several meter readings, or uses a unit, accumulation or flow Loadwright cannot store as load.
  */
 export function parseGreenButton(xml: string): GreenButtonUsage {
-  const validation = XMLValidator.validate(xml);
-  if (validation !== true) {
-    const { msg, line, col } = validation.err;
-    throw new GreenButtonFormatError(`The file is not well-formed XML: ${msg} (line ${line}, column ${col}).`);
-  }
-  const document = parser.parse(xml) as Record<string, unknown>;
+  const reader = createGreenButtonReader();
+  reader.write(xml);
+  return reader.end();
+}
+
+/** A Green Button reader fed chunk by chunk as the file arrives (see green-button-xml.ts). */
+export interface GreenButtonReader {
+  write(chunk: string): void;
+  end(): GreenButtonUsage;
+}
+
+/**
+ * Reads a Green Button feed as it streams in; `end` returns what `parseGreenButton` returns.
+ * @throws GreenButtonFormatError from `write` as soon as the XML is refused, and from `end` as parseGreenButton.
+ */
+export function createGreenButtonReader(): GreenButtonReader {
+  const xml = createXmlTreeReader(repeating);
+  const asFormatError = <T>(step: () => T): T => {
+    try {
+      return step();
+    } catch (error) {
+      if (error instanceof GreenButtonXmlError)
+        throw new GreenButtonFormatError(error.malformed ? `The file is not well-formed XML: ${error.message}.` : `${error.message}.`);
+      throw error;
+    }
+  };
+  return {
+    write: (chunk) => asFormatError(() => xml.write(chunk)),
+    end: () => usageOf(asFormatError(() => xml.end())),
+  };
+}
+
+/** The usage of one meter reading in a parsed feed. */
+function usageOf(document: Record<string, unknown>): GreenButtonUsage {
   const entries = atomEntries(document);
   const blocks = entries.filter((e) => e.resources['IntervalBlock']);
   if (blocks.length === 0)
