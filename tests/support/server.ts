@@ -42,7 +42,10 @@ export async function startTestServer(
   options: {
     worker?: boolean;
     logLines?: string[];
-    /** A migrated database of the test's own (default: a fresh clone). */ databaseUrl?: string;
+    /** A migrated database of the test's own (default: a fresh clone). */
+    databaseUrl?: string;
+    /** Send mail here instead of the local catcher, e.g. a port nothing listens on to see mail fail. */
+    smtpUrl?: string;
   } = {},
 ): Promise<TestServer> {
   const databaseUrl = options.databaseUrl ?? (await createTestDatabase());
@@ -65,7 +68,7 @@ export async function startTestServer(
     logger,
     sessionSecret: randomBytes(48),
     secureCookies: false,
-    mailer: createMailer(catcher.smtpUrl, 'Loadwright <loadwright@test.example>'),
+    mailer: createMailer(options.smtpUrl ?? catcher.smtpUrl, 'Loadwright <loadwright@test.example>'),
     publicUrl: 'http://127.0.0.1',
     outboxFolder,
     webDist: resolve(repoRoot, 'dist/web/browser'),

@@ -10,7 +10,7 @@ import {
 } from '@loadwright/contracts';
 import { users } from '@loadwright/db';
 import type { AppContext } from '../app-context';
-import { recordAudit } from '@loadwright/audit';
+import { recordAudit, type Actor } from '@loadwright/audit';
 import { HttpProblem } from '@loadwright/problems';
 import { passwordResetMessage } from '@loadwright/mail';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
@@ -19,7 +19,7 @@ import { issueLink, issuedRecently, linkLifetimes, redeemLink } from './one-time
 import { hashPassword, verifyPassword } from './passwords';
 import { openSession, revokeSession, revokeSessionsOf, sessionInfo } from './session-service';
 import { clearSessionCookies, setSessionCookies } from './session-cookies';
-import { clearFailures, lockedMinutes, recordFailure } from './sign-in-throttle';
+import { clearFailures, describeWait, recordFailure, secondsToWait } from './sign-in-throttle';
 
 const wrongCredentials = 'The e-mail address or password is not right.';
 
@@ -33,6 +33,16 @@ export function authRoutes(context: AppContext): RouteDefinition[] {
       .from(users)
       .where(eq(sql`lower(${users.email})`, email.toLowerCase()));
     return user;
+  };
+
+  /** Issues and mails a reset link to an active account, at most one every two minutes so the form cannot flood an inbox. */
+  const sendResetLink = async (email: string, actor: Actor, ip: string) => {
+    const user = await findUserByEmail(email);
+    if (!user?.active || (await issuedRecently(db, user.id, 'password_reset', 2))) return;
+    const secret = await issueLink(db, user.id, 'password_reset', null);
+    const link = `${context.publicUrl}/set-password?token=${encodeURIComponent(secret)}`;
+    await recordAudit(db, { actor, action: 'user.password_reset_requested', targetType: 'user', targetId: user.id, ip });
+    await context.mailer.send(passwordResetMessage(user.email, user.displayName, link, linkLifetimes.password_reset));
   };
 
   return [
@@ -51,13 +61,11 @@ export function authRoutes(context: AppContext): RouteDefinition[] {
           { kind: 'account' as const, value: email },
           { kind: 'address' as const, value: ip },
         ];
-        const minutes = await lockedMinutes(db, subjects);
-        if (minutes > 0) {
-          await recordAudit(db, { actor, action: 'session.sign_in_locked', detail: { email }, ip });
-          throw new HttpProblem(
-            'tooManyAttempts',
-            `Too many failed sign-ins. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}, or reset your password.`,
-          );
+        const wait = await secondsToWait(db, subjects);
+        if (wait > 0) {
+          await recordAudit(db, { actor, action: 'session.sign_in_delayed', detail: { email, waitSeconds: wait }, ip });
+          res.setHeader('Retry-After', String(wait));
+          throw new HttpProblem('tooManyAttempts', `Too many failed sign-ins. Try again in ${describeWait(wait)}, or reset your password.`);
         }
         const user = await findUserByEmail(email);
         const passwordMatches = await verifyPassword(user?.passwordHash, body.password);
@@ -148,21 +156,13 @@ export function authRoutes(context: AppContext): RouteDefinition[] {
       summary: 'E-mail a password reset link (the answer is the same whether or not the address is known)',
       body: forgotPasswordRequestSchema,
       response: messageResponseSchema,
-      handler: async ({ body, actor, req }) => {
-        const user = await findUserByEmail(body.email);
-        // At most one reset mail per account every two minutes, so the form cannot flood an inbox.
-        if (user?.active && !(await issuedRecently(db, user.id, 'password_reset', 2))) {
-          const secret = await issueLink(db, user.id, 'password_reset', null);
-          const link = `${context.publicUrl}/set-password?token=${encodeURIComponent(secret)}`;
-          await context.mailer.send(passwordResetMessage(user.email, user.displayName, link, linkLifetimes.password_reset));
-          await recordAudit(db, {
-            actor,
-            action: 'user.password_reset_requested',
-            targetType: 'user',
-            targetId: user.id,
-            ip: clientAddress(req),
-          });
-        }
+      handler: ({ body, actor, req }) => {
+        const ip = clientAddress(req);
+        // The answer leaves before any lookup or mail: the same words, status and timing whether the
+        // address is known, unknown, inactive, just sent a link, or the mail server is down.
+        void sendResetLink(body.email, actor, ip).catch((error: unknown) =>
+          context.logger.warn({ err: error }, 'password reset mail could not be sent'),
+        );
         return { message: 'If that address belongs to an active account, a reset link is on its way. It expires in 30 minutes.' };
       },
     }),
@@ -179,8 +179,10 @@ export function authRoutes(context: AppContext): RouteDefinition[] {
         const outcome = await db.transaction(async (tx) => {
           const link = await redeemLink(tx, body.token);
           if (!link) return null;
-          await tx.update(users).set({ passwordHash }).where(eq(users.id, link.userId));
+          const [user] = await tx.update(users).set({ passwordHash }).where(eq(users.id, link.userId)).returning({ email: users.email });
           await revokeSessionsOf(tx, link.userId);
+          // Proving control of the mailbox lifts the account's sign-in wait: the wait message tells people to reset.
+          await clearFailures(tx, { kind: 'account', value: user!.email.toLowerCase() });
           await recordAudit(tx, {
             actor,
             action: link.purpose === 'invite' ? 'user.invite_accepted' : 'user.password_reset',
