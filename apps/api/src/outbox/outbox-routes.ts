@@ -5,9 +5,27 @@ import type { AppContext } from '../app-context';
 import { HttpProblem } from '@loadwright/problems';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
 import { listCaughtMail, readCaughtMail } from '@loadwright/mail';
+import { createRepeatDamper, recordAudit, type Actor, type AuditEntry } from '@loadwright/audit';
+import { clientAddress } from '../auth/client-address';
+
+function actorKey(actor: Actor): string {
+  return actor.kind === 'user' ? `user:${actor.userId}` : actor.kind === 'token' ? `token:${actor.tokenId}` : 'anonymous';
+}
+
+/** The same person opening the same message (or the list) again within this time adds no audit entry: 10 minutes. */
+export const outboxAuditWindowMs = 10 * 60_000;
 
 /** The routes under /api/outbox. */
-export function outboxRoutes({ outboxFolder }: AppContext): RouteDefinition[] {
+export function outboxRoutes({ outboxFolder, db }: AppContext): RouteDefinition[] {
+  // Caught mail holds invite and reset links that let the reader sign in as someone else, so reading it
+  // is audited: who opened which message, and who looked at the list, with repeats folded (a page that
+  // polls the list writes one entry per admin every 10 minutes, not one per poll).
+  const damper = createRepeatDamper({ windowMs: outboxAuditWindowMs });
+  const audit = async (actor: Actor, key: string, entry: Omit<AuditEntry, 'actor'>, ip: string) => {
+    const { record, repeatsSinceLast } = damper.decide(`${actorKey(actor)}:${key}`);
+    if (!record) return;
+    await recordAudit(db, { ...entry, actor, ip, detail: { ...entry.detail, ...(repeatsSinceLast > 0 && { repeatsSinceLast }) } });
+  };
   const folder = () => {
     if (!outboxFolder)
       throw new HttpProblem(
@@ -24,7 +42,11 @@ export function outboxRoutes({ outboxFolder }: AppContext): RouteDefinition[] {
       tag: 'Outbox',
       summary: 'Messages the local mail catcher received, newest first',
       response: z.array(outboxSummarySchema),
-      handler: () => listCaughtMail(folder()).map(({ text: _text, html: _html, ...summary }) => summary),
+      handler: async ({ actor, req }) => {
+        const messages = listCaughtMail(folder()).map(({ text: _text, html: _html, ...summary }) => summary);
+        await audit(actor, 'list', { action: 'outbox.listed', detail: { messages: messages.length } }, clientAddress(req));
+        return messages;
+      },
     }),
     defineRoute({
       method: 'get',
@@ -34,9 +56,15 @@ export function outboxRoutes({ outboxFolder }: AppContext): RouteDefinition[] {
       summary: 'One caught message with its plain-text and HTML parts',
       params: z.object({ id: z.string().regex(/^[\w-]+$/) }),
       response: outboxMessageSchema,
-      handler: ({ params }) => {
+      handler: async ({ params, actor, req }) => {
         const mail = readCaughtMail(folder(), params.id);
         if (!mail) throw new HttpProblem('notFound', `No caught message ${params.id}.`);
+        await audit(
+          actor,
+          `message:${params.id}`,
+          { action: 'outbox.message_read', targetType: 'mail', targetId: params.id, detail: { subject: mail.subject, to: mail.to } },
+          clientAddress(req),
+        );
         return mail;
       },
     }),
