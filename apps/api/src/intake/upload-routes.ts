@@ -162,23 +162,29 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
           ? { status: 'received' as const, storagePath: file.path }
           : { status: 'failed' as const, error: sniffed.message, storagePath: null, finishedAt: new Date() };
         if (!sniffed.ok) await rm(file.path, { force: true });
-        const id = await db.transaction(async (tx) => {
-          const inserted = await tx
-            .insert(uploads)
-            .values({ source: 'csv', fileName, contentSha256: file.sha256, byteSize: file.size, ...who(actor), ...values })
-            .onConflictDoNothing()
-            .returning({ id: uploads.id });
-          if (inserted.length === 0) return null;
-          await recordAudit(tx, {
-            actor,
-            action: 'upload.received',
-            targetType: 'upload',
-            targetId: inserted[0]!.id,
-            detail: { fileName, byteSize: file.size, accepted: sniffed.ok },
-            ip: clientAddress(req),
+        const id = await db
+          .transaction(async (tx) => {
+            const inserted = await tx
+              .insert(uploads)
+              .values({ source: 'csv', fileName, contentSha256: file.sha256, byteSize: file.size, ...who(actor), ...values })
+              .onConflictDoNothing()
+              .returning({ id: uploads.id });
+            if (inserted.length === 0) return null;
+            await recordAudit(tx, {
+              actor,
+              action: 'upload.received',
+              targetType: 'upload',
+              targetId: inserted[0]!.id,
+              detail: { fileName, byteSize: file.size, accepted: sniffed.ok },
+              ip: clientAddress(req),
+            });
+            return inserted[0]!.id;
+          })
+          .catch(async (error: unknown) => {
+            // Nothing was recorded, so the stored file would be orphaned.
+            if (sniffed.ok) await rm(file.path, { force: true });
+            throw error;
           });
-          return inserted[0]!.id;
-        });
         if (id === null) {
           // The same bytes arrived at the same moment from elsewhere: answer as a repeat.
           await rm(file.path, { force: true });
