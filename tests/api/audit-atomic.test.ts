@@ -11,11 +11,12 @@ import { startTestServer, type TestServer } from '../support/server';
 
 let server: TestServer;
 let admin: SignedIn;
+let people: Awaited<ReturnType<typeof createPeople>>;
 const logLines: string[] = [];
 
 beforeAll(async () => {
   server = await startTestServer({ worker: false, logLines });
-  const people = await createPeople(server.db);
+  people = await createPeople(server.db);
   admin = await signIn(server.url, people.admin.email);
 });
 afterAll(() => server.close());
@@ -40,6 +41,7 @@ it('leaves nothing half-written when the audit entry cannot be stored', async ()
   const csv = Buffer.from('ts,value\n2026-01-01T00:00:00Z,1\n2026-01-01T01:00:00Z,2\n');
   const upload = await request(server.url).post('/api/uploads').set(headers).attach('file', csv, 'feeder.csv');
   expect(upload.status).toBe(201);
+  const planner = await signIn(server.url, people.planner.email);
 
   await server.pool.query(`
     create function refuse_audit() returns trigger language plpgsql as $$ begin raise exception 'audit log refuses writes'; end $$;
@@ -56,17 +58,23 @@ it('leaves nothing half-written when the audit entry cannot be stored', async ()
     request(server.url).delete(`/api/holidays/${holiday.body.id}`).set(headers),
     request(server.url).post('/api/uploads').set(headers).attach('file', Buffer.from('ts,value\n2026-02-01T00:00:00Z,3\n'), 'other.csv'),
     request(server.url).delete(`/api/uploads/${upload.body.upload.id}`).set(headers),
+    request(server.url).post('/api/auth/sign-in').send({ email: people.steward.email, password: 'correct horse battery staple' }),
+    request(server.url)
+      .post('/api/auth/sign-out')
+      .set({ Cookie: planner.cookie.join('; '), 'X-CSRF-Token': planner.csrf }),
   ];
   const statuses = [];
   for (const call of calls) statuses.push((await call).status);
-  expect(statuses).toEqual([500, 500, 500, 500, 500, 500, 500]);
+  expect(statuses).toEqual([500, 500, 500, 500, 500, 500, 500, 500, 500]);
   expect(await rowCounts()).toEqual(before);
   const { rows } = await server.pool.query(`select revoked_at from api_tokens where id = $1`, [token.body.token.id]);
   expect(rows).toEqual([{ revoked_at: null }]);
+  // The planner's session was not ended without its entry either.
+  expect((await request(server.url).get('/api/auth/session').set('Cookie', planner.cookie)).status).toBe(200);
 
   // The log names the failure and the statement, never its values.
   const errors = logLines.filter((line) => line.includes('unhandled error'));
-  expect(errors.length).toBe(7);
+  expect(errors.length).toBe(9);
   expect(errors.join('\n')).toContain('audit log refuses writes');
   const { rows: hashes } = await server.pool.query<{ secret_hash: string }>(`select secret_hash from api_tokens`);
   for (const line of logLines) {

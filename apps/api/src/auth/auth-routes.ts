@@ -82,13 +82,16 @@ export function authRoutes(context: AppContext): RouteDefinition[] {
           throw new HttpProblem('unauthenticated', wrongCredentials);
         }
         await clearFailures(db, subjects[0]!);
-        const sessionId = await openSession(db, user.id, ip, req.headers['user-agent']);
-        await setSessionCookies(res, { secret: sessionSecret, secure: secureCookies, sessionId, userId: user.id });
-        await recordAudit(db, {
-          actor: { kind: 'user', userId: user.id, email: user.email, displayName: user.displayName, role: user.role, sessionId },
-          action: 'session.signed_in',
-          ip,
+        const sessionId = await db.transaction(async (tx) => {
+          const opened = await openSession(tx, user.id, ip, req.headers['user-agent']);
+          await recordAudit(tx, {
+            actor: { kind: 'user', userId: user.id, email: user.email, displayName: user.displayName, role: user.role, sessionId: opened },
+            action: 'session.signed_in',
+            ip,
+          });
+          return opened;
         });
+        await setSessionCookies(res, { secret: sessionSecret, secure: secureCookies, sessionId, userId: user.id });
         return sessionInfo(user);
       },
     }),
@@ -100,9 +103,11 @@ export function authRoutes(context: AppContext): RouteDefinition[] {
       summary: 'End the current session at once',
       handler: async ({ actor, req, res }) => {
         if (actor.kind !== 'user') throw new HttpProblem('forbidden', 'Only a signed-in person can sign out.');
-        await revokeSession(db, actor.sessionId);
+        await db.transaction(async (tx) => {
+          await revokeSession(tx, actor.sessionId);
+          await recordAudit(tx, { actor, action: 'session.signed_out', ip: clientAddress(req) });
+        });
         clearSessionCookies(res, secureCookies);
-        await recordAudit(db, { actor, action: 'session.signed_out', ip: clientAddress(req) });
       },
     }),
     defineRoute({

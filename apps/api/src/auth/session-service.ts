@@ -5,7 +5,12 @@ import { sessions, users, type Database } from '@loadwright/db';
 import { sessionMaxAgeSeconds } from './session-token';
 
 /** Creates a session row for a person who just proved who they are. */
-export async function openSession(db: Database, userId: number, ip: string, userAgent: string | undefined): Promise<string> {
+export async function openSession(
+  db: Pick<Database, 'insert' | 'update'>,
+  userId: number,
+  ip: string,
+  userAgent: string | undefined,
+): Promise<string> {
   const [row] = await db
     .insert(sessions)
     .values({

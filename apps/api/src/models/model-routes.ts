@@ -16,6 +16,7 @@ import {
   idParamsSchema,
 } from '@loadwright/contracts';
 import { sql } from 'drizzle-orm';
+import { drizzle } from 'drizzle-orm/node-postgres';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
 import { recordAudit } from '@loadwright/audit';
@@ -158,15 +159,26 @@ export function modelRoutes({ db, pool }: AppContext): RouteDefinition[] {
         const place = await readHolidayPlace(pool);
         if (!place.country)
           throw new HttpProblem('conflict', 'The organisation has no holiday country set; an admin sets it in the settings.');
-        const added = await seedHolidayYears(pool, place, body.years);
-        await recordAudit(db, {
-          actor,
-          action: 'holiday.seeded',
-          targetType: 'holiday',
-          detail: { years: body.years, added, country: place.country, region: place.region },
-          ip: clientAddress(req),
-        });
-        return { added };
+        // The days and their audit entry are committed together.
+        const client = await pool.connect();
+        try {
+          await client.query('begin');
+          const added = await seedHolidayYears(client, place, body.years);
+          await recordAudit(drizzle(client), {
+            actor,
+            action: 'holiday.seeded',
+            targetType: 'holiday',
+            detail: { years: body.years, added, country: place.country, region: place.region },
+            ip: clientAddress(req),
+          });
+          await client.query('commit');
+          return { added };
+        } catch (error) {
+          await client.query('rollback');
+          throw error;
+        } finally {
+          client.release();
+        }
       },
     }),
     defineRoute({
