@@ -17,7 +17,6 @@ import {
   idParamSchema,
   idParamsSchema,
 } from '@loadwright/contracts';
-import { z } from 'zod';
 import type { AppContext } from '../app-context';
 import { clientAddress } from '../auth/client-address';
 import { defineRoute, type RouteDefinition } from '../http/route-table';

@@ -9,7 +9,6 @@ import { join } from 'node:path';
 import { and, eq } from 'drizzle-orm';
 import { drizzle } from 'drizzle-orm/node-postgres';
 import multer from 'multer';
-import { z } from 'zod';
 import {
   confirmUploadRequestSchema,
   uploadDetailSchema,

@@ -17,7 +17,6 @@ import {
 } from '@loadwright/contracts';
 import { sql } from 'drizzle-orm';
 import { drizzle } from 'drizzle-orm/node-postgres';
-import { z } from 'zod';
 import type { AppContext } from '../app-context';
 import { recordAudit } from '@loadwright/audit';
 import { clientAddress } from '../auth/client-address';
@@ -209,14 +208,14 @@ export function modelRoutes({ db, pool }: AppContext): RouteDefinition[] {
 }
 
 /** A holidays row as PostgreSQL returns it. */
-interface HolidayRow {
+type HolidayRow = {
   id: number;
   day: string;
   name: string;
   kind: Holiday['kind'];
   source: Holiday['source'];
   updated_at: Date | string;
-}
+};
 
 /** A holidays row as the contract shapes it. */
 function holidayOut(row: HolidayRow) {

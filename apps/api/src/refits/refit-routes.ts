@@ -8,7 +8,6 @@ import {
   startRefitRequestSchema,
   idParamsSchema,
 } from '@loadwright/contracts';
-import { z } from 'zod';
 import type { AppContext } from '../app-context';
 import { recordAudit } from '@loadwright/audit';
 import { clientAddress } from '../auth/client-address';
