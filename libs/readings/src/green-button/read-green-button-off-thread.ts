@@ -5,7 +5,7 @@
 import { createHash } from 'node:crypto';
 import { Worker } from 'node:worker_threads';
 import { GreenButtonFormatError, type GreenButtonUsage } from './parse-green-button';
-import type { ToGreenButtonThread } from './green-button-thread';
+import type { FromGreenButtonThread, ToGreenButtonThread } from './green-button-thread';
 
 /** The file is larger than allowed; nothing was read past the limit. */
 export class GreenButtonTooLargeError extends Error {
@@ -34,9 +34,16 @@ export async function readGreenButtonOffThread(
   const hash = createHash('sha256').update(hashPrefix);
   let byteSize = 0;
   const answer = new Promise<GreenButtonUsage>((resolve, reject) => {
-    worker.once('message', (message: { kind: 'usage'; usage: GreenButtonUsage } | { kind: 'refused' | 'failed'; message: string }) => {
-      if (message.kind === 'usage') resolve(message.usage);
-      else if (message.kind === 'refused') reject(new GreenButtonFormatError(message.message));
+    worker.once('message', (message: FromGreenButtonThread) => {
+      if (message.kind === 'usage') {
+        const { startSeconds, durationSeconds, value } = message.columns;
+        const intervals = Array.from(startSeconds, (start, i) => ({
+          startSeconds: start,
+          durationSeconds: durationSeconds[i]!,
+          value: value[i]!,
+        }));
+        resolve({ ...message.usage, intervals });
+      } else if (message.kind === 'refused') reject(new GreenButtonFormatError(message.message));
       else reject(new Error(`Green Button reading thread failed: ${message.message}`));
     });
     worker.once('error', reject);
