@@ -38,7 +38,11 @@ export function mountRoutes(routes: RouteDefinition[], gatekeeper: Gatekeeper): 
         authorize(route.access, actor);
         if (writeMethods.has(route.method)) gatekeeper.assertCsrf(req, actor);
       } catch (error) {
-        if (error instanceof HttpProblem) await gatekeeper.recordRefusal(req, actor, error, route);
+        // The refusal is answered even if its audit entry cannot be written (that failure is logged).
+        if (error instanceof HttpProblem)
+          await gatekeeper
+            .recordRefusal(req, actor, error, route)
+            .catch((auditError: unknown) => req.log?.error({ err: auditError }, 'could not audit a refused call'));
         throw error;
       }
       const params = parseInput(route.params, req.params, '/params');
