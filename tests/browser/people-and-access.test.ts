@@ -139,8 +139,17 @@ describe('a forgotten password', () => {
     // Read the link from what the mail catcher received over SMTP, as an admin would on the Outbox page.
     const admin = await signIn(server.url, account('admin').email, password);
     const headers = { cookie: admin.cookie.join('; ') };
-    const caught = (await (await fetch(`${server.url}/api/outbox`, { headers })).json()) as { id: string; to: string[]; subject: string }[];
-    const reset = caught.find((mail) => mail.to.includes(planner.email) && mail.subject === 'Reset your Loadwright password')!;
+    // The answer leaves before the mail is sent (it reads the same for unknown addresses), so wait for the mail.
+    const findReset = async () => {
+      const caught = (await (await fetch(`${server.url}/api/outbox`, { headers })).json()) as {
+        id: string;
+        to: string[];
+        subject: string;
+      }[];
+      return caught.find((mail) => mail.to.includes(planner.email) && mail.subject === 'Reset your Loadwright password');
+    };
+    await expect.poll(findReset, { timeout: 10_000 }).toBeDefined();
+    const reset = (await findReset())!;
     const { text } = (await (await fetch(`${server.url}/api/outbox/${reset.id}`, { headers })).json()) as { text: string };
     const link = new URL(text.match(/https?:\/\/\S+/)![0]);
     await page.goto(`${server.url}${link.pathname}${link.search}`, { waitUntil: 'networkidle' });
