@@ -50,7 +50,10 @@ beforeAll(async () => {
   viewer = await signIn(server.url, people.viewer.email);
   for (const scope of ['read-write', 'read'] as const) {
     const { token, prefix, hash } = newApiTokenSecret();
-    await server.db.insert(apiTokens).values({ name: `weather feed ${scope}`, prefix, secretHash: hash, scope });
+    // A token acts for its creator (an admin here, who holds every permission).
+    await server.db
+      .insert(apiTokens)
+      .values({ name: `weather feed ${scope}`, prefix, secretHash: hash, scope, createdById: people.admin.id });
     if (scope === 'read') readToken = token;
     else writeToken = token;
   }

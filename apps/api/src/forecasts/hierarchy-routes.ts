@@ -8,14 +8,14 @@ import {
   hierarchyCoherenceSchema,
   reconcileRequestSchema,
   reconciliationResultSchema,
+  idParamsSchema,
 } from '@loadwright/contracts';
 import { assumedTemperatures, hierarchyCoherence, reconcileHierarchy } from '@loadwright/forecasts';
-import { z } from 'zod';
 import type { AppContext } from '../app-context';
 import { clientAddress } from '../auth/client-address';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
 
-const idParams = z.object({ id: z.coerce.number().int().positive() });
+const idParams = idParamsSchema;
 const tag = 'Forecasts';
 
 /** The routes of hierarchy coherence and reconciliation. */
