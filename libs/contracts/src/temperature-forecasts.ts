@@ -13,6 +13,7 @@
  * converted once to the station's own unit when stored.
  */
 import { z } from 'zod';
+import { instantSchema } from './input';
 
 /** Most hours one issue may carry: 16 days ahead. */
 export const maxTemperatureForecastHours = 384;
@@ -21,11 +22,11 @@ export const maxTemperatureForecastHours = 384;
 export const plausibleTemperatureC = { min: -70, max: 60 } as const;
 
 /** One valid hour of an issue. */
-export const temperatureForecastHourSchema = z.object({ ts: z.iso.datetime(), value: z.number() });
+export const temperatureForecastHourSchema = z.object({ ts: instantSchema(), value: z.number() });
 
 /** POST /api/series/:series/temperature-forecasts: one issue, as the weather provider sent it. */
 export const pushTemperatureForecastSchema = z.object({
-  issuedAt: z.iso.datetime(),
+  issuedAt: instantSchema(),
   unit: z.enum(['degC', 'degF']),
   hours: z
     .array(temperatureForecastHourSchema)
