@@ -114,7 +114,8 @@ export function forecastRoutes({ db }: AppContext): RouteDefinition[] {
       summary: 'Approve several drafts in one transaction, all or none; stale versions are listed in the conflict',
       body: bulkApprovalRequestSchema,
       response: approvalResultSchema,
-      handler: ({ body, actor, req }) => approveVersions(db, body.versionIds, { actor, ip: clientAddress(req) }),
+      handler: ({ body, actor, req }) =>
+        approveVersions(db, body.versionIds, { actor, ip: clientAddress(req) }, { includeStale: body.includeStale }),
     }),
     defineRoute({
       method: 'get',
