@@ -26,6 +26,10 @@ describe('describeRefitError', () => {
     expect(describeRefitError(databaseError('40P01', 'deadlock detected'))).toMatch(/retried/);
   });
 
+  it('keeps the text our own triggers raise', () => {
+    expect(describeRefitError(databaseError('P0001', 'an approved version never changes'))).toBe('an approved version never changes');
+  });
+
   it('keeps our own messages, on one line', () => {
     expect(describeRefitError(new Error('the series has\nno readings'))).toBe('the series has no readings');
   });

@@ -41,7 +41,8 @@ function isDatabaseFault(error: unknown): error is DatabaseFault {
  * and never the database's own text (which names constraints and columns, not what happened).
  */
 export function describeRefitError(error: unknown): string {
-  if (isDatabaseFault(error)) {
+  // P0001 is a RAISE in our own triggers and functions, whose text is written for people.
+  if (isDatabaseFault(error) && error.code !== 'P0001') {
     if (error.code === '23505' && error.constraint === 'forecast_versions_one_draft_key')
       return 'Another refit of this series wrote its draft at the same moment; this attempt was set aside.';
     if (error.code === '40P01' || error.code === '40001')
