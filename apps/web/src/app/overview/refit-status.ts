@@ -17,7 +17,7 @@ import { countsSentence, durationText, finishedPercent, outcomeText } from '../r
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <section class="card" aria-labelledby="refit-status-heading">
-      <h3 id="refit-status-heading"><mat-icon aria-hidden="true">model_training</mat-icon> Refits</h3>
+      <h3 id="refit-status-heading"><mat-icon aria-hidden="true" svgIcon="model_training"></mat-icon> Refits</h3>
       @if (run(); as current) {
         <p class="headline" [class.failed]="current.counts.failed > 0">
           {{ current.state === 'finished' ? 'Last run: ' + outcome(current) : 'Run #' + current.id + ' ' + outcome(current).toLowerCase() }}

@@ -22,7 +22,7 @@ type PeakState =
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <section class="card" aria-labelledby="system-peak-heading">
-      <h3 id="system-peak-heading"><mat-icon aria-hidden="true">trending_up</mat-icon> Next-week system peak</h3>
+      <h3 id="system-peak-heading"><mat-icon aria-hidden="true" svgIcon="trending_up"></mat-icon> Next-week system peak</h3>
       @switch (data().state) {
         @case ('loading') {
           <p class="detail">Reading the system forecast…</p>
