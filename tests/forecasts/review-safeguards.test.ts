@@ -183,3 +183,72 @@ describe('adjustment limits', () => {
     expect(response.status).toBe(201);
   });
 });
+
+describe('the review answer kept between requests', () => {
+  it('answers 304 while nothing changed, and a new review after an adjustment, a reading or an approval', async () => {
+    const seriesId = t.seriesId('fdr-s1');
+    const origin = new Date(Math.floor(Date.now() / hourMs) * hourMs - 2 * hourMs);
+    const draft = await writeDraftVersion(t.server.db, { seriesId, origin });
+    const path = `/api/series/${seriesId}/forecast`;
+    const read = (etag?: string) => {
+      const call = planner.get(path);
+      return etag ? call.set('If-None-Match', etag) : call;
+    };
+
+    const first = await read();
+    expect(first.status).toBe(200);
+    const etag = first.headers['etag'] as string;
+    expect(etag).toMatch(/^"[\w-]+"$/);
+    expect(first.headers['cache-control']).toBe('private, no-cache');
+    expect((await read(etag)).status).toBe(304);
+
+    // An adjustment changes the draft's numbers: a new review with the adjusted mean (100 + 10 = 110).
+    expect(
+      (
+        await planner.post(`/api/forecast-versions/${draft}/adjustments`, {
+          from: origin.toISOString(),
+          to: new Date(origin.getTime() + hourMs).toISOString(),
+          kind: 'shift',
+          amount: 10,
+          reason: 'Feeder transfer from fdr-s2',
+        })
+      ).status,
+    ).toBe(201);
+    const adjusted = await read(etag);
+    expect(adjusted.status).toBe(200);
+    expect(adjusted.body.draft.points[0].adjusted.mean).toBe(110);
+    const etagAdjusted = adjusted.headers['etag'] as string;
+    expect(etagAdjusted).not.toBe(etag);
+
+    // A reading arriving inside the draft's window changes the actuals.
+    await t.server.pool.query('insert into observations (series_id, ts, value) values ($1, $2, 97.5)', [seriesId, origin]);
+    const withReading = await read(etagAdjusted);
+    expect(withReading.status).toBe(200);
+    expect(withReading.body.actuals.points).toEqual([{ ts: origin.toISOString(), value: 97.5, estimated: false }]);
+    // A corrected reading (same instant, next revision) changes it again.
+    await t.server.pool.query('update observations set value = 98.5, revision = revision + 1 where series_id = $1 and ts = $2', [
+      seriesId,
+      origin,
+    ]);
+    const corrected = await read(withReading.headers['etag'] as string);
+    expect(corrected.status).toBe(200);
+    expect(corrected.body.actuals.points[0].value).toBe(98.5);
+
+    // Approval moves the draft to approved.
+    expect((await planner.post(`/api/forecast-versions/${draft}/approve`)).status).toBe(200);
+    const approved = await read(corrected.headers['etag'] as string);
+    expect(approved.status).toBe(200);
+    expect(approved.body.draft).toBeNull();
+    expect(approved.body.approved.id).toBe(draft);
+    expect((await read(approved.headers['etag'] as string)).status).toBe(304);
+  });
+
+  it('sends the review gzip-compressed to clients that accept it, identical once decoded', async () => {
+    const path = `/api/series/${t.seriesId('fdr-s1')}/forecast`;
+    const plain = await planner.get(path).set('Accept-Encoding', 'identity');
+    const zipped = await planner.get(path).set('Accept-Encoding', 'gzip');
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    expect(zipped.headers['content-encoding']).toBe('gzip');
+    expect(zipped.body).toEqual(plain.body);
+  });
+});

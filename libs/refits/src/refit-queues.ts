@@ -37,7 +37,7 @@ export function refitQueueOptions(env: NodeJS.ProcessEnv = process.env): Omit<Pg
  * its series. A second refit of a series, from another run, waits in the queue until the first ends,
  * so two writes of one series never race for its single draft.
  */
-export const refitSeriesPolicy = 'singleton';
+export const refitSeriesPolicy: PgBoss.QueuePolicy = 'singleton';
 
 /** The singleton key of a series' refit jobs: one active at a time per key. */
 export function refitSeriesKey(seriesId: number): string {
