@@ -170,6 +170,27 @@ describe('adjustment limits', () => {
     expect(await adjustmentCount()).toBe(2);
   });
 
+  it('describes refused fields in sentences, not in the validator’s words', async () => {
+    const response = await adjust(Number.NaN);
+    const typed = await planner.post(`/api/forecast-versions/${draft}/adjustments`, {
+      from: 'soon',
+      kind: 'stretch',
+      amount: 'ten',
+      reason: 'Planned outage',
+    });
+    expect(response.status).toBe(400);
+    expect(typed.status).toBe(400);
+    const details = Object.fromEntries(
+      (typed.body.errors as { pointer: string; detail: string }[]).map((error) => [error.pointer, error.detail]),
+    );
+    expect(details).toEqual({
+      '/from': 'Give a date and time in ISO 8601 with its offset, such as 2026-12-03T06:00:00Z',
+      '/to': 'Give a value: this field is required',
+      '/kind': 'Choose one of "shift", "scale"',
+      '/amount': 'Give a number',
+    });
+  });
+
   it('keeps a series that runs negative by itself adjustable below zero', async () => {
     // A feeder exporting solar at noon: the model says −10 kW.
     const exporting = await writeDraftVersion(t.server.db, { seriesId: t.seriesId('fdr-n4'), origin, mean: () => -10 });

@@ -10,6 +10,7 @@ import cookieParser from 'cookie-parser';
 import express from 'express';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
+import { installValidationMessages } from '@loadwright/contracts';
 import type { AppContext } from './app-context';
 import { apiRoutes } from './api-routes';
 import { createGatekeeper } from './auth/gatekeeper';
@@ -18,6 +19,8 @@ import { mountRoutes } from './http/mount-routes';
 
 /** Builds the application around its context. */
 export function createApp(context: AppContext): express.Express {
+  // Refused input is described in sentences ("Use a number of at least 7"), never in the validator's words.
+  installValidationMessages();
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
