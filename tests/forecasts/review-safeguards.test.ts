@@ -191,6 +191,13 @@ describe('adjustment limits', () => {
     });
   });
 
+  it('names the adjusted version and its series in the audit log, not by bare ids', async () => {
+    const audit = await asBrowser(t.server.url, t.admin).get('/api/audit?action=forecast.adjusted');
+    expect(audit.status).toBe(200);
+    const entry = (audit.body.entries as { targetId: string; targetName: string | null }[]).find((e) => e.targetId === String(draft));
+    expect(entry?.targetName).toBe(`version ${draft} of N3 Bramblecote Lane`);
+  });
+
   it('keeps a series that runs negative by itself adjustable below zero', async () => {
     // A feeder exporting solar at noon: the model says −10 kW.
     const exporting = await writeDraftVersion(t.server.db, { seriesId: t.seriesId('fdr-n4'), origin, mean: () => -10 });

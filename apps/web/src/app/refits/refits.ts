@@ -57,8 +57,6 @@ export class Refits {
   protected readonly view = computed(() => latestValue(this.reading()));
   /** The run listed in detail. */
   protected readonly detail = computed(() => this.view()?.detail ?? null);
-  /** Names of the series seen in the detail, for scope descriptions. */
-  private readonly names = computed(() => new Map((this.detail()?.series ?? []).map((s) => [s.seriesId, s.seriesName])));
   /** How often the page reads now, in words. */
   protected readonly cadence = computed(() => {
     const reading = this.reading();
@@ -79,7 +77,7 @@ export class Refits {
 
   /** What a run covered, in words. */
   protected scopeOf(run: RefitRunSummary): string {
-    return scopeText(run, (id) => this.names().get(id) ?? null);
+    return scopeText(run);
   }
 
   /** Lists one run's series. */
