@@ -16,3 +16,4 @@ export * from './uploads';
 export * from './hierarchy';
 export * from './temperature-forecasts';
 export * from './validation-messages';
+export * from './organisation';

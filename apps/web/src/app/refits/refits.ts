@@ -8,6 +8,7 @@ import type { RefitRunDetail, RefitRunSummary } from '@loadwright/contracts';
 import { type Observable, Subject, map, of, switchMap } from 'rxjs';
 import { SessionStore } from '../core/auth/session-store';
 import { methodName } from '../series-page/chart-data';
+import { OrganisationZone } from '../core/organisation/organisation-zone';
 import { clockText } from './clock-text';
 import { REFIT_POLL_TIMING, latestValue, pollWhileActive } from './live-polling';
 import { RefitNow } from './refit-now';
@@ -36,6 +37,8 @@ interface RefitsView {
 })
 export class Refits {
   private readonly client = inject(RefitsClient);
+  /** Times on this screen are in the organisation's zone, named beside each. */
+  protected readonly zone = inject(OrganisationZone);
   private readonly session = inject(SessionStore);
   private readonly refresh = new Subject<void>();
 
@@ -68,7 +71,7 @@ export class Refits {
       : `Idle: checking every ${REFIT_POLL_TIMING.idleMs / 1000} s`;
   });
 
-  protected readonly clock = clockText;
+  protected readonly clock = (iso: string | null, withSeconds = true) => clockText(iso, this.zone.timeZone(), withSeconds);
   protected readonly duration = durationText;
   protected readonly percent = finishedPercent;
   protected readonly countsText = countsSentence;
