@@ -9,7 +9,9 @@
  *
  * Also measured: revalidation with If-None-Match (the answer is 304 while nothing changed).
  *
- * `npm run bench -- forecast-review`; FORECAST_BENCH_SECONDS (default 8) sets each run's length.
+ * `npm run bench -- forecast-review`; FORECAST_BENCH_SECONDS (default 8) sets each run's length,
+ * FORECAST_BENCH_PROFILE=<dir> has the server write a CPU profile there, FORECAST_BENCH_KEEP=1 keeps the
+ * throwaway database (and prints its read token) for poking at by hand.
  */
 import { spawn } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
