@@ -7,6 +7,9 @@
 import { inject, provideAppInitializer, type EnvironmentProviders } from '@angular/core';
 import { MatIconRegistry } from '@angular/material/icon';
 import { DomSanitizer } from '@angular/platform-browser';
+import boltSvg from '@material-symbols/svg-400/outlined/bolt.svg';
+import cancelSvg from '@material-symbols/svg-400/outlined/cancel.svg';
+import engineeringSvg from '@material-symbols/svg-400/outlined/engineering.svg';
 import accountCircleSvg from '@material-symbols/svg-400/outlined/account_circle.svg';
 import addSvg from '@material-symbols/svg-400/outlined/add.svg';
 import archiveSvg from '@material-symbols/svg-400/outlined/archive.svg';
@@ -69,6 +72,9 @@ import warningSvg from '@material-symbols/svg-400/outlined/warning.svg';
 /** Every icon by its Material Symbols name: the SVG text, inlined by the build (loader `.svg: text`). */
 export const iconSet: Readonly<Record<string, string>> = {
   account_circle: accountCircleSvg,
+  engineering: engineeringSvg,
+  cancel: cancelSvg,
+  bolt: boltSvg,
   add: addSvg,
   archive: archiveSvg,
   arrow_back: arrowBackSvg,
