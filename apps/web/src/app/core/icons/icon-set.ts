@@ -10,6 +10,7 @@ import { DomSanitizer } from '@angular/platform-browser';
 import boltSvg from '@material-symbols/svg-400/outlined/bolt.svg';
 import cancelSvg from '@material-symbols/svg-400/outlined/cancel.svg';
 import engineeringSvg from '@material-symbols/svg-400/outlined/engineering.svg';
+import accountTreeSvg from '@material-symbols/svg-400/outlined/account_tree.svg';
 import accountCircleSvg from '@material-symbols/svg-400/outlined/account_circle.svg';
 import addSvg from '@material-symbols/svg-400/outlined/add.svg';
 import archiveSvg from '@material-symbols/svg-400/outlined/archive.svg';
@@ -72,6 +73,7 @@ import warningSvg from '@material-symbols/svg-400/outlined/warning.svg';
 /** Every icon by its Material Symbols name: the SVG text, inlined by the build (loader `.svg: text`). */
 export const iconSet: Readonly<Record<string, string>> = {
   account_circle: accountCircleSvg,
+  account_tree: accountTreeSvg,
   engineering: engineeringSvg,
   cancel: cancelSvg,
   bolt: boltSvg,
