@@ -73,7 +73,7 @@ export async function workRefitNightly(boss: PgBoss, pool: pg.Pool, logger: Logg
       if (run) logger.info({ runId: run.runId, series: run.seriesIds.length, scheduledFor }, 'nightly refit started');
       else logger.info({ scheduledFor }, 'nightly refit for this time exists already');
     } catch (error) {
-      if (error instanceof RefitScopeError) logger.info({ reason: error.message }, 'nightly refit: nothing to refit');
+      if (error instanceof RefitScopeError) logger.info({ reason: error.message }, 'nightly refit not started');
       else throw error;
     }
   }

@@ -87,7 +87,8 @@ describe('a steward reads the catalogue', () => {
     expect(text).toContain('kW');
     expect(text).toContain('Hourly');
     expect(text).toContain(demoScenario.organisation.timeZone);
-    expect(text).toContain('1 Dec 2026, 00:00 UTC');
+    // The latest reading, 1 Dec 2026 00:00 UTC, in the series' own zone and named: 30 Nov 18:00 CST (UTC−6).
+    expect(text).toContain('Mon Nov 30 18:00 CST');
     await expect.poll(() => rowOf('sys').locator('td.mat-column-quality').textContent(), { timeout: 15_000 }).toMatch(/17,520\s*all clean/);
     expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
     await page.mouse.move(0, 0); // no row hover in the picture

@@ -17,6 +17,7 @@ import { type TestServer, startTestServer } from '../support/server';
 import { blockingViolations, findAccessibilityViolations } from './support/accessibility';
 import { type TestBrowser, launchBrowser } from './support/browser';
 import { signInThroughPage } from './support/sign-in';
+import { zonedClock } from '../../apps/web/src/app/series-page/zoned-time';
 
 const artifacts = resolve(import.meta.dirname, '../.artifacts');
 const password = demoScenario.demoPassword;
@@ -187,7 +188,7 @@ describe('a planner refits a zone and approves a feeder', () => {
     const csv = await readFile((await download.path())!, 'utf8');
     const [header, ...rows] = csv.trim().split(/\r?\n/);
     expect(header).toBe(
-      'series_id,series_key,series_name,level,unit,version_id,approved_at,interval_start,interval_end,time_zone,mean,model_mean,adjusted,lower_80,upper_80,lower_95,upper_95',
+      'series_id,series_key,series_name,level,unit,version_id,approved_at,interval_start,interval_end,time_zone,mean,model_mean,adjusted,lower_80,upper_80,lower_95,upper_95,stale',
     );
     expect(rows).toHaveLength(draft.points.length);
     expect(rows.filter((row) => row.includes(',true,'))).toHaveLength(24);
@@ -242,8 +243,15 @@ describe('a planner refits a zone and approves a feeder', () => {
     await page.getByText('Last run: Finished, all done').waitFor();
     await page.getByRole('heading', { name: 'Next-week system peak' }).waitFor();
     const review = await api<ForecastReview>(`/api/series/${systemId}/forecast`);
-    const peak = review.draft!.dailyPeaks.reduce((best, p) => (p.value > best.value ? p : best));
-    await expect.poll(() => page.locator('lw-system-peak').textContent()).toContain(`${peak.date} at ${peak.localTime}`);
+    // Only the hours still ahead count: a peak that already happened this week is no warning.
+    const intervalMs = review.series.intervalMinutes * 60_000;
+    const ahead = review.draft!.points.filter((p) => Date.parse(p.ts) + intervalMs > Date.now());
+    const peak = ahead.reduce((best, p) => ((p.adjusted?.mean ?? p.mean) > (best.adjusted?.mean ?? best.mean) ? p : best));
+    const when = zonedClock(peak.ts, review.series.timeZone);
+    await expect.poll(() => page.locator('lw-system-peak').textContent()).toContain(when);
+    const pastPeak = review.draft!.dailyPeaks.reduce((best, p) => (p.value > best.value ? p : best));
+    if (Date.parse(pastPeak.ts) + intervalMs <= Date.now())
+      expect(await page.locator('lw-system-peak').textContent()).not.toContain(zonedClock(pastPeak.ts, review.series.timeZone));
     expect(await page.locator('lw-system-peak').textContent()).toMatch(/Draft\s*[\d,]+\.\d MW/);
     await page.screenshot({ path: resolve(artifacts, 'overview-refits.png') });
     await expectAccessible();

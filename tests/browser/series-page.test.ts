@@ -176,4 +176,22 @@ describe('the series page', () => {
     expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
     expect(pageErrors).toEqual([]);
   });
+
+  it('fits the model and diagnostics cards on a 390 px phone', async () => {
+    await page.setViewportSize({ width: 390, height: 844 });
+    try {
+      await page.reload({ waitUntil: 'networkidle' });
+      const diagnostics = page.locator('section.card', { has: page.getByRole('heading', { name: 'Diagnostics' }) });
+      await diagnostics.scrollIntoViewIfNeeded();
+      const box = await diagnostics.boundingBox();
+      expect(box).not.toBeNull();
+      expect(box!.x).toBeGreaterThanOrEqual(0);
+      expect(box!.x + box!.width).toBeLessThanOrEqual(390);
+      // Nothing on the page forces sideways scrolling.
+      expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+      await diagnostics.screenshot({ path: resolve(artifacts, 'diagnostics-phone.png') });
+    } finally {
+      await page.setViewportSize({ width: 1440, height: 900 });
+    }
+  });
 });

@@ -18,6 +18,7 @@ import { blockingViolations, findAccessibilityViolations } from './support/acces
 import { type TestBrowser, launchBrowser } from './support/browser';
 import { watchRequests } from './support/network-guard';
 import { signInThroughPage } from './support/sign-in';
+import { clockText } from '../../apps/web/src/app/refits/clock-text';
 
 const artifacts = resolve(import.meta.dirname, '../.artifacts');
 const password = demoScenario.demoPassword;
@@ -152,7 +153,17 @@ describe('a steward uploads a day of feeder readings', () => {
       .getByRole('row')
       .nth(1);
     expect(await spikeRow.textContent()).toContain(feeder.key);
-    expect(await spikeRow.textContent()).toContain(new Date(firstHour + spikeHour * hour).toISOString().slice(11, 16));
+    // Finding times are in the organisation's zone, named in the column head.
+    expect(await spikeRow.textContent()).toContain(
+      clockText(new Date(firstHour + spikeHour * hour).toISOString(), demoScenario.organisation.timeZone, false),
+    );
+    expect(
+      await page
+        .getByRole('region', { name: /Spikes$/ })
+        .getByRole('columnheader')
+        .nth(1)
+        .textContent(),
+    ).toBe(`Interval start (${demoScenario.organisation.timeZone})`);
     const negativeRow = page
       .getByRole('region', { name: /Negative values$/ })
       .getByRole('row')

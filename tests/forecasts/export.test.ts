@@ -55,7 +55,7 @@ describe('GET /api/exports/forecasts.csv', () => {
     expect(response.headers['content-length']).toBeUndefined();
     const text = response.text;
     expect(text.split('\r\n')[0]).toBe(
-      'series_id,series_key,series_name,level,unit,version_id,approved_at,interval_start,interval_end,time_zone,mean,model_mean,adjusted,lower_80,upper_80,lower_95,upper_95',
+      'series_id,series_key,series_name,level,unit,version_id,approved_at,interval_start,interval_end,time_zone,mean,model_mean,adjusted,lower_80,upper_80,lower_95,upper_95,stale',
     );
     const rows = csvRows(text);
     expect(rows).toHaveLength(48);
@@ -117,7 +117,7 @@ describe('GET /api/exports/forecasts.csv', () => {
     expect(path).toBe(`/api/exports/forecasts.csv?parent=${t.seriesId('zone-central')}&levels=95`);
     const response = await byToken(path);
     expect(response.status).toBe(200);
-    expect(response.text.split('\r\n')[0]).toMatch(/,adjusted,lower_95,upper_95$/);
+    expect(response.text.split('\r\n')[0]).toMatch(/,adjusted,lower_95,upper_95,stale$/);
     const rows = csvRows(response.text);
     expect(new Set(rows.map((row) => row.series_key))).toEqual(new Set(['zone-central', 'fdr-c1']));
     expect(rows).toHaveLength(48 + 24);

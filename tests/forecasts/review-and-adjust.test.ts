@@ -203,6 +203,8 @@ describe('adjustments', () => {
       kind: 'scale',
       amount: 3,
       reason: 'Big customer test run',
+      // Tripling is beyond a plausible change (plausibleAdjustmentShare): the planner confirms it.
+      confirmLargeChange: true,
     });
     expect(peak.status).toBe(201);
     const review = forecastReviewSchema.parse((await planner.get(`/api/series/${t.seriesId('zone-north')}/forecast`)).body);

@@ -5,10 +5,12 @@
  */
 import { existsSync } from 'node:fs';
 import { resolve } from 'node:path';
+import compression from 'compression';
 import cookieParser from 'cookie-parser';
 import express from 'express';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
+import { installValidationMessages } from '@loadwright/contracts';
 import type { AppContext } from './app-context';
 import { apiRoutes } from './api-routes';
 import { createGatekeeper } from './auth/gatekeeper';
@@ -17,6 +19,8 @@ import { mountRoutes } from './http/mount-routes';
 
 /** Builds the application around its context. */
 export function createApp(context: AppContext): express.Express {
+  // Refused input is described in sentences ("Use a number of at least 7"), never in the validator's words.
+  installValidationMessages();
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
@@ -50,6 +54,8 @@ export function createApp(context: AppContext): express.Express {
       customErrorMessage: (_req, res) => `request failed with status ${res.statusCode}`,
     }),
   );
+  // gzip (or deflate) for every compressible answer over 1 kB: scripts, styles, JSON, CSV exports.
+  app.use(compression());
   app.use(cookieParser());
   app.use(express.json({ limit: '2mb' }));
 
@@ -60,7 +66,7 @@ export function createApp(context: AppContext): express.Express {
 
   const { webDist } = context;
   if (webDist && existsSync(resolve(webDist, 'index.html'))) {
-    app.use(express.static(webDist, { index: false, maxAge: '1h', setHeaders: noCacheForHtml }));
+    app.use(express.static(webDist, { index: false, maxAge: '1h', setHeaders: cacheByName }));
     app.get('/{*splat}', (_req, res) => res.sendFile(resolve(webDist, 'index.html'), { headers: { 'Cache-Control': 'no-cache' } }));
     app.locals['webFallback'] = true;
   }
@@ -68,6 +74,15 @@ export function createApp(context: AppContext): express.Express {
   return app;
 }
 
-function noCacheForHtml(res: express.Response, path: string): void {
+/**
+ * The build names scripts, styles and fonts after a hash of their content (`main-3KQ7XW2B.js`): such a
+ * file never changes under its name, so browsers keep it for a year without asking again. HTML is
+ * revalidated every time, so a new build's names are picked up at once; anything else keeps an hour.
+ */
+export const hashedAssetName = /-[A-Z0-9]{8}\.(?:js|css|woff2?)$/;
+
+/** Sets the cache lifetime of a static file by its name (see hashedAssetName). */
+function cacheByName(res: express.Response, path: string): void {
   if (path.endsWith('.html')) res.setHeader('Cache-Control', 'no-cache');
+  else if (hashedAssetName.test(path)) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
 }

@@ -2,3 +2,4 @@
 export * from './actor';
 export * from './audit-log';
 export * from './repeat-damper';
+export * from './target-names';

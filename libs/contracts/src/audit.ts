@@ -10,6 +10,8 @@ export const auditEntrySchema = z.object({
   action: z.string(),
   targetType: z.string().nullable(),
   targetId: z.string().nullable(),
+  /** The target's name as it is now (a person's, a series', a file's); null when it has none or was deleted. */
+  targetName: z.string().nullable(),
   detail: z.record(z.string(), z.unknown()),
   ip: z.string().nullable(),
 });

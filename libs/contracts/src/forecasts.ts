@@ -54,6 +54,33 @@ export function isKnownTimeZone(name: string): boolean {
   }
 }
 
+/**
+ * Share of a version's horizon that may lie in the past before the version counts as stale. A draft
+ * issued on 2 December for 23–29 November has every hour behind it; one issued this morning for the
+ * next 168 hours has none. Past half, most of what the version says is about hours already gone: its
+ * numbers no longer describe the week ahead, so approving or handing it on needs a word of warning.
+ */
+export const staleAfterPassedShare = 0.5;
+
+/** How much of a version's horizon is still ahead. */
+export interface VersionTimeliness {
+  /** Whole hours of the horizon still ahead of `now` (0 when every hour has passed). */
+  hoursAhead: number;
+  /** Hours of the horizon already behind `now`. */
+  hoursPassed: number;
+  /** True when more than `staleAfterPassedShare` of the horizon has passed. */
+  stale: boolean;
+}
+
+/** How much of the version `[origin, origin + horizonHours h)` lies ahead of `now`; see staleAfterPassedShare. */
+export function versionTimeliness(version: { origin: string | Date; horizonHours: number }, now: Date = new Date()): VersionTimeliness {
+  const start = typeof version.origin === 'string' ? Date.parse(version.origin) : version.origin.getTime();
+  const aheadMs = start + version.horizonHours * 3_600_000 - now.getTime();
+  const hoursAhead = Math.max(0, Math.min(version.horizonHours, Math.floor(aheadMs / 3_600_000)));
+  const hoursPassed = version.horizonHours - hoursAhead;
+  return { hoursAhead, hoursPassed, stale: hoursPassed > version.horizonHours * staleAfterPassedShare };
+}
+
 /** The series a forecast belongs to, as the review and export screens need it. */
 export const forecastSeriesSchema = z.object({
   id: z.number().int(),
@@ -264,6 +291,15 @@ export const forecastVersionPageSchema = z.object({
   nextBefore: z.number().int().nullable(),
 });
 
+/**
+ * The largest change of an interval's forecast, as a share of the number before the adjustment, that
+ * an adjustment makes without the planner confirming it. The known events planners adjust for (a
+ * holiday, a planned outage, a plant trip, a big customer switching on or off) move a feeder's or a
+ * zone's load by tens of percent; a change beyond half of the load is far more often a slip (kW typed
+ * as MW, a factor of 11 meant as 1.1, a sign left off) than an event, so it is asked about once.
+ */
+export const plausibleAdjustmentShare = 0.5;
+
 /** POST /api/forecast-versions/:id/adjustments (drafts only). */
 export const createAdjustmentRequestSchema = z
   .object({
@@ -276,6 +312,8 @@ export const createAdjustmentRequestSchema = z
     amount: z.number().finite(),
     /** Why (an outage, a plant trip, a holiday, a big customer…). */
     reason: z.string().trim().min(5, 'Give a reason of at least 5 characters').max(500),
+    /** The planner confirms a change larger than plausibleAdjustmentShare of the forecast (see there). */
+    confirmLargeChange: z.boolean().default(false),
   })
   .superRefine((value, ctx) => {
     if (Date.parse(value.to) <= Date.parse(value.from))
@@ -292,6 +330,8 @@ export const approvalPreviewRequestSchema = z
     seriesIds: z.array(recordIdSchema).min(1).max(10_000).optional(),
     /** A hierarchy node: it and all its descendants. */
     parentId: recordIdSchema.optional(),
+    /** Put stale drafts (most of their hours passed) among the ids to approve; left out by default. */
+    includeStale: z.boolean().default(false),
   })
   .refine((value) => (value.seriesIds === undefined) !== (value.parentId === undefined), {
     message: 'Send either seriesIds or parentId',
@@ -317,6 +357,12 @@ export const approvalPreviewItemSchema = z.object({
       origin: z.iso.datetime(),
       adjustmentCount: z.number().int(),
       peak: horizonPeakSchema.nullable(),
+      /** End of the draft's last interval (exclusive). */
+      end: z.iso.datetime(),
+      /** Whole hours of the draft still ahead at the preview. */
+      hoursAhead: z.number().int(),
+      /** More than half of the draft's hours have passed (see staleAfterPassedShare). */
+      stale: z.boolean(),
     })
     .nullable(),
   approved: z
@@ -340,6 +386,8 @@ export const approvalPreviewSchema = z.object({
   versionIds: z.array(z.number().int()),
   /** Series in scope without a draft (nothing to approve). */
   withoutDraft: z.number().int(),
+  /** Ids of the stale drafts in scope: left out of versionIds unless the request included them. */
+  staleVersionIds: z.array(z.number().int()),
 });
 
 /** POST /api/forecast-approvals: approve these drafts together, all or none. */
@@ -349,6 +397,8 @@ export const bulkApprovalRequestSchema = z.object({
     .min(1)
     .max(10_000)
     .refine((ids) => new Set(ids).size === ids.length, 'List each version once'),
+  /** Approve drafts whose hours have mostly passed too; without it such drafts are refused. */
+  includeStale: z.boolean().default(false),
 });
 
 /** What one approval did. */
@@ -468,6 +518,12 @@ export const exportedSeriesSchema = z.object({
   versionId: z.number().int(),
   issuedAt: z.string(),
   approvedAt: z.string().nullable(),
+  /** End of the version's last interval (exclusive), in the export's time zone. */
+  end: z.string(),
+  /** Whole hours of the version still ahead when the export was made. */
+  hoursAhead: z.number().int(),
+  /** More than half of the version's hours had passed when the export was made: not a forecast of the week ahead. */
+  stale: z.boolean(),
   points: z.array(exportedPointSchema),
 });
 

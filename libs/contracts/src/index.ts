@@ -16,3 +16,5 @@ export * from './refits';
 export * from './uploads';
 export * from './hierarchy';
 export * from './temperature-forecasts';
+export * from './validation-messages';
+export * from './organisation';

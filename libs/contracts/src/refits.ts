@@ -57,6 +57,8 @@ export const refitRunSummarySchema = z.object({
   /** finishedAt − createdAt, or the time so far while the run is going. */
   durationMs: z.number().int().nullable(),
   counts: refitCountsSchema,
+  /** The series the scope names (a group's top series, or the listed ones, at most 20), with their names, so screens never show bare ids. */
+  scopeSeries: z.array(z.object({ id: z.number().int(), name: z.string() })),
 });
 
 /** Milliseconds spent in each phase of one series' refit. */

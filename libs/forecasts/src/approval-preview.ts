@@ -3,31 +3,43 @@
  * draft's and the approved version's peak over their horizons, and the energy difference over the
  * intervals both cover (adjusted numbers where adjusted).
  */
-import type { ApprovalPreview, ApprovalPreviewItem, ApprovalPreviewRequest, ForecastSeries } from '@loadwright/contracts';
+import {
+  versionTimeliness,
+  type ApprovalPreview,
+  type ApprovalPreviewItem,
+  type ApprovalPreviewRequest,
+  type ForecastSeries,
+} from '@loadwright/contracts';
 import type { Database } from '@loadwright/db';
 import { horizonPeak } from './daily-peaks';
 import { adjustmentsOf, currentVersions, pointsOf } from './forecast-repository';
-import { effectiveValues } from './forecast-review';
+import { effectiveValues, versionEnd } from './forecast-review';
 import { resolveSeriesScope } from './series-scope';
 import { energyDifference, percentDifference } from './version-comparison';
 
 /** Series whose versions a preview loads per round trip. */
 const seriesPerBatch = 200;
 
-/** What approving the current drafts of the series in scope would change, series by series. */
-export async function previewApprovals(db: Database, request: ApprovalPreviewRequest): Promise<ApprovalPreview> {
+/**
+ * What approving the current drafts of the series in scope would change, series by series. Stale
+ * drafts (most of their hours passed) are listed but left out of the ids to approve unless the
+ * request includes them: a group approval never slips an old week in beside current ones.
+ */
+export async function previewApprovals(db: Database, request: ApprovalPreviewRequest, now = new Date()): Promise<ApprovalPreview> {
   const inScope = (await resolveSeriesScope(db, request)).series;
   const items: ApprovalPreviewItem[] = [];
   // A batch of series at a time, so a whole-system preview never holds every point at once.
   for (let start = 0; start < inScope.length; start += seriesPerBatch) {
-    items.push(...(await previewBatch(db, inScope.slice(start, start + seriesPerBatch))));
+    items.push(...(await previewBatch(db, inScope.slice(start, start + seriesPerBatch), now)));
   }
-  const versionIds = items.flatMap((item) => (item.draft ? [item.draft.versionId] : []));
-  return { items, versionIds, withoutDraft: items.length - versionIds.length };
+  const drafts = items.flatMap((item) => (item.draft ? [item.draft] : []));
+  const staleVersionIds = drafts.filter((draft) => draft.stale).map((draft) => draft.versionId);
+  const versionIds = drafts.filter((draft) => request.includeStale || !draft.stale).map((draft) => draft.versionId);
+  return { items, versionIds, withoutDraft: items.length - drafts.length, staleVersionIds };
 }
 
 /** Preview items of some series: their current draft and approved versions compared. */
-async function previewBatch(db: Database, inScope: ForecastSeries[]): Promise<ApprovalPreviewItem[]> {
+async function previewBatch(db: Database, inScope: ForecastSeries[], now: Date): Promise<ApprovalPreviewItem[]> {
   const versions = await currentVersions(
     db,
     inScope.map((row) => row.id),
@@ -52,6 +64,8 @@ async function previewBatch(db: Database, inScope: ForecastSeries[]): Promise<Ap
             origin: draft.origin.toISOString(),
             adjustmentCount: draft.adjustmentCount,
             peak: draftPeak,
+            end: versionEnd(draft).toISOString(),
+            ...pick(versionTimeliness(draft, now), 'hoursAhead', 'stale'),
           }
         : null,
       approved: approved
@@ -67,4 +81,9 @@ async function previewBatch(db: Database, inScope: ForecastSeries[]): Promise<Ap
       energy: draft && approved ? energyDifference(draftValues, approvedValues, seriesRow.intervalMinutes) : null,
     };
   });
+}
+
+/** The named fields of an object. */
+function pick<T extends object, K extends keyof T>(value: T, ...keys: K[]): Pick<T, K> {
+  return Object.fromEntries(keys.map((key) => [key, value[key]])) as Pick<T, K>;
 }

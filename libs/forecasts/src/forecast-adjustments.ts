@@ -2,13 +2,15 @@
  * Adding and removing a planner's adjustments of a draft. The layer lives beside the model's points,
  * which never change; see adjustment-layer.ts for how adjusted numbers are computed.
  */
-import type { CreateAdjustmentRequest, ForecastAdjustment } from '@loadwright/contracts';
+import { plausibleAdjustmentShare, type CreateAdjustmentRequest, type ForecastAdjustment } from '@loadwright/contracts';
 import { forecastAdjustments, forecastPoints, forecastVersions, users, type Database } from '@loadwright/db';
 import { and, eq, gte, lt, sql } from 'drizzle-orm';
 import type { Actor } from '@loadwright/audit';
 import { recordAudit } from '@loadwright/audit';
 import { HttpProblem } from '@loadwright/problems';
 import { sqlState, versionNotDraftState } from './database-errors';
+import { adjustPoints } from './adjustment-layer';
+import { adjustmentsOf, pointsOf } from './forecast-repository';
 
 /** Who did it and from where, for the audit log. */
 export interface Caller {
@@ -42,6 +44,54 @@ function asConflict(error: unknown, versionId: number): never {
   throw error;
 }
 
+/** Formats a number of the series' unit for a message: 1,234.5. */
+function amountText(value: number): string {
+  return value.toLocaleString('en-US', { maximumFractionDigits: 1 });
+}
+
+/**
+ * Refuses an adjustment whose result is below zero load where the model's own mean is not (a series
+ * that can run negative, like a feeder exporting solar, keeps its sign), and asks for confirmation of
+ * a change beyond plausibleAdjustmentShare of the numbers before it.
+ */
+async function checkAdjustedLoad(
+  tx: Transaction,
+  versionId: number,
+  request: CreateAdjustmentRequest,
+  from: Date,
+  to: Date,
+): Promise<void> {
+  const points = (await pointsOf(tx, [versionId])).get(versionId)!;
+  const existing = (await adjustmentsOf(tx, [versionId])).get(versionId)!;
+  const proposed = { id: Number.MAX_SAFE_INTEGER, periodStart: from, periodEnd: to, kind: request.kind, amount: request.amount };
+  const before = adjustPoints(points, existing);
+  const after = adjustPoints(points, [...existing, proposed]);
+  let lowest: { value: number; ts: Date } | null = null;
+  let largestShare = 0;
+  for (const [i, point] of points.entries()) {
+    if (!(from <= point.ts && point.ts < to)) continue;
+    const previous = before[i]?.mean ?? point.mean;
+    const next = after[i]!.mean;
+    if (next < 0 && point.mean >= 0 && (lowest === null || next < lowest.value)) lowest = { value: next, ts: point.ts };
+    if (previous !== 0) largestShare = Math.max(largestShare, Math.abs(next - previous) / Math.abs(previous));
+  }
+  if (lowest) {
+    throw new HttpProblem(
+      'invalidInput',
+      `The adjusted forecast would fall to ${amountText(lowest.value)} at ${lowest.ts.toISOString()}, below zero load. Choose a smaller shift or a scale factor.`,
+      [{ pointer: '/amount', detail: `This would take the load below zero (to ${amountText(lowest.value)} at the lowest hour)` }],
+    );
+  }
+  if (largestShare > plausibleAdjustmentShare && !request.confirmLargeChange) {
+    const percent = Math.round(largestShare * 100);
+    throw new HttpProblem(
+      'invalidInput',
+      `This changes the forecast by up to ${percent} % of its value, more than the ${plausibleAdjustmentShare * 100} % a known event usually does. Check the amount and its unit, then confirm the change.`,
+      [{ pointer: '/confirmLargeChange', detail: `Confirm a change of up to ${percent} % of the forecast` }],
+    );
+  }
+}
+
 /** Adds an adjustment to a draft; the period must cover at least one of its intervals. */
 export async function addAdjustment(
   db: Database,
@@ -67,6 +117,7 @@ export async function addAdjustment(
           [{ pointer: '/from', detail: 'The period lies outside the forecast horizon' }],
         );
       }
+      await checkAdjustedLoad(tx, versionId, request, from, to);
       const [row] = await tx
         .insert(forecastAdjustments)
         .values({

@@ -8,7 +8,7 @@
  * version of a series is ever approved. The previous approved version is superseded in the same
  * transaction; the database's immutability triggers keep approved versions as they were approved.
  */
-import type { ApprovalResult } from '@loadwright/contracts';
+import { versionTimeliness, type ApprovalResult } from '@loadwright/contracts';
 import { forecastVersions, type Database } from '@loadwright/db';
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { recordAudit } from '@loadwright/audit';
@@ -25,14 +25,18 @@ function staleReason(versionId: number, state: string | undefined): string {
 
 /**
  * Approves the listed drafts together, all or none. `single` makes a missing version a 404 and a
- * non-draft a plain conflict; otherwise every stale version is listed in the conflict's errors.
+ * non-draft a plain conflict; otherwise every version that cannot be approved is listed in the
+ * conflict's errors. A group approval (not `single`) also refuses drafts whose hours have mostly
+ * passed unless `includeStale` says the planner chose them; the series page approves one draft
+ * after showing its own warning.
  */
 export async function approveVersions(
   db: Database,
   versionIds: number[],
   { actor, ip }: Caller,
-  options: { single?: boolean } = {},
+  options: { single?: boolean; includeStale?: boolean; now?: Date } = {},
 ): Promise<ApprovalResult> {
+  const now = options.now ?? new Date();
   return db.transaction(async (tx) => {
     const candidates = await tx
       .select({ id: forecastVersions.id, seriesId: forecastVersions.seriesId })
@@ -50,7 +54,13 @@ export async function approveVersions(
       );
     }
     const locked = await tx
-      .select({ id: forecastVersions.id, seriesId: forecastVersions.seriesId, state: forecastVersions.state })
+      .select({
+        id: forecastVersions.id,
+        seriesId: forecastVersions.seriesId,
+        state: forecastVersions.state,
+        origin: forecastVersions.origin,
+        horizonHours: forecastVersions.horizonHours,
+      })
       .from(forecastVersions)
       .where(inArray(forecastVersions.id, versionIds))
       .orderBy(asc(forecastVersions.id))
@@ -59,7 +69,15 @@ export async function approveVersions(
 
     const stale = versionIds.flatMap((id, index) => {
       const row = byId.get(id);
-      return row?.state === 'draft' ? [] : [{ pointer: `/versionIds/${index}`, detail: staleReason(id, row?.state) }];
+      if (row?.state !== 'draft') return [{ pointer: `/versionIds/${index}`, detail: staleReason(id, row?.state) }];
+      const timeliness = versionTimeliness(row, now);
+      if (options.single || options.includeStale || !timeliness.stale) return [];
+      return [
+        {
+          pointer: `/versionIds/${index}`,
+          detail: `Forecast version ${id} has ${timeliness.hoursPassed} of its ${row.horizonHours} hours behind it: leave it out, or include stale drafts on purpose.`,
+        },
+      ];
     });
     // A series has at most one draft (a partial unique index), so the drafts left belong to distinct series.
     if (stale.length > 0) {

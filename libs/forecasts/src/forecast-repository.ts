@@ -249,3 +249,39 @@ export async function actualsBetween(db: Reader, seriesId: number, from: Date, t
     return value === null ? [] : [{ ts: row.ts, value, estimated: row.estimated !== null }];
   });
 }
+
+/** Something that runs a named (prepared) statement: a pg pool or client. */
+export interface StatementRunner {
+  query<R extends Record<string, unknown>>(config: { name: string; text: string; values: unknown[] }): Promise<{ rows: R[] }>;
+}
+
+/**
+ * A text that changes whenever the review of a series would: the series row, each current version's
+ * id and state with the count and last id of its adjustments (points never change and adjustments
+ * are only added or removed), and every reading in the window the versions span (revision, quality,
+ * raw and estimated value). One round trip reading a few hundred rows instead of the review's points,
+ * peaks and comparison; a named statement, so PostgreSQL plans it once per connection.
+ */
+export async function reviewFingerprint(db: StatementRunner, seriesId: number): Promise<string | null> {
+  const { rows } = await db.query<{ series: string | null; versions: string | null; actuals: string | null }>({
+    name: 'loadwright-review-fingerprint',
+    text: `
+    with current_versions as (
+      select v.id, v.state, v.origin, v.horizon_hours,
+             (select count(*) || '/' || coalesce(max(a.id), 0) from forecast_adjustments a where a.version_id = v.id) as adjustments
+        from forecast_versions v
+       where v.series_id = $1 and v.state in ('draft', 'approved')
+    ), window_span as (
+      select min(origin) as from_ts, max(origin + horizon_hours * interval '1 hour') as to_ts from current_versions
+    )
+    select (select md5(s::text) from series s where s.id = $1) as series,
+           (select string_agg(id || ':' || state || ':' || adjustments, ',' order by id) from current_versions) as versions,
+           (select md5(coalesce(string_agg(o.revision || ':' || o.quality || ':' || coalesce(o.value::text, '') || ':' || coalesce(o.estimated::text, ''), ',' order by o.ts), ''))
+              from observations o, window_span w
+             where o.series_id = $1 and o.ts >= w.from_ts and o.ts < w.to_ts) as actuals`,
+    values: [seriesId],
+  });
+  const row = rows[0];
+  if (!row?.series) return null;
+  return `${row.series}|${row.versions ?? ''}|${row.actuals ?? ''}`;
+}

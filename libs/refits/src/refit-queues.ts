@@ -31,12 +31,26 @@ export function refitQueueOptions(env: NodeJS.ProcessEnv = process.env): Omit<Pg
   };
 }
 
+/**
+ * One refit of a series at a time: the series queue has pg-boss 10's `singleton` policy, under which
+ * at most one job per singleton key is active (a unique index on active jobs), and every job's key is
+ * its series. A second refit of a series, from another run, waits in the queue until the first ends,
+ * so two writes of one series never race for its single draft.
+ */
+export const refitSeriesPolicy: PgBoss.QueuePolicy = 'singleton';
+
+/** The singleton key of a series' refit jobs: one active at a time per key. */
+export function refitSeriesKey(seriesId: number): string {
+  return `series-${seriesId}`;
+}
+
 /** Creates both refit queues (or brings their settings up to date). */
 export async function createRefitQueues(boss: PgBoss): Promise<void> {
   const options = refitQueueOptions();
   for (const name of [refitSeriesQueue, refitNightlyQueue]) {
-    if (await boss.getQueue(name)) await boss.updateQueue(name, { name, ...options });
-    else await boss.createQueue(name, { name, ...options });
+    const queue = { name, ...options, ...(name === refitSeriesQueue && { policy: refitSeriesPolicy }) };
+    if (await boss.getQueue(name)) await boss.updateQueue(name, queue);
+    else await boss.createQueue(name, queue);
   }
 }
 

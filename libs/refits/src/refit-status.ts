@@ -70,13 +70,26 @@ export async function runDetail(pool: pg.Pool, runId: number): Promise<RefitRunD
   };
 }
 
-/** Adds status counts, state and duration to run rows. */
+/** The series a scope names: a group's top series, or up to 20 listed ones. */
+function scopeIds(scope: RefitScope): number[] {
+  if (scope.kind === 'subtree') return [scope.seriesId];
+  if (scope.kind === 'series') return scope.seriesIds.slice(0, 20);
+  return [];
+}
+
+/** Adds status counts, state, duration and the names of the series the scope names to run rows. */
 async function summarise(pool: pg.Pool, runs: RunRow[]): Promise<RefitRunSummary[]> {
   if (runs.length === 0) return [];
   const { rows } = await pool.query<{ run_id: number; status: string; count: string }>(
     'select run_id, status, count(*) from refit_run_series where run_id = any($1::int[]) group by run_id, status',
     [runs.map((r) => r.id)],
   );
+  const named = [...new Set(runs.flatMap((run) => scopeIds(run.scope)))];
+  const names = new Map<number, string>();
+  if (named.length > 0) {
+    const found = await pool.query<{ id: number; name: string }>('select id, name from series where id = any($1::int[])', [named]);
+    for (const row of found.rows) names.set(row.id, row.name);
+  }
   const now = Date.now();
   return runs.map((run) => {
     const counts = { total: run.series_total, queued: 0, running: 0, done: 0, failed: 0 };
@@ -94,6 +107,7 @@ async function summarise(pool: pg.Pool, runs: RunRow[]): Promise<RefitRunSummary
       finishedAt: run.finished_at?.toISOString() ?? null,
       durationMs: (run.finished_at?.getTime() ?? now) - run.created_at.getTime(),
       counts,
+      scopeSeries: scopeIds(run.scope).flatMap((id) => (names.has(id) ? [{ id, name: names.get(id)! }] : [])),
     };
   });
 }

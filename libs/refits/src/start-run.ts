@@ -1,12 +1,15 @@
 /**
  * Starting a refit run: resolve the scope to active load series, then in one transaction create the
- * run, one queued run-series row per series and one 'refit-series' job per series. A scheduled run is
- * unique per fire time, so a schedule delivered twice starts one run.
+ * run, one queued run-series row per series and one 'refit-series' job per series (keyed by series,
+ * so two runs' jobs of one series run one after the other). A scheduled run is unique per fire time,
+ * so a schedule delivered twice starts one run. A run over every series is refused while another one
+ * is still open (the open one is refitting the same series already); an advisory lock makes the check
+ * and the insert one step, so two clicks cannot both pass it.
  */
 import type { RefitScope } from '@loadwright/contracts';
 import type pg from 'pg';
 import { readHolidayPlace, seedHolidayYears } from './holiday-calendar';
-import { refitSeriesQueue, type JobInserter, type RefitSeriesJob } from './refit-queues';
+import { refitSeriesKey, refitSeriesQueue, type JobInserter, type RefitSeriesJob } from './refit-queues';
 
 /** What to start. */
 export interface StartRunRequest {
@@ -27,7 +30,7 @@ export interface StartedRun {
 export class RefitScopeError extends Error {
   override readonly name = 'RefitScopeError';
   constructor(
-    readonly kind: 'notFound' | 'invalidInput',
+    readonly kind: 'notFound' | 'invalidInput' | 'conflict',
     message: string,
   ) {
     super(message);
@@ -42,6 +45,21 @@ export async function startRefitRun(pool: pg.Pool, insertJobs: JobInserter, requ
   const client = await pool.connect();
   try {
     await client.query('begin');
+    if (request.scope.kind === 'all') {
+      await client.query(`select pg_advisory_xact_lock(hashtext('loadwright.refit-all'))`);
+      const open = await client.query<{ id: number; series_done: number; series_failed: number; series_total: number }>(
+        `select id, series_done, series_failed, series_total from refit_runs
+          where finished_at is null and scope->>'kind' = 'all' order by id desc limit 1`,
+      );
+      const running = open.rows[0];
+      if (running) {
+        await client.query('rollback');
+        throw new RefitScopeError(
+          'conflict',
+          `Refit run ${running.id} over every series is still open (${running.series_done + running.series_failed} of ${running.series_total} series finished); it refits the same series. Wait for it to finish, or refit single series now.`,
+        );
+      }
+    }
     const run = await client.query<{ id: number }>(
       `insert into refit_runs (trigger, requested_by_id, scope, scheduled_for, series_total)
        values ($1, $2, $3, $4, $5)
@@ -54,7 +72,11 @@ export async function startRefitRun(pool: pg.Pool, insertJobs: JobInserter, requ
     }
     const runId = run.rows[0]!.id;
     await client.query('insert into refit_run_series (run_id, series_id) select $1, unnest($2::int[])', [runId, seriesIds]);
-    const jobs = seriesIds.map((seriesId) => ({ name: refitSeriesQueue, data: { runId, seriesId } satisfies RefitSeriesJob }));
+    const jobs = seriesIds.map((seriesId) => ({
+      name: refitSeriesQueue,
+      data: { runId, seriesId } satisfies RefitSeriesJob,
+      singletonKey: refitSeriesKey(seriesId),
+    }));
     await insertJobs(jobs, client);
     await client.query('commit');
     return { runId, seriesIds };

@@ -3,7 +3,10 @@
  * previous draft; approved versions are never touched) and its points, and the run-series row marked
  * done. The run-series row is locked first, so a duplicated or retried job that arrives after the
  * version was written finds it done and writes nothing (the unique key on (refit_run_id, series_id)
- * backs this up).
+ * backs this up). Then the series row is locked (FOR NO KEY UPDATE, as approvals do), so two writes of
+ * one series, whatever let them run at once, take turns and never both insert a draft. Under that lock
+ * a version written by a newer run wins: a late retry of an older run records its series as done
+ * without a version and leaves the newer draft in place.
  */
 import { createHash } from 'node:crypto';
 import type pg from 'pg';
@@ -12,7 +15,10 @@ import { RefitDataError } from './refit-errors';
 import type { RefitInputs } from './series-window';
 
 /** How the write ended. */
-export type WriteResult = { written: true; fitId: number; versionId: number } | { written: false; reason: 'already-done' | 'not-in-run' };
+export type WriteResult =
+  | { written: true; fitId: number; versionId: number }
+  | { written: false; reason: 'already-done' | 'not-in-run' }
+  | { written: false; reason: 'newer-run'; newerRunId: number };
 
 /** Phase times recorded with the run-series row. */
 export interface PhaseTimings {
@@ -51,6 +57,26 @@ export async function writeRefit(
     if (state.rows[0]!.status === 'done') {
       await client.query('rollback');
       return { written: false, reason: 'already-done' };
+    }
+    await client.query('select 1 from series where id = $1 for no key update', [seriesId]);
+    const newer = await client.query<{ run_id: number }>(
+      'select max(refit_run_id) as run_id from forecast_versions where series_id = $1 and refit_run_id > $2',
+      [seriesId, runId],
+    );
+    const newerRunId = newer.rows[0]?.run_id ?? null;
+    if (newerRunId !== null) {
+      await client.query(
+        `update refit_run_series set status = 'done', error = $3, finished_at = now(), duration_ms = $4 where run_id = $1 and series_id = $2`,
+        [
+          runId,
+          seriesId,
+          `Not kept: run ${newerRunId} had already written a newer draft for this series.`,
+          Math.round(performance.now() - startedMs),
+        ],
+      );
+      await countDone(client, runId);
+      await client.query('commit');
+      return { written: false, reason: 'newer-run', newerRunId };
     }
     const fitId = await insertFit(client, inputs, outcome);
     await client.query(
@@ -91,12 +117,7 @@ export async function writeRefit(
         where run_id = $1 and series_id = $2`,
       [runId, seriesId, fitId, JSON.stringify(phaseMs), Math.round(performance.now() - startedMs)],
     );
-    await client.query(
-      `update refit_runs set series_done = series_done + 1,
-              finished_at = case when series_done + 1 + series_failed >= series_total then now() else finished_at end
-        where id = $1`,
-      [runId],
-    );
+    await countDone(client, runId);
     await client.query('commit');
     return { written: true, fitId, versionId };
   } catch (error) {
@@ -105,6 +126,16 @@ export async function writeRefit(
   } finally {
     client.release();
   }
+}
+
+/** Counts one more series done on the run, finishing the run if it was the last. */
+async function countDone(client: pg.PoolClient, runId: number): Promise<void> {
+  await client.query(
+    `update refit_runs set series_done = series_done + 1,
+            finished_at = case when series_done + 1 + series_failed >= series_total then now() else finished_at end
+      where id = $1`,
+    [runId],
+  );
 }
 
 /** Inserts the fit row; returns its id. */

@@ -1,11 +1,10 @@
 /** Reads, inside a page, whether the bundled fonts actually loaded and render. */
 import type { Page } from 'playwright-core';
 
-/** What the page reports about its two bundled fonts. */
+/** What the page reports about its bundled text font (icons are SVG, not a font). */
 export interface FontReport {
-  /** `document.fonts.check` for the text face and the icon face. */
+  /** `document.fonts.check` for the text face. */
   readonly textFontReady: boolean;
-  readonly iconFontReady: boolean;
   /** Families whose @font-face reached status "loaded" (check() alone is true for unknown families). */
   readonly loadedFamilies: string[];
   /** First family in the body's computed font stack. */
@@ -22,7 +21,6 @@ export async function readFonts(page: Page): Promise<FontReport> {
     });
     return {
       textFontReady: document.fonts.check("16px 'Source Sans 3'"),
-      iconFontReady: document.fonts.check("24px 'Material Symbols Outlined'"),
       loadedFamilies: [...new Set(loadedFamilies)],
       bodyFamily: getComputedStyle(document.body).fontFamily.split(',')[0]!.replace(/["']/g, '').trim(),
     };

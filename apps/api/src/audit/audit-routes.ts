@@ -2,6 +2,7 @@
 import { and, desc, eq, gte, like, lt, lte, type SQL } from 'drizzle-orm';
 import { auditPageSchema, auditQuerySchema } from '@loadwright/contracts';
 import { apiTokens, auditLog, users } from '@loadwright/db';
+import { auditTargetNames } from '@loadwright/audit';
 import type { AppContext } from '../app-context';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
 
@@ -31,6 +32,10 @@ export function auditRoutes({ db }: AppContext): RouteDefinition[] {
           .where(and(...filters))
           .orderBy(desc(auditLog.id))
           .limit(query.limit);
+        const targetNames = await auditTargetNames(
+          db,
+          rows.map(({ entry }) => entry),
+        );
         const entries = rows.map(({ entry, userName, tokenName }) => ({
           id: entry.id,
           at: entry.at.toISOString(),
@@ -43,6 +48,7 @@ export function auditRoutes({ db }: AppContext): RouteDefinition[] {
           action: entry.action,
           targetType: entry.targetType,
           targetId: entry.targetId,
+          targetName: targetNames.get(`${entry.targetType}:${entry.targetId}`) ?? null,
           detail: entry.detail,
           ip: entry.ip,
         }));

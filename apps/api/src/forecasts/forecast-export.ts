@@ -2,7 +2,9 @@
  * Hands approved forecasts on as CSV or JSON, streamed a batch of versions at a time so that a
  * whole-system export never sits in memory as one string. Every row states its interval
  * ([interval_start, interval_end), local time with offset) and time zone; the mean is the adjusted
- * mean where a planner adjusted it.
+ * mean where a planner adjusted it. A version most of whose hours had passed at the export is marked
+ * stale (CSV column `stale`, JSON `stale` and `hoursAhead`), so an old week is never handed on
+ * beside current ones without a word.
  *
  * The versions to export are chosen once, up front; the batches read later still match that choice
  * even if an approval supersedes one of them meanwhile, because a version's points and adjustments
@@ -10,6 +12,7 @@
  */
 import { once } from 'node:events';
 import {
+  versionTimeliness,
   exportIntervalConvention,
   type ExportedPoint,
   type ExportedSeries,
@@ -34,6 +37,8 @@ interface ExportEntry {
   versionId: number;
   issuedAt: Date;
   approvedAt: Date | null;
+  origin: Date;
+  horizonHours: number;
 }
 
 /** What is exported: the approved versions in scope and the series in scope without one. */
@@ -61,11 +66,12 @@ async function planExport(db: Database, query: ForecastExportQuery): Promise<Exp
         seriesId: forecastVersions.seriesId,
         issuedAt: forecastVersions.issuedAt,
         approvedAt: forecastVersions.approvedAt,
+        origin: forecastVersions.origin,
+        horizonHours: forecastVersions.horizonHours,
       })
       .from(forecastVersions)
       .where(and(eq(forecastVersions.state, 'approved'), inArray(forecastVersions.seriesId, ids.slice(start, start + 5_000))));
-    for (const row of rows)
-      entries.push({ series: bySeries.get(row.seriesId)!, versionId: row.versionId, issuedAt: row.issuedAt, approvedAt: row.approvedAt });
+    for (const row of rows) entries.push({ series: bySeries.get(row.seriesId)!, ...row });
   }
   entries.sort((a, b) => a.series.id - b.series.id);
   const exported = new Set(entries.map((entry) => entry.series.id));
@@ -89,6 +95,7 @@ function instantFormatter(timeZone: string): (ms: number) => string {
 /** Yields each approved version's points as exported, one batch of versions per database round trip. */
 async function* exportedSeries(db: Database, plan: ExportPlan, query: ForecastExportQuery): AsyncGenerator<ExportedSeries> {
   const format = instantFormatter(query.tz);
+  const now = new Date();
   for (let start = 0; start < plan.entries.length; start += versionsPerBatch) {
     const batch = plan.entries.slice(start, start + versionsPerBatch);
     const ids = batch.map((entry) => entry.versionId);
@@ -107,6 +114,8 @@ async function* exportedSeries(db: Database, plan: ExportPlan, query: ForecastEx
         versionId: entry.versionId,
         issuedAt: format(entry.issuedAt.getTime()),
         approvedAt: entry.approvedAt ? format(entry.approvedAt.getTime()) : null,
+        end: format(entry.origin.getTime() + entry.horizonHours * 3_600_000),
+        ...timelinessOf(entry, now),
         points: modelPoints.map((point, i): ExportedPoint => {
           const band = adjusted[i] ?? point;
           const ts = point.ts.getTime();
@@ -123,6 +132,12 @@ async function* exportedSeries(db: Database, plan: ExportPlan, query: ForecastEx
       };
     }
   }
+}
+
+/** Hours still ahead and staleness of an exported version at `now`. */
+function timelinessOf(entry: ExportEntry, now: Date): { hoursAhead: number; stale: boolean } {
+  const { hoursAhead, stale } = versionTimeliness(entry, now);
+  return { hoursAhead, stale };
 }
 
 /** Writes a chunk, waiting while the client is slower than we are; false once the client has gone. */
@@ -168,6 +183,7 @@ function csvHeader(levels: readonly number[]): string {
     'model_mean',
     'adjusted',
     ...bounds,
+    'stale',
   ]);
 }
 
@@ -195,6 +211,7 @@ async function writeCsv(db: Database, res: Response, query: ForecastExportQuery,
       String(entry.versionId),
       textCell(entry.approvedAt),
     ];
+    const stale = entry.stale ? 'true' : 'false';
     let chunk = '';
     for (const point of entry.points) {
       const bounds = query.levels.flatMap((level) =>
@@ -209,6 +226,7 @@ async function writeCsv(db: Database, res: Response, query: ForecastExportQuery,
         numberCell(point.modelMean),
         point.adjusted ? 'true' : 'false',
         ...bounds,
+        stale,
       ]);
     }
     if (!(await send(res, chunk))) return;

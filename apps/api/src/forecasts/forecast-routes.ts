@@ -24,14 +24,16 @@ import { addAdjustment, removeAdjustment } from '@loadwright/forecasts';
 import { previewApprovals } from '@loadwright/forecasts';
 import { approveVersions } from '@loadwright/forecasts';
 import { streamForecastCsv, streamForecastJson } from './forecast-export';
-import { reviewForecast, versionDetail, versionPage } from '@loadwright/forecasts';
+import { createReviewResponder } from './review-response';
+import { versionDetail, versionPage } from '@loadwright/forecasts';
 
 const idParams = idParamsSchema;
 const adjustmentParams = idParams.extend({ adjustmentId: idParamSchema });
 const tag = 'Forecasts';
 
 /** The routes of forecast review, approval and export. */
-export function forecastRoutes({ db }: AppContext): RouteDefinition[] {
+export function forecastRoutes({ db, pool }: AppContext): RouteDefinition[] {
+  const sendReview = createReviewResponder(db, pool);
   return [
     defineRoute({
       method: 'get',
@@ -42,7 +44,8 @@ export function forecastRoutes({ db }: AppContext): RouteDefinition[] {
         'Review a series: current draft and approved version with adjusted numbers and local daily peaks, actuals so far, and their differences',
       params: idParams,
       response: forecastReviewSchema,
-      handler: ({ params }) => reviewForecast(db, params.id),
+      // Sent from a store of computed reviews with an ETag (304 when unchanged); see review-response.ts.
+      handler: ({ params, req, res }) => sendReview(params.id, req, res),
     }),
     defineRoute({
       method: 'get',
@@ -115,7 +118,8 @@ export function forecastRoutes({ db }: AppContext): RouteDefinition[] {
       summary: 'Approve several drafts in one transaction, all or none; stale versions are listed in the conflict',
       body: bulkApprovalRequestSchema,
       response: approvalResultSchema,
-      handler: ({ body, actor, req }) => approveVersions(db, body.versionIds, { actor, ip: clientAddress(req) }),
+      handler: ({ body, actor, req }) =>
+        approveVersions(db, body.versionIds, { actor, ip: clientAddress(req) }, { includeStale: body.includeStale }),
     }),
     defineRoute({
       method: 'get',

@@ -6,15 +6,15 @@ import {
   provideBrowserGlobalErrorListeners,
   provideZonelessChangeDetection,
 } from '@angular/core';
-import { MAT_ICON_DEFAULT_OPTIONS, MatIconDefaultOptions } from '@angular/material/icon';
 import { TitleStrategy, provideRouter, withComponentInputBinding } from '@angular/router';
 import { routes } from './app.routes';
 import { SessionStore } from './core/auth/session-store';
 import { sessionExpiryInterceptor } from './core/auth/session-expiry-interceptor';
 import { problemInterceptor } from './core/problems/problem-interceptor';
 import { ProductTitleStrategy } from './core/product-title-strategy';
+import { provideIcons } from './core/icons/icon-set';
 
-/** Application-wide providers: zoneless change detection, the router, HTTP with CSRF and problems, the session, the icon font. */
+/** Application-wide providers: zoneless change detection, the router, HTTP with CSRF and problems, the session, the icons. */
 export const appConfig: ApplicationConfig = {
   providers: [
     provideBrowserGlobalErrorListeners(),
@@ -30,7 +30,7 @@ export const appConfig: ApplicationConfig = {
     // Know who is signed in before the first route's guards run.
     provideAppInitializer(() => inject(SessionStore).restore()),
     { provide: TitleStrategy, useClass: ProductTitleStrategy },
-    // Icons come from the bundled Material Symbols font, never from a network font service.
-    { provide: MAT_ICON_DEFAULT_OPTIONS, useValue: { fontSet: 'material-symbols-outlined' } satisfies MatIconDefaultOptions },
+    // Icons are bundled SVGs of the few Material Symbols the app shows, never a font or a network service.
+    provideIcons(),
   ],
 };

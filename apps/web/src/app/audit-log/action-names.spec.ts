@@ -33,10 +33,13 @@ describe('detailSummary', () => {
 });
 
 describe('targetName', () => {
-  it('names known and later target kinds with their id', () => {
-    expect(targetName('user', '5')).toBe('Person #5');
-    expect(targetName('api_token', '1')).toBe('API token #1');
-    expect(targetName('forecast_version', '12')).toBe('Forecast version #12');
-    expect(targetName(null, null)).toBeNull();
+  it('names targets by their names, never "Person #5"', () => {
+    expect(targetName({ targetType: 'user', targetId: '5', targetName: 'Dana Reyes' })).toBe('Person: Dana Reyes');
+    expect(targetName({ targetType: 'api_token', targetId: '1', targetName: 'dispatch tool' })).toBe('API token: dispatch tool');
+    expect(targetName({ targetType: 'forecast_version', targetId: '12', targetName: 'version 12 of North zone' })).toBe(
+      'Forecast: version 12 of North zone',
+    );
+    expect(targetName({ targetType: 'user', targetId: '8', targetName: null })).toBe('Person 8 (no longer listed)');
+    expect(targetName({ targetType: null, targetId: null, targetName: null })).toBeNull();
   });
 });

@@ -53,17 +53,18 @@ export function actorName(actor: AuditEntry['actor']): string {
   if (actor.kind === 'visitor') return 'Not signed in';
   if (actor.kind === 'system') return 'Loadwright (automatic)';
   if (actor.kind === 'token') return `API token ${actor.name ?? `#${actor.id}`}`;
-  return actor.name ?? (actor.id === null ? 'Someone not signed in' : `Person #${actor.id}`);
+  return actor.name ?? (actor.id === null ? 'Someone not signed in' : 'A person no longer listed');
 }
 
 /** Names of the kinds of things entries act on. */
-const TARGET_NAMES: Readonly<Record<string, string>> = { user: 'Person', api_token: 'API token' };
+const TARGET_NAMES: Readonly<Record<string, string>> = { user: 'Person', api_token: 'API token', forecast_version: 'Forecast' };
 
-/** "Person #5" for a target the entry names, or null when it names none. */
-export function targetName(targetType: string | null, targetId: string | null): string | null {
-  if (!targetType) return null;
-  const kind = TARGET_NAMES[targetType] ?? actionName(targetType);
-  return targetId ? `${kind} #${targetId}` : kind;
+/** "Person: Dana Reyes" for a target the entry names, by its name; null when the entry names none. */
+export function targetName(entry: Pick<AuditEntry, 'targetType' | 'targetId' | 'targetName'>): string | null {
+  if (!entry.targetType) return null;
+  const kind = TARGET_NAMES[entry.targetType] ?? actionName(entry.targetType);
+  if (entry.targetName) return `${kind}: ${entry.targetName}`;
+  return entry.targetId ? `${kind} ${entry.targetId} (no longer listed)` : kind;
 }
 
 /** The entry's detail as short "key: value" pairs, e.g. "role: planner → admin". */

@@ -10,11 +10,11 @@ import type { ComponentLine } from './health-reading';
   host: { '[class.problem]': '!line().ok' },
   template: `
     <div class="heading">
-      <mat-icon aria-hidden="true">{{ icon() }}</mat-icon>
+      <mat-icon aria-hidden="true" [svgIcon]="icon()"></mat-icon>
       <h3>{{ title() }}</h3>
     </div>
     <p class="state">
-      <mat-icon class="state-icon" aria-hidden="true">{{ line().icon }}</mat-icon>
+      <mat-icon class="state-icon" aria-hidden="true" [svgIcon]="line().icon"></mat-icon>
       <strong>{{ line().text }}</strong>
     </p>
     <p class="detail">{{ line().detail }}</p>

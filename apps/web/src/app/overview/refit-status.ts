@@ -5,6 +5,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import type { RefitRunSummary } from '@loadwright/contracts';
 import { NEVER, map } from 'rxjs';
+import { OrganisationZone } from '../core/organisation/organisation-zone';
 import { clockText } from '../refits/clock-text';
 import { REFIT_POLL_TIMING, latestValue, pollWhileActive } from '../refits/live-polling';
 import { RefitsClient } from '../refits/refits-client';
@@ -17,7 +18,7 @@ import { countsSentence, durationText, finishedPercent, outcomeText } from '../r
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <section class="card" aria-labelledby="refit-status-heading">
-      <h3 id="refit-status-heading"><mat-icon aria-hidden="true">model_training</mat-icon> Refits</h3>
+      <h3 id="refit-status-heading"><mat-icon aria-hidden="true" svgIcon="model_training"></mat-icon> Refits</h3>
       @if (run(); as current) {
         <p class="headline" [class.failed]="current.counts.failed > 0">
           {{ current.state === 'finished' ? 'Last run: ' + outcome(current) : 'Run #' + current.id + ' ' + outcome(current).toLowerCase() }}
@@ -54,6 +55,8 @@ import { countsSentence, durationText, finishedPercent, outcomeText } from '../r
 })
 export class RefitStatus {
   private readonly client = inject(RefitsClient);
+  /** Times on this screen are in the organisation's zone, named beside each. */
+  protected readonly zone = inject(OrganisationZone);
 
   /** The newest run, polled each second while it moves and every 15 s when idle; stops when the Overview closes. */
   protected readonly reading = toSignal(
@@ -68,7 +71,7 @@ export class RefitStatus {
   /** The run shown. */
   protected readonly run = computed(() => latestValue(this.reading()));
 
-  protected readonly clock = clockText;
+  protected readonly clock = (iso: string | null, withSeconds = true) => clockText(iso, this.zone.timeZone(), withSeconds);
   protected readonly duration = durationText;
   protected readonly outcome = outcomeText;
   /** Finished share of a run. */

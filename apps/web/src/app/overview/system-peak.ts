@@ -5,9 +5,9 @@ import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 import type { ForecastReview, SeriesPage } from '@loadwright/contracts';
 import { catchError, map, of, switchMap } from 'rxjs';
-import { horizonPeak } from '../series-page/chart-data';
+import { peakAhead } from '../series-page/chart-data';
 import { withUnit } from '../series-page/chart-theme';
-import { zoneAbbreviation } from '../series-page/zoned-time';
+import { zonedClock } from '../series-page/zoned-time';
 
 /** What the card knows. */
 type PeakState =
@@ -15,14 +15,17 @@ type PeakState =
   | { readonly state: 'none'; readonly why: string }
   | { readonly state: 'ready'; readonly review: ForecastReview };
 
-/** The Overview's next-week system peak: the highest hour of the system series' draft and approved forecasts, in local time. */
+/**
+ * The Overview's next-week system peak: the highest hour still ahead in the system series' draft and
+ * approved forecasts, in the series' local time with its zone named. Hours already passed never count.
+ */
 @Component({
   selector: 'lw-system-peak',
   imports: [MatIconModule, RouterLink],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <section class="card" aria-labelledby="system-peak-heading">
-      <h3 id="system-peak-heading"><mat-icon aria-hidden="true">trending_up</mat-icon> Next-week system peak</h3>
+      <h3 id="system-peak-heading"><mat-icon aria-hidden="true" svgIcon="trending_up"></mat-icon> Next-week system peak</h3>
       @switch (data().state) {
         @case ('loading') {
           <p class="detail">Reading the system forecast…</p>
@@ -40,7 +43,13 @@ type PeakState =
           </p>
         }
         @if (!lines().length) {
-          <p class="detail">{{ r.series.name }} has no forecast yet; the next refit writes a draft.</p>
+          <p class="detail">
+            {{
+              r.draft || r.approved
+                ? r.series.name + "'s forecasts cover no hour still ahead; the next refit writes one."
+                : r.series.name + ' has no forecast yet; the next refit writes a draft.'
+            }}
+          </p>
         }
         <a [routerLink]="['/series', r.series.id]" class="more">Open {{ r.series.name }}</a>
       }
@@ -76,13 +85,13 @@ export class SystemPeak {
     if (!review) return [];
     const zone = review.series.timeZone;
     const line = (label: string, version: ForecastReview['draft']) => {
-      const peak = horizonPeak(version);
+      const peak = peakAhead(version, review.series.intervalMinutes);
       return peak
         ? [
             {
               label,
               value: withUnit(peak.value, review.series.unit),
-              when: `${peak.date} at ${peak.localTime} ${zoneAbbreviation(peak.ts, zone)}`,
+              when: `${zonedClock(peak.ts, zone)} (${peak.hoursAhead} h of it ahead)`,
             },
           ]
         : [];

@@ -24,7 +24,7 @@ import { ROLE_DESCRIPTIONS } from './person-status';
         <p class="intro">They receive an e-mail with a one-time link to choose a password. The link expires after three days.</p>
         @if (problem(); as message) {
           <p class="problem" role="alert">
-            <mat-icon aria-hidden="true">error</mat-icon><span>{{ message }}</span>
+            <mat-icon aria-hidden="true" svgIcon="error"></mat-icon><span>{{ message }}</span>
           </p>
         }
         <mat-form-field appearance="outline">

@@ -40,12 +40,12 @@ type ScopeKind = RefitScope['kind'];
         </mat-form-field>
       }
       <button mat-flat-button type="submit" [disabled]="starting() || (kind() !== 'all' && targetId() === null)">
-        <mat-icon aria-hidden="true">model_training</mat-icon>
+        <mat-icon aria-hidden="true" svgIcon="model_training"></mat-icon>
         Refit now
       </button>
       @if (problem(); as message) {
         <p class="notice problem" role="alert">
-          <mat-icon aria-hidden="true">error</mat-icon><span>{{ message }}</span>
+          <mat-icon aria-hidden="true" svgIcon="error"></mat-icon><span>{{ message }}</span>
         </p>
       }
     </form>

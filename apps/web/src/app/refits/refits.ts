@@ -8,6 +8,7 @@ import type { RefitRunDetail, RefitRunSummary } from '@loadwright/contracts';
 import { type Observable, Subject, map, of, switchMap } from 'rxjs';
 import { SessionStore } from '../core/auth/session-store';
 import { methodName } from '../series-page/chart-data';
+import { OrganisationZone } from '../core/organisation/organisation-zone';
 import { clockText } from './clock-text';
 import { REFIT_POLL_TIMING, latestValue, pollWhileActive } from './live-polling';
 import { RefitNow } from './refit-now';
@@ -36,6 +37,8 @@ interface RefitsView {
 })
 export class Refits {
   private readonly client = inject(RefitsClient);
+  /** Times on this screen are in the organisation's zone, named beside each. */
+  protected readonly zone = inject(OrganisationZone);
   private readonly session = inject(SessionStore);
   private readonly refresh = new Subject<void>();
 
@@ -57,8 +60,6 @@ export class Refits {
   protected readonly view = computed(() => latestValue(this.reading()));
   /** The run listed in detail. */
   protected readonly detail = computed(() => this.view()?.detail ?? null);
-  /** Names of the series seen in the detail, for scope descriptions. */
-  private readonly names = computed(() => new Map((this.detail()?.series ?? []).map((s) => [s.seriesId, s.seriesName])));
   /** How often the page reads now, in words. */
   protected readonly cadence = computed(() => {
     const reading = this.reading();
@@ -70,7 +71,7 @@ export class Refits {
       : `Idle: checking every ${REFIT_POLL_TIMING.idleMs / 1000} s`;
   });
 
-  protected readonly clock = clockText;
+  protected readonly clock = (iso: string | null, withSeconds = true) => clockText(iso, this.zone.timeZone(), withSeconds);
   protected readonly duration = durationText;
   protected readonly percent = finishedPercent;
   protected readonly countsText = countsSentence;
@@ -79,7 +80,7 @@ export class Refits {
 
   /** What a run covered, in words. */
   protected scopeOf(run: RefitRunSummary): string {
-    return scopeText(run, (id) => this.names().get(id) ?? null);
+    return scopeText(run);
   }
 
   /** Lists one run's series. */

@@ -22,11 +22,20 @@ describe('run progress', () => {
   });
 
   it('names the scope and the outcome', () => {
-    const names = (id: number) => (id === 3 ? 'North zone' : null);
-    expect(scopeText({ scope: { kind: 'all' } }, names)).toBe('All active series');
-    expect(scopeText({ scope: { kind: 'subtree', seriesId: 3 } }, names)).toBe('North zone and everything below it');
-    expect(scopeText({ scope: { kind: 'series', seriesIds: [9] } }, names)).toBe('Series 9');
-    expect(scopeText({ scope: { kind: 'series', seriesIds: [3, 9] } }, names)).toBe('2 series');
+    const scopeSeries = [
+      { id: 3, name: 'North zone' },
+      { id: 9, name: 'Feeder N-1' },
+      { id: 10, name: 'Feeder N-2' },
+    ];
+    expect(scopeText({ scope: { kind: 'all' }, scopeSeries: [] })).toBe('All active series');
+    expect(scopeText({ scope: { kind: 'subtree', seriesId: 3 }, scopeSeries })).toBe('North zone and everything below it');
+    expect(scopeText({ scope: { kind: 'series', seriesIds: [9] }, scopeSeries })).toBe('Feeder N-1');
+    expect(scopeText({ scope: { kind: 'series', seriesIds: [3, 9] }, scopeSeries })).toBe('North zone, Feeder N-1');
+    expect(scopeText({ scope: { kind: 'series', seriesIds: [3, 9, 10, 11] }, scopeSeries })).toBe(
+      '4 series: North zone, Feeder N-1 and 2 more',
+    );
+    // Never a bare id: a series deleted since the run is said to be so.
+    expect(scopeText({ scope: { kind: 'series', seriesIds: [19] }, scopeSeries })).toBe('a series deleted since');
     const run = { state: 'finished', counts: { ...counts, queued: 0, running: 0, done: 16, failed: 2 } } as RefitRunSummary;
     expect(outcomeText(run)).toBe('Finished, 2 failed');
     expect(outcomeText({ ...run, counts: { ...run.counts, failed: 0 } })).toBe('Finished, all done');

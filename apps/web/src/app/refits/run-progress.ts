@@ -26,13 +26,15 @@ export function durationText(ms: number | null): string {
   return `${Math.floor(minutes / 60)} h ${String(minutes % 60).padStart(2, '0')} min`;
 }
 
-/** What a run covered, in words. */
-export function scopeText(run: Pick<RefitRunSummary, 'scope'>, seriesName: (id: number) => string | null): string {
+/** What a run covered, in words, naming its series by name (a series deleted since is said to be so). */
+export function scopeText(run: Pick<RefitRunSummary, 'scope' | 'scopeSeries'>): string {
   const scope = run.scope;
+  const name = (id: number) => run.scopeSeries.find((entry) => entry.id === id)?.name ?? 'a series deleted since';
   if (scope.kind === 'all') return 'All active series';
-  if (scope.kind === 'subtree') return `${seriesName(scope.seriesId) ?? `Series ${scope.seriesId}`} and everything below it`;
-  if (scope.seriesIds.length === 1) return seriesName(scope.seriesIds[0]!) ?? `Series ${scope.seriesIds[0]}`;
-  return `${scope.seriesIds.length} series`;
+  if (scope.kind === 'subtree') return `${name(scope.seriesId)} and everything below it`;
+  if (scope.seriesIds.length === 1) return name(scope.seriesIds[0]!);
+  if (scope.seriesIds.length <= 3) return scope.seriesIds.map(name).join(', ');
+  return `${scope.seriesIds.length} series: ${scope.seriesIds.slice(0, 2).map(name).join(', ')} and ${scope.seriesIds.length - 2} more`;
 }
 
 /** The run's outcome in a few words: still going, all done, or how many failed. */

@@ -1,4 +1,5 @@
-import { DatePipe, DecimalPipe, LowerCasePipe } from '@angular/common';
+import { zonedClock } from '../series-page/zoned-time';
+import { DecimalPipe, LowerCasePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, DestroyRef, computed, inject, signal } from '@angular/core';
 import { takeUntilDestroyed, toSignal } from '@angular/core/rxjs-interop';
 import { FormsModule } from '@angular/forms';
@@ -50,7 +51,6 @@ const intervalWords: Readonly<Partial<Record<number, string>>> = { 5: '5 min', 1
 @Component({
   selector: 'lw-series-catalogue',
   imports: [
-    DatePipe,
     DecimalPipe,
     LowerCasePipe,
     FormsModule,
@@ -71,6 +71,8 @@ const intervalWords: Readonly<Partial<Record<number, string>>> = { 5: '5 min', 1
 })
 export class SeriesCatalogue {
   private readonly client = inject(SeriesClient);
+  /** "Tue 2 Dec 17:00 CST": a series' time in its own zone, named, as on its series page. */
+  protected readonly localClock = zonedClock;
   private readonly dialog = inject(MatDialog);
   private readonly router = inject(Router);
   private readonly route = inject(ActivatedRoute);

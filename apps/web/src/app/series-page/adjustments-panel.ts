@@ -1,6 +1,9 @@
 import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, output, signal } from '@angular/core';
-import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { FormControl, FormGroup, FormGroupDirective, ReactiveFormsModule, Validators } from '@angular/forms';
+import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import { merge } from 'rxjs';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
@@ -16,7 +19,16 @@ import { instantOfLocal, localOfInstant, zonedClock } from './zoned-time';
 /** The planner's adjustments of a draft: the list (removable while the version is a draft) and a form to add one. */
 @Component({
   selector: 'lw-adjustments-panel',
-  imports: [DecimalPipe, ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule],
+  imports: [
+    DecimalPipe,
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatSelectModule,
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './adjustments-panel.html',
   styleUrl: './adjustments-panel.scss',
@@ -43,7 +55,11 @@ export class AdjustmentsPanel {
       nonNullable: true,
       validators: [Validators.required, Validators.minLength(5), Validators.maxLength(500)],
     }),
+    /** Ticked when the planner confirms a change beyond a plausible one, after the API asked. */
+    confirmLargeChange: new FormControl(false, { nonNullable: true }),
   });
+  /** The API's question about a change beyond a plausible one (see plausibleAdjustmentShare), or null. */
+  protected readonly confirmation = signal<{ question: string; label: string } | null>(null);
   /** True while a request is on its way. */
   protected readonly busy = signal(false);
   /** A problem no field took, or null. */
@@ -55,6 +71,15 @@ export class AdjustmentsPanel {
   protected readonly unit = computed(() => unitLabel(this.series().unit));
 
   constructor() {
+    // A confirmation answers one amount for one period: any change of those asks again.
+    const { from, to, kind, amount } = this.form.controls;
+    merge(from.valueChanges, to.valueChanges, kind.valueChanges, amount.valueChanges)
+      .pipe(takeUntilDestroyed())
+      .subscribe(() => {
+        if (!this.confirmation()) return;
+        this.confirmation.set(null);
+        this.form.controls.confirmLargeChange.setValue(false);
+      });
     // Start the period at the version's first day, local time, so the planner edits rather than types.
     effect(() => {
       const version = this.version();
@@ -73,8 +98,8 @@ export class AdjustmentsPanel {
     return `${zonedClock(adjustment.from, zone)} → ${zonedClock(adjustment.to, zone)}`;
   }
 
-  /** Sends the adjustment. */
-  protected addAdjustment(): void {
+  /** Sends the adjustment; after it is stored the form starts afresh, showing no message. */
+  protected addAdjustment(formDirective: FormGroupDirective): void {
     this.form.markAllAsTouched();
     if (this.form.invalid) return;
     const value = this.form.getRawValue();
@@ -88,16 +113,31 @@ export class AdjustmentsPanel {
     this.busy.set(true);
     this.problem.set(null);
     this.client
-      .addAdjustment(this.version().id, { from, to, kind: value.kind, amount: Number(value.amount), reason: value.reason })
+      .addAdjustment(this.version().id, {
+        from,
+        to,
+        kind: value.kind,
+        amount: Number(value.amount),
+        reason: value.reason,
+        confirmLargeChange: value.confirmLargeChange,
+      })
       .subscribe({
         next: () => {
           this.busy.set(false);
-          this.form.controls.reason.reset('');
-          this.form.controls.amount.reset(null);
+          // resetForm clears the submitted state too, so the emptied fields show no "give a reason" message.
+          formDirective.resetForm({ ...value, amount: null, reason: '', confirmLargeChange: false });
+          this.confirmation.set(null);
           this.changed.emit();
         },
         error: (error: unknown) => {
           this.busy.set(false);
+          const asked =
+            error instanceof ApiProblem ? error.fieldErrors.find((field) => field.pointer === '/confirmLargeChange') : undefined;
+          if (asked) {
+            this.confirmation.set({ question: problemMessage(error), label: asked.detail });
+            this.problem.set(null);
+            return;
+          }
           const unplaced = error instanceof ApiProblem ? applyFieldErrors(this.form, error) : [];
           this.problem.set(
             error instanceof ApiProblem && error.fieldErrors.length && !unplaced.length

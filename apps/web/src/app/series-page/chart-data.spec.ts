@@ -1,6 +1,6 @@
 import type { ForecastPoint, ForecastReview, ForecastVersion, ReadingHistory } from '@loadwright/contracts';
 import { describe, expect, it } from 'vitest';
-import { fanChartData, historyChartData, horizonPeak, methodName, peakRows, peakShiftText } from './chart-data';
+import { bandTooltipText, fanChartData, historyChartData, horizonPeak, methodName, peakAhead, peakRows, peakShiftText } from './chart-data';
 
 const base = {
   seriesId: 1,
@@ -152,5 +152,31 @@ describe('methodName', () => {
     expect(methodName('cmle')).toBe('AR by conditional maximum likelihood');
     expect(methodName('seasonal_naive')).toBe('Seasonal naive (same hour last week)');
     expect(methodName('something-new')).toBe('something-new');
+  });
+});
+
+describe('bandTooltipText', () => {
+  it('gives both bounds of a band, not only its upper edge', () => {
+    const kw = (value: number) => `${value.toFixed(0)} kW`;
+    expect(bandTooltipText('Draft: 80 % interval (darker fill)', 812.4, 947.2, kw)).toBe('Draft: 80 % interval: 812 kW – 947 kW');
+    expect(bandTooltipText('Approved: 95 % interval (light fill)', 700, 1010, kw)).toBe('Approved: 95 % interval: 700 kW – 1010 kW');
+    expect(bandTooltipText('Draft: 95 % interval (light fill)', null, 1010, kw)).toBe('Draft: 95 % interval: —');
+  });
+});
+
+describe('peakAhead', () => {
+  const point = (ts: string, mean: number, adjusted: number | null = null) =>
+    ({ ts, mean, adjusted: adjusted === null ? null : { mean: adjusted } }) as unknown as ForecastPoint;
+  const version = {
+    points: [point('2026-12-01T17:00:00Z', 990), point('2026-12-03T17:00:00Z', 900), point('2026-12-04T17:00:00Z', 850, 940)],
+  };
+
+  it('looks only at the hours still ahead, using adjusted means', () => {
+    // 990 on 1 December has passed by 3 December 08:00; of the rest, the adjusted 940 beats 900.
+    expect(peakAhead(version, 60, new Date('2026-12-03T08:00:00Z'))).toEqual({ ts: '2026-12-04T17:00:00Z', value: 940, hoursAhead: 2 });
+    // The hour under way still counts: 17:30 is inside the 17:00 interval.
+    expect(peakAhead(version, 60, new Date('2026-12-04T17:30:00Z'))?.ts).toBe('2026-12-04T17:00:00Z');
+    expect(peakAhead(version, 60, new Date('2026-12-05T00:00:00Z'))).toBeNull();
+    expect(peakAhead(null, 60)).toBeNull();
   });
 });

@@ -162,3 +162,39 @@ export function methodName(method: string): string {
   const known = (storedMethodNames[method] ?? method) as FittedMethod;
   return modelMethodLabels[known] ?? method;
 }
+
+/**
+ * The tooltip line of a filled band: its name with both bounds, "Draft: 80 % interval: 812 – 947 kW",
+ * so the planner reads the interval rather than only its upper edge. Names drop the fill hint.
+ */
+export function bandTooltipText(bandLabel: string, lower: number | null, upper: number | null, format: (value: number) => string): string {
+  const name = bandLabel.replace(/ \((light|darker) fill\)$/, '');
+  if (lower === null || upper === null) return `${name}: —`;
+  return `${name}: ${format(lower)} – ${format(upper)}`;
+}
+
+/** The highest interval of a version still ahead: its start (UTC) and value (adjusted where adjusted). */
+export interface PeakAhead {
+  readonly ts: string;
+  readonly value: number;
+  /** Hours of the version still ahead when it was read (0 when the whole horizon has passed). */
+  readonly hoursAhead: number;
+}
+
+/**
+ * The peak over the hours of a version that have not ended yet at `now` (an interval ending after
+ * `now` counts, so the hour under way does); null when every hour has passed. A peak that already
+ * happened is no warning of what is to come.
+ */
+export function peakAhead(
+  version: Pick<ForecastVersion, 'points'> | null,
+  intervalMinutes: number,
+  now: Date = new Date(),
+): PeakAhead | null {
+  if (!version) return null;
+  const intervalMs = intervalMinutes * 60_000;
+  const ahead = version.points.filter((point) => Date.parse(point.ts) + intervalMs > now.getTime());
+  if (!ahead.length) return null;
+  const best = ahead.reduce((top, point) => (effectiveMean(point) > effectiveMean(top) ? point : top));
+  return { ts: best.ts, value: effectiveMean(best), hoursAhead: Math.round((ahead.length * intervalMs) / 3_600_000) };
+}

@@ -1,9 +1,9 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
-import type { ChartData, ChartDataset, ChartOptions } from 'chart.js';
+import type { ChartData, ChartDataset, ChartOptions, TooltipItem } from 'chart.js';
 import type { AssumedTemperatures, ForecastReview } from '@loadwright/contracts';
 import { BaseChartDirective } from 'ng2-charts';
-import { fanChartData, reviewedVersion } from './chart-data';
-import { chartColours, timeChartOptions, unitLabel } from './chart-theme';
+import { bandTooltipText, fanChartData, reviewedVersion } from './chart-data';
+import { chartColours, timeChartOptions, unitLabel, withUnit } from './chart-theme';
 
 /**
  * The forecast fan chart: actuals so far, the version under review with its 95 % and 80 % bands
@@ -120,7 +120,10 @@ export class ForecastChart {
     return { datasets };
   });
 
-  /** Axes in the series' time zone and unit; the bands' lower lines stay out of the legend and tooltips. */
+  /**
+   * Axes in the series' time zone and unit; the bands' lower lines stay out of the legend and tooltips,
+   * and a band's tooltip line gives both its bounds (the lower line is the dataset just before it).
+   */
   protected readonly options = computed<ChartOptions<'line'>>(() => {
     const series = this.review().series;
     const base = timeChartOptions(series.timeZone, series.unit, false);
@@ -138,13 +141,26 @@ export class ForecastChart {
             },
           }
         : base.scales;
+    const baseLabel = base.plugins!.tooltip!.callbacks!.label!;
     return {
       ...base,
       scales,
       plugins: {
         ...base.plugins,
         legend: { ...base.plugins!.legend, labels: { ...base.plugins!.legend!.labels, filter: (item) => !unnamed(item.text) } },
-        tooltip: { ...base.plugins!.tooltip, filter: (item) => !unnamed(item.dataset.label) },
+        tooltip: {
+          ...base.plugins!.tooltip,
+          filter: (item) => !unnamed(item.dataset.label),
+          callbacks: {
+            ...base.plugins!.tooltip!.callbacks,
+            label: function (this: unknown, item: TooltipItem<'line'>) {
+              const label = item.dataset.label ?? '';
+              if (!label.includes('% interval')) return baseLabel.call(this as never, item);
+              const lower = item.chart.data.datasets[item.datasetIndex - 1]?.data[item.dataIndex] as { y: number | null } | undefined;
+              return bandTooltipText(label, lower?.y ?? null, item.parsed.y, (value) => withUnit(value, series.unit));
+            },
+          },
+        },
       },
     };
   });

@@ -1,6 +1,7 @@
 import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, input, output, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
@@ -15,7 +16,7 @@ import { zoneAbbreviation } from './zoned-time';
 /** Bulk approval of a group (planners, admins): what approving every draft below this series would change, then all or none. */
 @Component({
   selector: 'lw-group-approval',
-  imports: [DecimalPipe, MatButtonModule, MatIconModule, RouterLink],
+  imports: [DecimalPipe, MatButtonModule, MatCheckboxModule, MatIconModule, RouterLink],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './group-approval.html',
   styleUrl: './group-approval.scss',
@@ -37,6 +38,14 @@ export class GroupApproval {
   protected readonly busy = signal(false);
   /** Why the last request failed. */
   protected readonly problem = signal<string | null>(null);
+  /** True when the planner chose to approve stale drafts too (most of their hours passed). */
+  protected readonly includeStale = signal(false);
+  /** The drafts the approve button sends: current ones, and stale ones only when included. */
+  protected readonly toApprove = computed(() => {
+    const preview = this.preview();
+    if (!preview) return [];
+    return this.includeStale() ? [...new Set([...preview.versionIds, ...preview.staleVersionIds])] : preview.versionIds;
+  });
   /** Rows with a draft, largest peak change first. */
   protected readonly rows = computed(() =>
     [...(this.preview()?.items ?? [])]
@@ -57,6 +66,7 @@ export class GroupApproval {
     }).subscribe({
       next: ({ preview, coherence }) => {
         this.busy.set(false);
+        this.includeStale.set(false);
         this.preview.set(preview);
         this.coherence.set(coherence);
       },
@@ -69,19 +79,20 @@ export class GroupApproval {
 
   /** Asks, then approves every previewed draft together. */
   protected approveGroup(): void {
-    const preview = this.preview();
-    if (!preview?.versionIds.length) return;
+    const ids = this.toApprove();
+    const includeStale = this.includeStale();
+    if (!ids.length) return;
+    const stale = includeStale ? (this.preview()?.staleVersionIds.length ?? 0) : 0;
     confirmAction(this.dialog, {
-      title: `Approve ${preview.versionIds.length} drafts of ${this.series().name} and below?`,
-      consequence:
-        'Each draft becomes the forecast handed on for its series and supersedes the version approved before it. All are approved together, or none if one changed meanwhile.',
-      confirmLabel: `Approve ${preview.versionIds.length} drafts`,
+      title: `Approve ${ids.length} drafts of ${this.series().name} and below?`,
+      consequence: `Each draft becomes the forecast handed on for its series and supersedes the version approved before it. All are approved together, or none if one changed meanwhile.${stale ? ` ${stale} of them ${stale === 1 ? 'is' : 'are'} stale: most of their hours have passed.` : ''}`,
+      confirmLabel: `Approve ${ids.length} drafts`,
     })
       .pipe(
         filter(Boolean),
         switchMap(() => {
           this.busy.set(true);
-          return this.client.approveMany(preview.versionIds);
+          return this.client.approveMany(ids, includeStale);
         }),
       )
       .subscribe({

@@ -20,6 +20,8 @@ export class ModelCard {
   readonly fit = input.required<FitSummary>();
   /** The series' unit, for σ and backtest errors. */
   readonly unit = input.required<string>();
+  /** The series' time zone: times on the series page are its local times. */
+  readonly timeZone = input.required<string>();
 
   /** Method name in words. */
   protected readonly methodName = computed(() => modelMethodLabels[this.fit().method]);
@@ -108,7 +110,7 @@ export class ModelCard {
     return lags.slice(0, 8).join(', ') + (lags.length > 8 ? ` and ${lags.length - 8} more` : '');
   });
 
-  protected readonly clock = clockText;
+  protected readonly clock = (iso: string | null, withSeconds = true) => clockText(iso, this.timeZone(), withSeconds);
   protected readonly amount = withUnit;
   protected readonly unitName = unitLabel;
 }

@@ -77,9 +77,9 @@ export class SeriesPageClient {
     return this.http.post<ApprovalPreview>('/api/forecast-approvals/preview', { parentId });
   }
 
-  /** Approves these drafts together, all or none. */
-  approveMany(versionIds: readonly number[]): Observable<ApprovalResult> {
-    return this.http.post<ApprovalResult>('/api/forecast-approvals', { versionIds });
+  /** Approves these drafts together, all or none; stale drafts only with `includeStale`. */
+  approveMany(versionIds: readonly number[], includeStale = false): Observable<ApprovalResult> {
+    return this.http.post<ApprovalResult>('/api/forecast-approvals', { versionIds, includeStale });
   }
 
   /** Approves a draft; the previously approved version is superseded. */

@@ -17,6 +17,7 @@ import {
   type SeriesDetail,
   forecastExportPath,
   modelMethodLabels,
+  versionTimeliness,
 } from '@loadwright/contracts';
 import { provideCharts, withDefaultRegisterables } from 'ng2-charts';
 import { type Observable, Subject, catchError, combineLatest, filter, forkJoin, map, of, startWith, switchMap } from 'rxjs';
@@ -124,6 +125,16 @@ export class SeriesPage {
   protected readonly draftPeak = computed(() => horizonPeak(this.data()?.review?.draft ?? null));
   protected readonly approvedPeak = computed(() => horizonPeak(this.data()?.review?.approved ?? null));
 
+  /** How much of the draft and of the approved version is still ahead; stale when most hours have passed. */
+  protected readonly draftTimeliness = computed(() => {
+    const draft = this.data()?.review?.draft;
+    return draft ? versionTimeliness(draft) : null;
+  });
+  protected readonly approvedTimeliness = computed(() => {
+    const approved = this.data()?.review?.approved;
+    return approved ? versionTimeliness(approved) : null;
+  });
+
   /** Permissions of the person looking. */
   protected readonly canApprove = computed(() => this.session.permissions().has('forecasts.approve'));
   protected readonly canEditModel = computed(() => this.session.permissions().has('models.edit'));
@@ -164,10 +175,14 @@ export class SeriesPage {
     const adjustments = draft.adjustments.length
       ? ` with ${draft.adjustments.length} adjustment${draft.adjustments.length === 1 ? '' : 's'}`
       : '';
+    const timeliness = versionTimeliness(draft);
+    const staleWarning = timeliness.stale
+      ? ` ${timeliness.hoursPassed} of its ${draft.horizonHours} hours have already passed: it no longer describes the week ahead.`
+      : '';
     confirmAction(this.dialog, {
-      title: `Approve the draft of ${review.series.name}?`,
-      consequence: `The draft issued ${zonedClock(draft.issuedAt, review.series.timeZone)}${adjustments} becomes the forecast handed on in exports and the API${review.approved ? ', and the version approved before it is superseded' : ''}. Approved versions cannot be changed.`,
-      confirmLabel: 'Approve',
+      title: timeliness.stale ? `Approve the stale draft of ${review.series.name}?` : `Approve the draft of ${review.series.name}?`,
+      consequence: `The draft issued ${zonedClock(draft.issuedAt, review.series.timeZone)}${adjustments} becomes the forecast handed on in exports and the API${review.approved ? ', and the version approved before it is superseded' : ''}. Approved versions cannot be changed.${staleWarning}`,
+      confirmLabel: timeliness.stale ? 'Approve anyway' : 'Approve',
     })
       .pipe(
         filter(Boolean),

@@ -8,7 +8,7 @@ import { MatIconModule } from '@angular/material/icon';
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <footer>
-      <mat-icon aria-hidden="true">info</mat-icon>
+      <mat-icon aria-hidden="true" svgIcon="info"></mat-icon>
       <p>
         <strong>Forecasts are decision support.</strong>
         Operating, switching and reliability decisions follow the utility's procedures, the applicable reliability rules and local codes,

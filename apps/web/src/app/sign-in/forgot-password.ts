@@ -22,13 +22,13 @@ import { applyFieldErrors, serverError } from '../core/problems/field-errors';
       </p>
       @if (sent(); as message) {
         <p class="message done" role="status">
-          <mat-icon aria-hidden="true">mark_email_read</mat-icon>
+          <mat-icon aria-hidden="true" svgIcon="mark_email_read"></mat-icon>
           <span>{{ message }}</span>
         </p>
       } @else {
         @if (problem(); as message) {
           <p class="message problem" role="alert">
-            <mat-icon aria-hidden="true">error</mat-icon>
+            <mat-icon aria-hidden="true" svgIcon="error"></mat-icon>
             <span>{{ message }}</span>
           </p>
         }

@@ -25,20 +25,24 @@ export const informationalRules: ReadonlySet<ValidationRule> = new Set(
   validationRules.filter((rule) => validationRuleSeverity[rule] === 'information'),
 );
 
-/** A finding's rule-specific facts in words, e.g. "intervals 3 · estimated yes". */
-export function detailWords(detail: Record<string, unknown>): string {
+/**
+ * A finding's rule-specific facts in words, e.g. "intervals 3 · estimated yes". Instants are written
+ * by `instant` (the screen's stated time base); without it, in UTC named as such.
+ */
+export function detailWords(detail: Record<string, unknown>, instant?: (iso: string) => string): string {
   return Object.entries(detail)
     .map(
       ([key, value]) =>
-        `${spaced(key)} ${typeof value === 'boolean' ? (value ? 'yes' : 'no') : typeof value === 'number' ? roundish(value) : instantOrText(String(value))}`,
+        `${spaced(key)} ${typeof value === 'boolean' ? (value ? 'yes' : 'no') : typeof value === 'number' ? roundish(value) : instantOrText(String(value), instant)}`,
     )
     .join(' · ');
 }
 
-/** An ISO instant in UTC as "2026-12-01 11:00 UTC"; other text as it is. */
-function instantOrText(text: string): string {
+/** An ISO instant through `format`, or in UTC as "2026-12-01 11:00 UTC"; other text as it is. */
+function instantOrText(text: string, format?: (iso: string) => string): string {
   const instant = /^(\d{4}-\d{2}-\d{2})T(\d{2}:\d{2})(?::00(?:\.0+)?)?Z$/.exec(text);
-  return instant ? `${instant[1]} ${instant[2]} UTC` : text;
+  if (!instant) return text;
+  return format ? format(text) : `${instant[1]} ${instant[2]} UTC`;
 }
 
 /** camelCase or snake_case to plain words. */

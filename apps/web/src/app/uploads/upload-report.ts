@@ -1,4 +1,4 @@
-import { DatePipe, DecimalPipe } from '@angular/common';
+import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -7,6 +7,8 @@ import type { SeriesDetail, UploadDetail, UploadFinding, ValidationRule } from '
 import { catchError, forkJoin, of } from 'rxjs';
 import { SeriesClient } from '../series-catalogue/series-client';
 import { detailWords, informationalRules, ruleNames } from './rule-names';
+import { OrganisationZone } from '../core/organisation/organisation-zone';
+import { clockText } from '../refits/clock-text';
 import { UploadsClient } from './uploads-client';
 
 /** One rule's section of the report. */
@@ -26,7 +28,7 @@ interface RuleSection {
  */
 @Component({
   selector: 'lw-upload-report',
-  imports: [DatePipe, DecimalPipe, RouterLink, MatButtonModule, MatIconModule],
+  imports: [DecimalPipe, RouterLink, MatButtonModule, MatIconModule],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './upload-report.html',
   styleUrl: './upload-report.scss',
@@ -34,6 +36,10 @@ interface RuleSection {
 export class UploadReport {
   private readonly series = inject(SeriesClient);
   private readonly uploads = inject(UploadsClient);
+  /** Finding times are stated in the organisation's zone, named in the table head. */
+  protected readonly zone = inject(OrganisationZone);
+  /** "3 Dec 06:00 CST" in the organisation's zone. */
+  protected readonly clock = (iso: string) => clockText(iso, this.zone.timeZone(), false);
 
   /** The finished upload. */
   readonly detail = input.required<UploadDetail>();
@@ -58,7 +64,7 @@ export class UploadReport {
   protected readonly csvUrl = computed(() => this.uploads.reportCsvUrl(this.detail().upload.id));
   /** The series the file touched, as far as the mapping and the findings name them, looked up in the catalogue. */
   protected readonly touched = signal<SeriesDetail[]>([]);
-  protected readonly detailWords = detailWords;
+  protected readonly detailWords = (detail: Record<string, unknown>) => detailWords(detail, this.clock);
 
   constructor() {
     effect(() => {

@@ -12,7 +12,7 @@ import type { ProductSection } from '../../core/product-sections';
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <h1>
-      <mat-icon aria-hidden="true">block</mat-icon>
+      <mat-icon aria-hidden="true" svgIcon="block"></mat-icon>
       Not allowed for your role
     </h1>
     <p class="notice" role="alert">{{ explanation() }}</p>
