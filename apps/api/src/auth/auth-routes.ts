@@ -12,7 +12,7 @@ import { users } from '@loadwright/db';
 import type { AppContext } from '../app-context';
 import { recordAudit } from '@loadwright/audit';
 import { HttpProblem } from '@loadwright/problems';
-import { passwordResetMessage } from '@loadwright/mail';
+import { passwordResetMessage, queueMail } from '@loadwright/mail';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
 import { clientAddress } from './client-address';
 import { issueLink, issuedRecently, linkLifetimes, redeemLink } from './one-time-links';
@@ -152,15 +152,18 @@ export function authRoutes(context: AppContext): RouteDefinition[] {
         const user = await findUserByEmail(body.email);
         // At most one reset mail per account every two minutes, so the form cannot flood an inbox.
         if (user?.active && !(await issuedRecently(db, user.id, 'password_reset', 2))) {
-          const secret = await issueLink(db, user.id, 'password_reset', null);
-          const link = `${context.publicUrl}/set-password?token=${encodeURIComponent(secret)}`;
-          await context.mailer.send(passwordResetMessage(user.email, user.displayName, link, linkLifetimes.password_reset));
-          await recordAudit(db, {
-            actor,
-            action: 'user.password_reset_requested',
-            targetType: 'user',
-            targetId: user.id,
-            ip: clientAddress(req),
+          await db.transaction(async (tx) => {
+            const secret = await issueLink(tx, user.id, 'password_reset', null);
+            const link = `${context.publicUrl}/set-password?token=${encodeURIComponent(secret)}`;
+            const message = passwordResetMessage(user.email, user.displayName, link, linkLifetimes.password_reset);
+            await queueMail(tx, [{ ...message, kind: 'password_reset', userId: user.id }]);
+            await recordAudit(tx, {
+              actor,
+              action: 'user.password_reset_requested',
+              targetType: 'user',
+              targetId: user.id,
+              ip: clientAddress(req),
+            });
           });
         }
         return { message: 'If that address belongs to an active account, a reset link is on its way. It expires in 30 minutes.' };
