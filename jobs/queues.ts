@@ -9,6 +9,7 @@ import { registerImportQueue } from './import.worker';
 import { sweepOrphanedImports } from './import-sweeper';
 import { registerRefitQueues } from './refit-queues';
 import { registerMailQueue } from './send-mail.worker';
+import { registerDetectionQueues } from './detect-misses.worker';
 import { startWorkerPresence, type WorkerPresence } from './worker-presence';
 
 /** What a queue's handler may use. */
@@ -48,5 +49,6 @@ export async function registerQueues(boss: PgBoss, context: WorkerContext): Prom
   await registerImportQueue(boss, withPresence);
   await registerRefitQueues(boss, withPresence);
   await registerMailQueue(boss, withPresence);
+  await registerDetectionQueues(boss, withPresence);
   return presence;
 }

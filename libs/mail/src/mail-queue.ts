@@ -3,9 +3,8 @@
  * is written to the sent-mail log and given one job in the transaction of whatever caused it, so a
  * mail server that is down delays a message, never loses it and never fails the action that sent it.
  */
-import { sql, type SQL } from 'drizzle-orm';
-import { mailMessages, type Database } from '@loadwright/db';
-import PgBoss from 'pg-boss';
+import { insertJobs, mailMessages, type Database } from '@loadwright/db';
+import type PgBoss from 'pg-boss';
 import type { MailMessage } from './mailer';
 
 /** Queue of deliveries: data SendMailJob. */
@@ -52,28 +51,6 @@ export interface QueuedMail extends MailMessage {
   userId?: number | null;
 }
 
-/** pg-boss's own insert statement, produced once by a client that never connects. */
-const statementMaker = new PgBoss({
-  db: { executeSql: async () => ({ rows: [] }) },
-  schema: 'pgboss',
-  supervise: false,
-  schedule: false,
-  migrate: false,
-});
-
-/** Turns a statement with $1…$n placeholders and its values into Drizzle SQL with bound parameters. */
-function positional(text: string, values: unknown[]): SQL {
-  const chunks: SQL[] = [];
-  let last = 0;
-  for (const match of text.matchAll(/\$(\d+)/g)) {
-    chunks.push(sql.raw(text.slice(last, match.index)));
-    chunks.push(sql`${values[Number(match[1]) - 1] ?? null}`);
-    last = match.index + match[0].length;
-  }
-  chunks.push(sql.raw(text.slice(last)));
-  return sql.join(chunks);
-}
-
 /** Adds 'send-mail' jobs for log rows on the caller's connection (inside its transaction when it is in one). */
 export async function enqueueMailJobs(db: Pick<Database, 'execute'>, messageIds: number[]): Promise<void> {
   if (messageIds.length === 0) return;
@@ -82,9 +59,7 @@ export async function enqueueMailJobs(db: Pick<Database, 'execute'>, messageIds:
     data: { messageId },
     singletonKey: `mail-${messageId}`,
   }));
-  await statementMaker.insert(jobs, {
-    db: { executeSql: (text: string, values: unknown[]) => db.execute(positional(text, values)) as Promise<{ rows: any[] }> },
-  });
+  await insertJobs(db, jobs);
 }
 
 /**

@@ -8,3 +8,7 @@ export * from './operational-misses';
 export * from './outside-band';
 export * from './rule-kinds';
 export * from './rules-in-force';
+export * from './detect-misses';
+export * from './detection-queue';
+export * from './miss-repository';
+export * from './version-in-force';
