@@ -2,8 +2,10 @@
  * Detection for one series: the rules in force judged on the last eight days of hourly actuals
  * against the forecast in force, each hit recorded as a new or extended miss event.
  */
-import type { Database } from '@loadwright/db';
+import { missEvents, series, type Database } from '@loadwright/db';
+import { and, eq, gt, sql } from 'drizzle-orm';
 import { evaluateRule } from './evaluate-rule';
+import { explainEvent } from './explain-event';
 import { hourMs } from './hour-point';
 import {
   hourPointsOf,
@@ -34,7 +36,11 @@ export interface DetectionOutcome {
 export async function detectMisses(db: Database, seriesId: number, now: Date = new Date()): Promise<DetectionOutcome> {
   const outcome: DetectionOutcome = { seriesId, opened: [], extended: [], unchanged: 0 };
   const [watched] = await watchedSeries(db, [seriesId]);
-  if (!watched) return outcome;
+  if (!watched) {
+    // New temperatures for a station: misses of the load series it serves can now be split.
+    for (const eventId of await eventsServedBy(db, seriesId)) await explainEvent(db, eventId);
+    return outcome;
+  }
   const rules = rulesInForce(await loadRules(db), watched);
   if (rules.length === 0) return outcome;
   const to = new Date(Math.floor(now.getTime() / hourMs) * hourMs);
@@ -58,5 +64,17 @@ export async function detectMisses(db: Database, seriesId: number, now: Date = n
     outcome.extended.push(...recorded.extended);
     outcome.unchanged += recorded.unchanged;
   }
+  // New evidence: explain again (observed temperatures may have arrived since).
+  for (const eventId of new Set([...outcome.opened, ...outcome.extended])) await explainEvent(db, eventId);
   return outcome;
+}
+
+/** Events of the last two weeks on load series whose temperature station is `stationId`. */
+async function eventsServedBy(db: Database, stationId: number): Promise<number[]> {
+  const rows = await db
+    .select({ id: missEvents.id })
+    .from(missEvents)
+    .innerJoin(series, eq(series.id, missEvents.seriesId))
+    .where(and(eq(series.temperatureSeriesId, stationId), gt(missEvents.detectedAt, sql`now() - interval '14 days'`)));
+  return rows.map((row) => row.id);
 }

@@ -12,3 +12,5 @@ export * from './detect-misses';
 export * from './detection-queue';
 export * from './miss-repository';
 export * from './version-in-force';
+export * from './explain-miss';
+export * from './explain-event';
