@@ -25,6 +25,8 @@ export interface WorkerContext {
   smtpUrl?: string;
   /** Sender when the organisation has set none. */
   mailFrom: string;
+  /** The address people open, for links in e-mail. */
+  publicUrl: string;
 }
 
 /** A handler's context once the worker's presence runs. */

@@ -58,7 +58,7 @@ const sqlExcluded = (column: string) => sql.raw(`excluded.${column}`);
 export async function seriesRule(
   db: Database,
   seriesId: number,
-  settings: Partial<RuleSettings> & Pick<RuleSettings, 'kind'>,
+  settings: Partial<RuleSettings> & Pick<RuleSettings, 'kind'> & { severity?: 'low' | 'medium' | 'high'; recipients?: string[] },
 ): Promise<number> {
   const [row] = await db
     .insert(missRules)

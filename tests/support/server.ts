@@ -64,6 +64,7 @@ export async function startTestServer(
       databaseUrl,
       smtpUrl: catcher.smtpUrl,
       mailFrom: 'Loadwright <loadwright@test.example>',
+      publicUrl: 'http://127.0.0.1',
     });
   }
   const app = createApp({

@@ -26,7 +26,7 @@ describe('creepingBias', () => {
     expect(creepingBias(hours('2026-06-01T00:00:00Z', [102, 99, 103, 102, 102], { forecast: 100 }), limit, kW)).toEqual([]);
     const [hit] = creepingBias(hours('2026-06-01T00:00:00Z', [102, 99, 103, 102, 102, 101], { forecast: 100 }), limit, kW);
     expect(hit!.start.toISOString()).toBe('2026-06-01T05:00:00.000Z');
-    expect(hit!.summary).toMatch(/^Forecast persistently low: tracking signal 4\.9 \(limit ±4\) for 1 hours/);
+    expect(hit!.summary).toMatch(/^Forecast persistently low: tracking signal 4\.9 \(limit ±4\) for 1 hour/);
   });
 
   it('needs k consecutive hours beyond the limit', () => {

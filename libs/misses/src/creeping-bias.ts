@@ -1,5 +1,5 @@
 /** "Creeping bias": the tracking signal beyond ±limit for k consecutive hours. */
-import { evidenceOf, load, runsOf, type HourPoint, type MissHit, type SeriesFacts } from './hour-point';
+import { evidenceOf, forHours, load, runsOf, type HourPoint, type MissHit, type SeriesFacts } from './hour-point';
 import type { RuleSettings } from './rule-kinds';
 
 /**
@@ -38,7 +38,7 @@ export function creepingBias(points: readonly HourPoint[], rule: RuleSettings, s
       start: run[0]!.ts,
       end: new Date(run.at(-1)!.ts.getTime() + 3_600_000),
       evidence,
-      summary: `Forecast persistently ${last > 0 ? 'low' : 'high'}: tracking signal ${last.toFixed(1)} (limit ±${limit}) for ${run.length} hours; errors average ${load(meanError, series.unit)}.`,
+      summary: `Forecast persistently ${last > 0 ? 'low' : 'high'}: tracking signal ${last.toFixed(1)} (limit ±${limit}) ${forHours(run.length)}; errors average ${load(meanError, series.unit)}.`,
       measures: { trackingSignal: last, hours: run.length, meanError },
     };
   });

@@ -6,6 +6,7 @@ import { missEvents, series, type Database } from '@loadwright/db';
 import { and, eq, gt, sql } from 'drizzle-orm';
 import { evaluateRule } from './evaluate-rule';
 import { explainEvent } from './explain-event';
+import { notifyNewMisses } from './notify-misses';
 import { hourMs } from './hour-point';
 import {
   hourPointsOf,
@@ -31,9 +32,16 @@ export interface DetectionOutcome {
 
 /**
  * Judges series `seriesId` as of `now` (the clock of the caller; tests pass a fixed one). A series
- * that is not an active load series of hourly or finer readings is skipped.
+ * that is not an active load series of hourly or finer readings is skipped (a temperature station's
+ * new readings re-explain the misses of the series it serves). With `publicUrl`, new events are
+ * e-mailed (links point there).
  */
-export async function detectMisses(db: Database, seriesId: number, now: Date = new Date()): Promise<DetectionOutcome> {
+export async function detectMisses(
+  db: Database,
+  seriesId: number,
+  now: Date = new Date(),
+  options: { publicUrl?: string } = {},
+): Promise<DetectionOutcome> {
   const outcome: DetectionOutcome = { seriesId, opened: [], extended: [], unchanged: 0 };
   const [watched] = await watchedSeries(db, [seriesId]);
   if (!watched) {
@@ -66,6 +74,8 @@ export async function detectMisses(db: Database, seriesId: number, now: Date = n
   }
   // New evidence: explain again (observed temperatures may have arrived since).
   for (const eventId of new Set([...outcome.opened, ...outcome.extended])) await explainEvent(db, eventId);
+  // Only new events are e-mailed at once; an event growing is news for the page, not another e-mail.
+  if (options.publicUrl) await notifyNewMisses(db, outcome.opened, options.publicUrl);
   return outcome;
 }
 

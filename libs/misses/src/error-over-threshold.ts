@@ -1,5 +1,5 @@
 /** "Error over threshold": absolute percentage error above the threshold for k consecutive hours. */
-import { evidenceOf, load, runsOf, type HourPoint, type MissHit, type SeriesFacts } from './hour-point';
+import { evidenceOf, forHours, load, runsOf, type HourPoint, type MissHit, type SeriesFacts } from './hour-point';
 import { floorInUnit, type RuleSettings } from './rule-kinds';
 
 /**
@@ -25,7 +25,7 @@ export function errorOverThreshold(points: readonly HourPoint[], rule: RuleSetti
       start: run[0]!.ts,
       end: new Date(run.at(-1)!.ts.getTime() + 3_600_000),
       evidence,
-      summary: `Error above ${threshold} % for ${run.length} hours in a row (worst ${worst.toFixed(1)} %, forecast ${meanError > 0 ? 'low' : 'high'} by ${load(Math.abs(meanError), series.unit)} on average).`,
+      summary: `Error above ${threshold} % ${forHours(run.length)} (worst ${worst.toFixed(1)} %, forecast ${meanError > 0 ? 'low' : 'high'} by ${load(Math.abs(meanError), series.unit)} on average).`,
       measures: { hours: run.length, worstPercentError: worst, meanError },
     };
   });

@@ -108,3 +108,8 @@ export function runsOf(points: readonly HourPoint[], k: number, breaks: (point: 
 export function load(value: number, unit: LoadUnit): string {
   return `${value.toLocaleString('en-US', { maximumFractionDigits: 1, minimumFractionDigits: 1 })} ${unit}`;
 }
+
+/** "for 1 hour" or "for 3 hours in a row". */
+export function forHours(n: number): string {
+  return n === 1 ? 'for 1 hour' : `for ${n} hours in a row`;
+}

@@ -14,3 +14,4 @@ export * from './miss-repository';
 export * from './version-in-force';
 export * from './explain-miss';
 export * from './explain-event';
+export * from './notify-misses';

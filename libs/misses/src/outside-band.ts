@@ -1,5 +1,5 @@
 /** "Outside the band": the actual outside the forecast's band (95 % by default) for k consecutive hours. */
-import { bandAt, evidenceOf, load, runsOf, type HourPoint, type MissHit, type SeriesFacts } from './hour-point';
+import { bandAt, evidenceOf, forHours, load, runsOf, type HourPoint, type MissHit, type SeriesFacts } from './hour-point';
 import type { RuleSettings } from './rule-kinds';
 
 /**
@@ -24,7 +24,7 @@ export function outsideBand(points: readonly HourPoint[], rule: RuleSettings, se
       start: run[0]!.ts,
       end: new Date(run.at(-1)!.ts.getTime() + 3_600_000),
       evidence,
-      summary: `Actual ${side} the ${level} % band for ${run.length} hours in a row, at most ${load(furthest, series.unit)} beyond it.`,
+      summary: `Actual ${side} the ${level} % band ${forHours(run.length)}, at most ${load(furthest, series.unit)} beyond it.`,
       measures: { hours: run.length, furthestBeyondBand: furthest, hoursAbove: above },
     };
   });
