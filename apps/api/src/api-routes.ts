@@ -17,6 +17,7 @@ import { seriesRoutes } from './series/series-routes';
 import { tokenRoutes } from './tokens/token-routes';
 import { modelRoutes } from './models/model-routes';
 import { refitRoutes } from './refits/refit-routes';
+import { missesRoutes } from './misses/misses-routes';
 
 const version = process.env['npm_package_version'] ?? '0.1.0';
 
@@ -36,6 +37,7 @@ export function apiRoutes(context: AppContext): RouteDefinition[] {
   routes.push(...seriesRoutes(context), ...readingsRoutes(context));
   routes.push(...temperatureForecastRoutes(context));
   routes.push(...uploadRoutes(context));
+  routes.push(...missesRoutes(context));
   let document: unknown;
   routes.push(
     defineRoute({

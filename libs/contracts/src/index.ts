@@ -15,3 +15,4 @@ export * from './refits';
 export * from './uploads';
 export * from './hierarchy';
 export * from './temperature-forecasts';
+export * from './misses';

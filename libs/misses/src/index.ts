@@ -15,3 +15,4 @@ export * from './version-in-force';
 export * from './explain-miss';
 export * from './explain-event';
 export * from './notify-misses';
+export * from './miss-service';
