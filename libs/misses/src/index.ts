@@ -16,3 +16,4 @@ export * from './explain-miss';
 export * from './explain-event';
 export * from './notify-misses';
 export * from './miss-service';
+export * from './demo-misses';
