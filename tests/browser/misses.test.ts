@@ -64,6 +64,7 @@ describe('a viewer handles a miss', () => {
     await signInThroughPage(page, server.url, viewer.email, password, '/overview');
     const card = page.getByRole('region', { name: 'Open misses' });
     await card.getByText('High', { exact: true }).waitFor();
+    await card.getByRole('listitem').first().waitFor();
     await page.screenshot({ path: resolve(artifacts, 'overview-open-misses.png') });
     await expectAccessible();
 

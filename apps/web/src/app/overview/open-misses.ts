@@ -49,6 +49,23 @@ type OpenMissesState =
   `,
   styleUrl: './overview-card.scss',
   styles: `
+    .counts {
+      display: flex;
+      gap: 24px;
+      margin: 4px 0 8px;
+    }
+    .counts dt {
+      font: var(--mat-sys-label-medium);
+      color: var(--mat-sys-on-surface-variant);
+    }
+    .counts dd {
+      margin: 0;
+      font: var(--mat-sys-headline-small);
+      font-weight: 600;
+    }
+    .counts .high dd {
+      color: #8c1d18;
+    }
     .worst {
       margin: 8px 0;
       padding-left: 18px;
