@@ -145,7 +145,12 @@ export const missRuleUpdateSchema = z
     floorKw: z.number().min(0).nullable(),
     peakHourTolerance: z.number().int().min(0).max(23).nullable(),
     severity: z.enum(missSeverities),
-    recipients: z.array(z.string().trim().regex(/^(role:(admin|steward|planner|viewer)|[^@\s]+@[^@\s]+\.[^@\s]+)$/, 'An e-mail address or role:<role>')),
+    recipients: z.array(
+      z
+        .string()
+        .trim()
+        .regex(/^(role:(admin|steward|planner|viewer)|[^@\s]+@[^@\s]+\.[^@\s]+)$/, 'An e-mail address or role:<role>'),
+    ),
     active: z.boolean(),
   })
   .partial()

@@ -36,6 +36,6 @@ export async function insertJobs(db: Pick<Database, 'execute'>, jobs: PgBoss.Job
   const installed = await db.execute(sql`select to_regclass('pgboss.job') is not null as ok`);
   if (!(installed.rows[0] as { ok: boolean } | undefined)?.ok) return;
   await statementMaker.insert(jobs, {
-    db: { executeSql: (text: string, values: unknown[]) => db.execute(positional(text, values)) as Promise<{ rows: any[] }> },
+    db: { executeSql: async (text: string, values: unknown[]) => ({ rows: (await db.execute(positional(text, values))).rows }) },
   });
 }

@@ -165,7 +165,14 @@ export async function acknowledgeMiss(db: Database, id: number, comment: string,
         .set({ state: 'acknowledged', acknowledgedAt: new Date(), acknowledgedById: personOf(actor) })
         .where(eq(missEvents.id, id));
     await tx.insert(missComments).values({ eventId: id, authorId: personOf(actor), body: comment });
-    await recordAudit(tx, { actor, action: 'miss.acknowledged', targetType: 'miss', targetId: id, detail: { comment }, ...(ip ? { ip } : {}) });
+    await recordAudit(tx, {
+      actor,
+      action: 'miss.acknowledged',
+      targetType: 'miss',
+      targetId: id,
+      detail: { comment },
+      ...(ip ? { ip } : {}),
+    });
   });
 }
 
@@ -254,19 +261,34 @@ function toRule(rule: typeof missRules.$inferSelect): MissRule {
 
 /** Every rule: defaults first, then overrides. */
 export async function listRules(db: Database): Promise<MissRule[]> {
-  const rows = await db.select().from(missRules).orderBy(sql`case ${missRules.scope} when 'all' then 0 when 'level' then 1 else 2 end`, asc(missRules.id));
+  const rows = await db
+    .select()
+    .from(missRules)
+    .orderBy(sql`case ${missRules.scope} when 'all' then 0 when 'level' then 1 else 2 end`, asc(missRules.id));
   return rows.map(toRule);
 }
 
 /** Changes a rule: defaults (scope all) need admin.settings, overrides misses.rules (checked by the caller via `mayChangeDefaults`). */
-export async function updateRule(db: Database, id: number, change: MissRuleUpdate, actor: Actor, mayChangeDefaults: boolean): Promise<MissRule> {
+export async function updateRule(
+  db: Database,
+  id: number,
+  change: MissRuleUpdate,
+  actor: Actor,
+  mayChangeDefaults: boolean,
+): Promise<MissRule> {
   return db.transaction(async (tx) => {
     const [rule] = await tx.select().from(missRules).where(eq(missRules.id, id)).for('update');
     if (!rule) throw new HttpProblem('notFound', `No miss rule with id ${id}.`);
     if (rule.scope === 'all' && !mayChangeDefaults)
       throw new HttpProblem('forbidden', 'Only an admin changes the default rules; add an override for your series or group instead.');
     const [row] = await tx.update(missRules).set(change).where(eq(missRules.id, id)).returning();
-    await recordAudit(tx, { actor, action: 'miss_rule.changed', targetType: 'miss_rule', targetId: id, detail: change as Record<string, unknown> });
+    await recordAudit(tx, {
+      actor,
+      action: 'miss_rule.changed',
+      targetType: 'miss_rule',
+      targetId: id,
+      detail: change as Record<string, unknown>,
+    });
     return toRule(row!);
   });
 }
@@ -274,9 +296,13 @@ export async function updateRule(db: Database, id: number, change: MissRuleUpdat
 /** Adds a planner's override for a group (level) or one series. */
 export async function createRuleOverride(db: Database, body: z.output<typeof missRuleCreateSchema>, actor: Actor): Promise<MissRule> {
   if (body.scope === 'level' && !body.scopeLevel)
-    throw new HttpProblem('invalidInput', 'Name the group (level) this override is for.', [{ pointer: '/scopeLevel', detail: 'Required for a group override' }]);
+    throw new HttpProblem('invalidInput', 'Name the group (level) this override is for.', [
+      { pointer: '/scopeLevel', detail: 'Required for a group override' },
+    ]);
   if (body.scope === 'series' && !body.scopeSeriesId)
-    throw new HttpProblem('invalidInput', 'Name the series this override is for.', [{ pointer: '/scopeSeriesId', detail: 'Required for a series override' }]);
+    throw new HttpProblem('invalidInput', 'Name the series this override is for.', [
+      { pointer: '/scopeSeriesId', detail: 'Required for a series override' },
+    ]);
   const target = body.scope === 'series' ? `series ${body.scopeSeriesId}` : `${body.scopeLevel}s`;
   const [row] = await db
     .insert(missRules)
@@ -297,7 +323,13 @@ export async function createRuleOverride(db: Database, body: z.output<typeof mis
       createdById: personOf(actor),
     })
     .returning();
-  await recordAudit(db, { actor, action: 'miss_rule.added', targetType: 'miss_rule', targetId: row!.id, detail: { kind: body.kind, scope: body.scope } });
+  await recordAudit(db, {
+    actor,
+    action: 'miss_rule.added',
+    targetType: 'miss_rule',
+    targetId: row!.id,
+    detail: { kind: body.kind, scope: body.scope },
+  });
   return toRule(row!);
 }
 
@@ -336,7 +368,10 @@ export async function updateSettings(db: Database, change: OrganisationSettingsU
   await db.update(organisation).set(set).where(eq(organisation.singleton, true));
   const after = await readSettings(db);
   const changes = Object.fromEntries(
-    Object.keys(change).map((key) => [key, { from: before[key as keyof OrganisationSettings], to: after[key as keyof OrganisationSettings] }]),
+    Object.keys(change).map((key) => [
+      key,
+      { from: before[key as keyof OrganisationSettings], to: after[key as keyof OrganisationSettings] },
+    ]),
   );
   await recordAudit(db, { actor, action: 'settings.changed', targetType: 'organisation', detail: changes });
   return after;
@@ -354,4 +389,3 @@ export async function setMissMail(db: Database, userId: number, missMail: (typeo
   await db.update(users).set({ missMail }).where(eq(users.id, userId));
   return { missMail };
 }
-

@@ -142,7 +142,8 @@ export function missesRoutes({ db }: AppContext): RouteDefinition[] {
       params: idParams,
       body: missRuleUpdateSchema,
       response: missRuleSchema,
-      handler: ({ params, body, actor }) => updateRule(db, params.id, body, actor, actor.kind === 'user' && roleHas(actor.role, 'admin.settings')),
+      handler: ({ params, body, actor }) =>
+        updateRule(db, params.id, body, actor, actor.kind === 'user' && roleHas(actor.role, 'admin.settings')),
     }),
     defineRoute({
       method: 'get',
