@@ -27,10 +27,20 @@ type OpenMissesState =
         }
       }
       @if (overview(); as o) {
-        <p class="peak">
-          <span class="label">High</span><span class="value">{{ o.open.high }}</span> <span class="label">Medium</span
-          ><span class="value">{{ o.open.medium }}</span> <span class="label">Low</span><span class="value">{{ o.open.low }}</span>
-        </p>
+        <dl class="counts">
+          <div class="high">
+            <dt>High</dt>
+            <dd>{{ o.open.high }}</dd>
+          </div>
+          <div>
+            <dt>Medium</dt>
+            <dd>{{ o.open.medium }}</dd>
+          </div>
+          <div>
+            <dt>Low</dt>
+            <dd>{{ o.open.low }}</dd>
+          </div>
+        </dl>
         @if (o.worstSeries.length) {
           <ul class="worst">
             @for (s of o.worstSeries; track s.seriesId) {
