@@ -23,10 +23,10 @@ export interface WorkerContext {
   heartbeatSeconds?: number;
   /** The mail server the 'send-mail' queue delivers to (npm start sets the local catcher's). */
   smtpUrl?: string;
-  /** Sender when the organisation has set none. */
-  mailFrom: string;
-  /** The address people open, for links in e-mail. */
-  publicUrl: string;
+  /** Sender when the organisation has set none (default Loadwright <loadwright@localhost>). */
+  mailFrom?: string;
+  /** The address people open, for links in e-mail (default http://127.0.0.1:4280). */
+  publicUrl?: string;
 }
 
 /** A handler's context once the worker's presence runs. */
@@ -50,7 +50,7 @@ export async function registerQueues(boss: PgBoss, context: WorkerContext): Prom
   const withPresence = { ...context, presence };
   await registerImportQueue(boss, withPresence);
   await registerRefitQueues(boss, withPresence);
-  await registerMailQueue(boss, withPresence);
-  await registerDetectionQueues(boss, withPresence);
+  await registerMailQueue(boss, { ...withPresence, mailFrom: context.mailFrom ?? 'Loadwright <loadwright@localhost>' });
+  await registerDetectionQueues(boss, { ...withPresence, publicUrl: context.publicUrl ?? 'http://127.0.0.1:4280' });
   return presence;
 }
