@@ -1,5 +1,6 @@
 /**
- * The 'send-mail' handler: delivers sent-mail log rows through SMTP, a few side by side. A mail
+ * The 'send-mail' handler: delivers sent-mail log rows through SMTP one at a time, in the order they
+ * were queued (a resent invitation arrives after the one it replaces). A mail
  * server that refuses or is unreachable fails the job, which pg-boss retries with doubling delays;
  * the log row shows the attempts and the last error meanwhile. A sweep once a minute gives a job to
  * any log row left queued without one, so no message waits forever.
@@ -69,7 +70,7 @@ export async function registerMailQueue(boss: PgBoss, context: MailWorkerContext
     if (mailer?.from !== from) mailer = { from, mailer: createMailer(smtpUrl, from) };
     return mailer.mailer;
   };
-  await boss.work<SendMailJob>(sendMailQueue, { batchSize: 4, includeMetadata: true, pollingIntervalSeconds: 0.5 }, async (jobs) => {
+  await boss.work<SendMailJob>(sendMailQueue, { batchSize: 1, includeMetadata: true, pollingIntervalSeconds: 0.5 }, async (jobs) => {
     const from = await senderOf(pool, context.mailFrom);
     const results = await Promise.allSettled(
       jobs.map((job) => deliverMail(pool, mailerFor(from), job.data.messageId, { retryCount: job.retryCount, retryLimit: job.retryLimit })),
