@@ -8,6 +8,8 @@ import type { Logger } from 'pino';
 import { registerImportQueue } from './import.worker';
 import { sweepOrphanedImports } from './import-sweeper';
 import { registerRefitQueues } from './refit-queues';
+import { registerMailQueue } from './send-mail.worker';
+import { registerDetectionQueues } from './detect-misses.worker';
 import { startWorkerPresence, type WorkerPresence } from './worker-presence';
 
 /** What a queue's handler may use. */
@@ -19,6 +21,12 @@ export interface WorkerContext {
   name?: string;
   /** Seconds between heartbeats (default 10). */
   heartbeatSeconds?: number;
+  /** The mail server the 'send-mail' queue delivers to (npm start sets the local catcher's). */
+  smtpUrl?: string;
+  /** Sender when the organisation has set none (default Loadwright <loadwright@localhost>). */
+  mailFrom?: string;
+  /** The address people open, for links in e-mail (default http://127.0.0.1:4280). */
+  publicUrl?: string;
 }
 
 /** A handler's context once the worker's presence runs. */
@@ -42,5 +50,7 @@ export async function registerQueues(boss: PgBoss, context: WorkerContext): Prom
   const withPresence = { ...context, presence };
   await registerImportQueue(boss, withPresence);
   await registerRefitQueues(boss, withPresence);
+  await registerMailQueue(boss, { ...withPresence, mailFrom: context.mailFrom ?? 'Loadwright <loadwright@localhost>' });
+  await registerDetectionQueues(boss, { ...withPresence, publicUrl: context.publicUrl ?? 'http://127.0.0.1:4280' });
   return presence;
 }

@@ -45,6 +45,9 @@ await registerQueues(boss, {
   concurrency: config.WORKER_CONCURRENCY,
   databaseUrl: config.DATABASE_URL,
   heartbeatSeconds: config.WORKER_HEARTBEAT_SECONDS,
+  ...(config.SMTP_URL ? { smtpUrl: config.SMTP_URL } : {}),
+  mailFrom: config.MAIL_FROM,
+  publicUrl: config.PUBLIC_URL ?? `http://${config.HOST}:${config.PORT}`,
 });
 logger.info({ concurrency: config.WORKER_CONCURRENCY, heartbeatSeconds: config.WORKER_HEARTBEAT_SECONDS }, 'worker ready');
 

@@ -1,11 +1,24 @@
 /** Seeds the demo cooperative into an empty database and describes its accounts for the console. */
 import { demoScenario } from '../fixtures/demo/scenario';
+import { createDb } from '@loadwright/db';
+import { seedDemoMisses } from '@loadwright/misses';
 import { seedDemo } from '../libs/db/src/seed/seed-demo';
 
-/** Seeds when the database holds no organisation yet; true when it seeded. */
+/** Seeds when the database holds no organisation yet, then a few misses in its history; true when it seeded. */
 export async function seedDemoIfEmpty(databaseUrl: string): Promise<boolean> {
   const { seeded } = await seedDemo(databaseUrl);
+  if (seeded) await addDemoMisses(databaseUrl);
   return seeded;
+}
+
+/** The demo's misses (forecasts for a few series over its last week, judged by the default rules); returns how many. */
+export async function addDemoMisses(databaseUrl: string): Promise<number> {
+  const handle = createDb(databaseUrl, { max: 2, applicationName: 'loadwright-seed' });
+  try {
+    return await seedDemoMisses(handle.db);
+  } finally {
+    await handle.close();
+  }
 }
 
 /** The demo sign-ins, one line per role, for the start banner and the README. */

@@ -5,6 +5,7 @@
 import { migrate } from '@loadwright/db';
 import { demoScenario } from '../fixtures/demo/scenario';
 import { seedDemo } from '../libs/db/src/seed/seed-demo';
+import { addDemoMisses } from './demo-seed';
 import { defaultLocation, ensurePostgres, stopPostgres } from './postgres';
 
 const database = await ensurePostgres();
@@ -15,7 +16,8 @@ try {
     console.log('The database already holds an organisation: nothing seeded.');
   } else {
     const { generateMs, hashMs, writeMs } = result.timings;
-    console.log(`Seeded ${demoScenario.organisation.name}: ${result.observations.toLocaleString('en-US')} readings.`);
+    const misses = await addDemoMisses(database.url);
+    console.log(`Seeded ${demoScenario.organisation.name}: ${result.observations.toLocaleString('en-US')} readings, ${misses} misses.`);
     console.log(
       `  generated in ${generateMs.toFixed(0)} ms, passwords hashed in ${hashMs.toFixed(0)} ms, written in ${writeMs.toFixed(0)} ms`,
     );

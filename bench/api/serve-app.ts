@@ -9,7 +9,6 @@
 import { randomBytes } from 'node:crypto';
 import type { AddressInfo } from 'node:net';
 import { createDb } from '@loadwright/db';
-import { createMailer } from '@loadwright/mail';
 import { pino } from 'pino';
 import { createApp } from '../../apps/api/src/app';
 
@@ -24,7 +23,6 @@ const app = createApp({
   logger,
   sessionSecret: randomBytes(48),
   secureCookies: false,
-  mailer: createMailer('smtp://127.0.0.1:9', 'Loadwright <bench@example.test>'),
   publicUrl: 'http://127.0.0.1',
   webDist: staticFolder,
 });

@@ -21,7 +21,6 @@ import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { createDb, series, users } from '../../libs/db/src';
 import { migrate } from '../../libs/db/src/migrate';
-import { createMailer } from '@loadwright/mail';
 import { pino } from 'pino';
 import { createApp } from '../../apps/api/src/app';
 import { hashPassword } from '../../apps/api/src/auth/passwords';
@@ -70,7 +69,6 @@ try {
     logger: pino({ level: 'silent' }),
     sessionSecret: randomBytes(48),
     secureCookies: false,
-    mailer: createMailer('smtp://127.0.0.1:9', 'Loadwright <loadwright@bench.example>'),
     publicUrl: 'http://127.0.0.1',
     uploadFolder,
     uploadMaxBytes: 1024 * 1024 * 1024,

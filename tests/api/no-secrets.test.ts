@@ -13,7 +13,7 @@ const logLines: string[] = [];
 let server: TestServer;
 
 beforeAll(async () => {
-  server = await startTestServer({ worker: false, logLines });
+  server = await startTestServer({ logLines });
 });
 afterAll(() => server.close());
 

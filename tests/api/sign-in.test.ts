@@ -11,7 +11,7 @@ let server: TestServer;
 let people: Awaited<ReturnType<typeof createPeople>>;
 
 beforeAll(async () => {
-  server = await startTestServer({ worker: false });
+  server = await startTestServer();
   people = await createPeople(server.db);
 });
 afterAll(() => server.close());

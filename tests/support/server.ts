@@ -14,8 +14,7 @@ import { pino } from 'pino';
 import { logSerializers } from '@loadwright/runtime';
 import { createApp } from '../../apps/api/src/app';
 import type { RouteDefinition } from '../../apps/api/src/http/route-table';
-import { startMailCatcher } from '@loadwright/mail';
-import { createMailer } from '@loadwright/mail';
+import { startMailCatcher, type MailCatcher } from '@loadwright/mail';
 import { createBoss } from '../../jobs/boss';
 import { registerQueues } from '../../jobs/queues';
 import { createTestDatabase } from './database';
@@ -34,6 +33,8 @@ export interface TestServer {
   app: Express;
   /** Every declared API route. */
   routes: RouteDefinition[];
+  /** The mail catcher as a mail server that can go down and come back on the same port. */
+  mailServer: { stop(): Promise<void>; start(): Promise<void> };
   close(): Promise<void>;
 }
 
@@ -55,12 +56,20 @@ export async function startTestServer(
     : pino({ level: process.env['TEST_LOG_LEVEL'] ?? 'silent', serializers: logSerializers });
   const { db, pool, close: closeDb } = createDb(databaseUrl, { max: 5, applicationName: 'loadwright-test' });
   const outboxFolder = mkdtempSync(join(tmpdir(), 'lw-outbox-'));
-  const catcher = await startMailCatcher(outboxFolder);
+  let catcher: MailCatcher | undefined = await startMailCatcher(outboxFolder);
+  const smtpPort = catcher.port;
   const boss = options.worker === false ? undefined : createBoss(databaseUrl, { supervise: true });
   if (boss) {
     boss.on('error', (error) => logger.error({ err: error }, 'job queue error'));
     await boss.start();
-    await registerQueues(boss, { logger, concurrency: 2, databaseUrl });
+    await registerQueues(boss, {
+      logger,
+      concurrency: 2,
+      databaseUrl,
+      smtpUrl: options.smtpUrl ?? catcher.smtpUrl,
+      mailFrom: 'Loadwright <loadwright@test.example>',
+      publicUrl: 'http://127.0.0.1',
+    });
   }
   const app = createApp({
     db,
@@ -68,7 +77,6 @@ export async function startTestServer(
     logger,
     sessionSecret: randomBytes(48),
     secureCookies: false,
-    mailer: createMailer(options.smtpUrl ?? catcher.smtpUrl, 'Loadwright <loadwright@test.example>'),
     publicUrl: 'http://127.0.0.1',
     outboxFolder,
     webDist: resolve(repoRoot, 'dist/web/browser'),
@@ -84,11 +92,20 @@ export async function startTestServer(
     outboxFolder,
     app,
     routes: app.locals['routes'] as RouteDefinition[],
+    mailServer: {
+      async stop() {
+        await catcher?.stop();
+        catcher = undefined;
+      },
+      async start() {
+        catcher ??= await startMailCatcher(outboxFolder, smtpPort);
+      },
+    },
     async close() {
       server.closeAllConnections();
       await new Promise<void>((done) => server.close(() => done()));
       await boss?.stop({ wait: true, timeout: 5_000 });
-      await catcher.stop();
+      await catcher?.stop();
       await closeDb();
     },
   };

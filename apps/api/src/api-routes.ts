@@ -18,6 +18,7 @@ import { tokenRoutes } from './tokens/token-routes';
 import { modelRoutes } from './models/model-routes';
 import { refitRoutes } from './refits/refit-routes';
 import { organisationRoutes } from './organisation/organisation-routes';
+import { missesRoutes } from './misses/misses-routes';
 
 const version = process.env['npm_package_version'] ?? '0.1.0';
 
@@ -38,6 +39,7 @@ export function apiRoutes(context: AppContext): RouteDefinition[] {
   routes.push(...temperatureForecastRoutes(context));
   routes.push(...uploadRoutes(context));
   routes.push(...organisationRoutes(context));
+  routes.push(...missesRoutes(context));
   let document: unknown;
   routes.push(
     defineRoute({

@@ -2,7 +2,6 @@
 import type { Database } from '@loadwright/db';
 import type { Pool } from 'pg';
 import type { Logger } from 'pino';
-import type { Mailer } from '@loadwright/mail';
 
 export interface AppContext {
   db: Database;
@@ -12,7 +11,6 @@ export interface AppContext {
   sessionSecret: Uint8Array;
   /** Mark cookies Secure: true when people reach the app over HTTPS. */
   secureCookies: boolean;
-  mailer: Mailer;
   /** The address people open, for links in e-mails, e.g. http://127.0.0.1:4280. */
   publicUrl: string;
   /** Where the local mail catcher keeps messages; absent when mail goes to a real server (SMTP_URL). */

@@ -5,7 +5,6 @@ import { createDb, isDatabaseUnavailable } from '@loadwright/db';
 import { pino } from 'pino';
 import { createApp } from './app';
 import { ConfigError, loadConfig, type Config } from '@loadwright/runtime';
-import { createMailer } from '@loadwright/mail';
 import { logSerializers, stopWithParent } from '@loadwright/runtime';
 
 const repoRoot = resolve(import.meta.dirname, '../../..');
@@ -14,8 +13,6 @@ const repoRoot = resolve(import.meta.dirname, '../../..');
 export async function startServer(config: Config) {
   const logger = pino({ level: config.LOG_LEVEL, name: 'api', serializers: logSerializers });
   if (!config.DATABASE_URL) throw new ConfigError('Invalid configuration:\n  DATABASE_URL is required by the API (npm start sets it)');
-  if (!config.SMTP_URL)
-    throw new ConfigError('Invalid configuration:\n  SMTP_URL is required by the API (npm start runs a local mail catcher and sets it)');
   let secret = config.SESSION_SECRET;
   if (!secret) {
     logger.warn('SESSION_SECRET is not set: using a random one, so sessions end when this process restarts');
@@ -35,7 +32,6 @@ export async function startServer(config: Config) {
     logger,
     sessionSecret: new TextEncoder().encode(secret),
     secureCookies: publicUrl.startsWith('https:'),
-    mailer: createMailer(config.SMTP_URL, config.MAIL_FROM),
     publicUrl,
     outboxFolder: config.OUTBOX_FOLDER,
     webDist: resolve(repoRoot, config.WEB_DIST),

@@ -18,3 +18,4 @@ export * from './hierarchy';
 export * from './temperature-forecasts';
 export * from './validation-messages';
 export * from './organisation';
+export * from './misses';

@@ -15,6 +15,9 @@ export const personSchema = z.object({
   lastSignInAt: z.iso.datetime().nullable(),
 });
 
+/** The answer to an invite: the person, and whether the invitation mail is on its way or delayed. */
+export const inviteResponseSchema = personSchema.extend({ mailNotice: z.string() });
+
 /** POST /api/people: invite someone by e-mail. */
 export const inviteRequestSchema = z.object({
   email: emailSchema,
@@ -29,5 +32,6 @@ export const updatePersonRequestSchema = z
   .refine((value) => Object.keys(value).length > 0, 'Send at least one of role, active, displayName');
 
 export type Person = z.infer<typeof personSchema>;
+export type InviteResponse = z.infer<typeof inviteResponseSchema>;
 export type InviteRequest = z.infer<typeof inviteRequestSchema>;
 export type UpdatePersonRequest = z.infer<typeof updatePersonRequestSchema>;

@@ -5,3 +5,4 @@ export * from './types';
 export { createDb, schema, type CreateDbOptions, type Database, type DbHandle } from './client';
 export { migrate, migrationsFolder } from './migrate';
 export { isDatabaseUnavailable } from './connection-errors';
+export { insertJobs } from './job-insert';

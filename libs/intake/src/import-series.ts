@@ -12,6 +12,7 @@ import { screenInstants } from './rules/instant-screen';
 import type { SeriesReadings } from './series-readings';
 import { validateSeries } from './validate-series';
 import { writeFindings } from './write-findings';
+import { enqueueDetection } from '@loadwright/misses';
 import { writeObservations, type SqlExecutor, type WriteCounts } from './write-observations';
 
 /** The series a batch belongs to, as the catalogue describes it. */
@@ -94,6 +95,8 @@ export async function storeSeries(
   options: Pick<ImportSeriesOptions, 'uploadId' | 'onRows'>,
 ): Promise<ImportSeriesResult> {
   const counts = await writeObservations(executor, seriesId, options.uploadId, validated.rows, options.onRows);
+  // New or corrected actuals are judged against the forecast at once; the job commits with them.
+  if (counts.inserted + counts.revised > 0) await enqueueDetection(executor, [seriesId]);
   if (options.uploadId !== null) await writeFindings(executor, options.uploadId, validated.findings);
   const tally = new FindingTally();
   for (const finding of validated.findings) tally.add(finding);

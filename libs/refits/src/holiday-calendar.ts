@@ -57,7 +57,8 @@ const cache = new WeakMap<object, { at: number; spec: HolidaySpec | null }>();
 
 /**
  * The calendar as the engine wants it: the package's public days of the country/region plus every day
- * in the table as extra dates (manual days included). Null without a holiday country.
+ * in the table as extra dates (manual days included), less the package's days of seeded years that a
+ * planner removed from the table (a removed public holiday stops counting). Null without a holiday country.
  */
 export async function readHolidaySpec(db: Queryable): Promise<HolidaySpec | null> {
   const cached = cache.get(db);
@@ -65,11 +66,16 @@ export async function readHolidaySpec(db: Queryable): Promise<HolidaySpec | null
   const place = await readHolidayPlace(db);
   let spec: HolidaySpec | null = null;
   if (place.country) {
-    const { rows } = await db.query({ text: `select to_char(day, 'YYYY-MM-DD') as day from holidays order by day` });
+    const { rows } = await db.query({ text: `select to_char(day, 'YYYY-MM-DD') as day, source from holidays order by day` });
+    const days = rows as Array<{ day: string; source: string }>;
+    const inTable = new Set(days.map((r) => r.day));
+    const seededYears = [...new Set(days.filter((r) => r.source === 'package').map((r) => Number(r.day.slice(0, 4))))];
+    const excludedDates = seededYears.flatMap((year) => packageHolidays(place, year).map((h) => h.day)).filter((day) => !inTable.has(day));
     spec = {
       country: place.country,
       ...(place.region ? { region: place.region } : {}),
-      extraDates: (rows as Array<{ day: string }>).map((r) => r.day),
+      extraDates: days.map((r) => r.day),
+      excludedDates,
     };
   }
   cache.set(db, { at: Date.now(), spec });

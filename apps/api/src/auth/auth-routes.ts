@@ -12,7 +12,7 @@ import { users } from '@loadwright/db';
 import type { AppContext } from '../app-context';
 import { recordAudit, type Actor } from '@loadwright/audit';
 import { HttpProblem } from '@loadwright/problems';
-import { passwordResetMessage } from '@loadwright/mail';
+import { passwordResetMessage, queueMail } from '@loadwright/mail';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
 import { clientAddress } from './client-address';
 import { issueLink, issuedRecently, linkLifetimes, redeemLink } from './one-time-links';
@@ -35,14 +35,20 @@ export function authRoutes(context: AppContext): RouteDefinition[] {
     return user;
   };
 
-  /** Issues and mails a reset link to an active account, at most one every two minutes so the form cannot flood an inbox. */
+  /**
+   * Issues a reset link to an active account and queues its mail with the audit entry in one
+   * transaction, at most one every two minutes so the form cannot flood an inbox.
+   */
   const sendResetLink = async (email: string, actor: Actor, ip: string) => {
     const user = await findUserByEmail(email);
     if (!user?.active || (await issuedRecently(db, user.id, 'password_reset', 2))) return;
-    const secret = await issueLink(db, user.id, 'password_reset', null);
-    const link = `${context.publicUrl}/set-password?token=${encodeURIComponent(secret)}`;
-    await recordAudit(db, { actor, action: 'user.password_reset_requested', targetType: 'user', targetId: user.id, ip });
-    await context.mailer.send(passwordResetMessage(user.email, user.displayName, link, linkLifetimes.password_reset));
+    await db.transaction(async (tx) => {
+      const secret = await issueLink(tx, user.id, 'password_reset', null);
+      const link = `${context.publicUrl}/set-password?token=${encodeURIComponent(secret)}`;
+      const message = passwordResetMessage(user.email, user.displayName, link, linkLifetimes.password_reset);
+      await queueMail(tx, [{ ...message, kind: 'password_reset', userId: user.id }]);
+      await recordAudit(tx, { actor, action: 'user.password_reset_requested', targetType: 'user', targetId: user.id, ip });
+    });
   };
 
   return [

@@ -11,18 +11,21 @@ export const linkLifetimes = { invite: 72 * 60, password_reset: 30 } as const sa
 
 type Purpose = keyof typeof linkLifetimes;
 
-/** Creates a link secret for a person; returns the secret to put in the URL. */
-export async function issueLink(db: Database, userId: number, purpose: Purpose, createdById: number | null): Promise<string> {
+/** Creates a link secret for a person; returns the secret to put in the URL. Call it inside the caller's transaction. */
+export async function issueLink(
+  tx: Pick<Database, 'update' | 'insert'>,
+  userId: number,
+  purpose: Purpose,
+  createdById: number | null,
+): Promise<string> {
   const { secret, hash } = newLinkSecret();
-  await db.transaction(async (tx) => {
-    await tx
-      .update(oneTimeTokens)
-      .set({ usedAt: new Date() })
-      .where(and(eq(oneTimeTokens.userId, userId), eq(oneTimeTokens.purpose, purpose), isNull(oneTimeTokens.usedAt)));
-    await tx
-      .insert(oneTimeTokens)
-      .values({ userId, purpose, tokenHash: hash, createdById, expiresAt: new Date(Date.now() + linkLifetimes[purpose] * 60_000) });
-  });
+  await tx
+    .update(oneTimeTokens)
+    .set({ usedAt: new Date() })
+    .where(and(eq(oneTimeTokens.userId, userId), eq(oneTimeTokens.purpose, purpose), isNull(oneTimeTokens.usedAt)));
+  await tx
+    .insert(oneTimeTokens)
+    .values({ userId, purpose, tokenHash: hash, createdById, expiresAt: new Date(Date.now() + linkLifetimes[purpose] * 60_000) });
   return secret;
 }
 

@@ -1,10 +1,10 @@
-/** The Outbox (admins, development): what the local mail catcher received. */
-import { outboxMessageSchema, outboxSummarySchema } from '@loadwright/contracts';
+/** The Outbox (admins): the sent-mail log of everything the product sends, and what the local mail catcher received. */
+import { mailLogQuerySchema, mailLogSchema, outboxMessageSchema, outboxSummarySchema } from '@loadwright/contracts';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
 import { HttpProblem } from '@loadwright/problems';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
-import { listCaughtMail, readCaughtMail } from '@loadwright/mail';
+import { listCaughtMail, listMailLog, mailDelivery, readCaughtMail } from '@loadwright/mail';
 import { createRepeatDamper, recordAudit, type Actor, type AuditEntry } from '@loadwright/audit';
 import { clientAddress } from '../auth/client-address';
 
@@ -35,6 +35,31 @@ export function outboxRoutes({ outboxFolder, db }: AppContext): RouteDefinition[
     return outboxFolder;
   };
   return [
+    defineRoute({
+      method: 'get',
+      path: '/mail-log',
+      access: 'admin.outbox',
+      tag: 'Outbox',
+      summary: 'The sent-mail log: every message sent, still queued (with why the last attempt failed) or failed, newest first',
+      query: mailLogQuerySchema,
+      response: mailLogSchema,
+      handler: async ({ query }) => {
+        const delivery = await mailDelivery(db);
+        const rows = await listMailLog(db, query);
+        return {
+          delayed: delivery.delayed,
+          delayNotice: delivery.delayed
+            ? `The mail server has not accepted mail since ${delivery.since?.toISOString() ?? 'recently'} (${delivery.lastError ?? 'no answer'}). Queued mail is retried automatically.`
+            : null,
+          entries: rows.map((row) => ({
+            ...row,
+            queuedAt: row.queuedAt.toISOString(),
+            lastAttemptAt: row.lastAttemptAt?.toISOString() ?? null,
+            sentAt: row.sentAt?.toISOString() ?? null,
+          })),
+        };
+      },
+    }),
     defineRoute({
       method: 'get',
       path: '/outbox',

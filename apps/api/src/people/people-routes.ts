@@ -1,7 +1,14 @@
 /** The People page's API (admins): list, invite, change role, deactivate and reactivate, resend invites. */
 import { and, asc, eq, ne, sql } from 'drizzle-orm';
-import { inviteRequestSchema, messageResponseSchema, personSchema, updatePersonRequestSchema, idParamsSchema } from '@loadwright/contracts';
-import { users } from '@loadwright/db';
+import {
+  idParamsSchema,
+  inviteRequestSchema,
+  inviteResponseSchema,
+  messageResponseSchema,
+  personSchema,
+  updatePersonRequestSchema,
+} from '@loadwright/contracts';
+import { users, type Database } from '@loadwright/db';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
 import type { Actor } from '@loadwright/audit';
@@ -11,7 +18,7 @@ import { issueLink, linkLifetimes } from '../auth/one-time-links';
 import { revokeSessionsOf } from '../auth/session-service';
 import { HttpProblem } from '@loadwright/problems';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
-import { inviteMessage } from '@loadwright/mail';
+import { inviteMessage, mailDelivery, mailNotice, queueMail, type MailWriter } from '@loadwright/mail';
 
 const idParams = idParamsSchema;
 
@@ -34,11 +41,13 @@ function toPerson(user: UserRow) {
 export function peopleRoutes(context: AppContext): RouteDefinition[] {
   const { db } = context;
 
-  const sendInvite = async (user: UserRow, actor: Actor) => {
-    const secret = await issueLink(db, user.id, 'invite', actor.kind === 'user' ? actor.userId : null);
+  /** Issues a fresh link and queues its mail, in the caller's transaction (the mail exists exactly when the link does). */
+  const queueInvite = async (tx: MailWriter & Pick<Database, 'update'>, user: UserRow, actor: Actor) => {
+    const secret = await issueLink(tx, user.id, 'invite', actor.kind === 'user' ? actor.userId : null);
     const link = `${context.publicUrl}/set-password?token=${encodeURIComponent(secret)}`;
     const invitedBy = actor.kind === 'user' ? actor.displayName : 'An administrator';
-    await context.mailer.send(inviteMessage(user.email, user.displayName, invitedBy, link, linkLifetimes.invite / 60));
+    const message = inviteMessage(user.email, user.displayName, invitedBy, link, linkLifetimes.invite / 60);
+    await queueMail(tx, [{ ...message, kind: 'invite', userId: user.id }]);
   };
 
   return [
@@ -56,9 +65,9 @@ export function peopleRoutes(context: AppContext): RouteDefinition[] {
       path: '/people',
       access: 'admin.people',
       tag: 'People',
-      summary: 'Invite someone: creates the account and e-mails a one-time set-password link',
+      summary: 'Invite someone: creates the account and queues an e-mail with a one-time set-password link',
       body: inviteRequestSchema,
-      response: personSchema,
+      response: inviteResponseSchema,
       status: 201,
       handler: async ({ body, actor, req }) => {
         const [existing] = await db
@@ -82,10 +91,10 @@ export function peopleRoutes(context: AppContext): RouteDefinition[] {
             detail: { email: body.email, role: body.role },
             ip: clientAddress(req),
           });
-          return row;
+          await queueInvite(tx, row!, actor);
+          return row!;
         });
-        await sendInvite(user!, actor);
-        return toPerson(user!);
+        return { ...toPerson(user), mailNotice: mailNotice(await mailDelivery(db), 'The invitation', user.email) };
       },
     }),
     defineRoute({
@@ -149,9 +158,11 @@ export function peopleRoutes(context: AppContext): RouteDefinition[] {
         if (!user) throw new HttpProblem('notFound', `No person with id ${params.id}.`);
         if (user.passwordHash !== null)
           throw new HttpProblem('conflict', `${user.displayName} has already set a password; they can use "Forgot password" instead.`);
-        await sendInvite(user, actor);
-        await recordAudit(db, { actor, action: 'user.invite_resent', targetType: 'user', targetId: user.id, ip: clientAddress(req) });
-        return { message: `A new invite link was sent to ${user.email}.` };
+        await db.transaction(async (tx) => {
+          await queueInvite(tx, user, actor);
+          await recordAudit(tx, { actor, action: 'user.invite_resent', targetType: 'user', targetId: user.id, ip: clientAddress(req) });
+        });
+        return { message: mailNotice(await mailDelivery(db), 'A new invite link', user.email) };
       },
     }),
   ];

@@ -13,10 +13,17 @@ const sectionPages: Readonly<Record<string, () => Promise<Type<unknown>>>> = {
   'api-tokens': () => import('./api-tokens/api-tokens').then((m) => m.ApiTokens),
   'audit-log': () => import('./audit-log/audit-log').then((m) => m.AuditLog),
   outbox: () => import('./outbox/outbox').then((m) => m.Outbox),
+  misses: () => import('./misses/misses').then((m) => m.Misses),
+  settings: () => import('./settings/settings').then((m) => m.Settings),
 };
 
 /** Extra paths under a section (e.g. one Outbox message), served by the section's own page. */
-const sectionSubpaths: Readonly<Record<string, readonly string[]>> = { outbox: [':id'], uploads: [':id'], series: [':id'] };
+const sectionSubpaths: Readonly<Record<string, readonly string[]>> = {
+  outbox: [':id'],
+  uploads: [':id'],
+  series: [':id'],
+  misses: [':id'],
+};
 
 /** Extra paths served by a page of their own instead of the section's (e.g. one series), by full path. */
 const subpathPages: Readonly<Record<string, () => Promise<Type<unknown>>>> = {

@@ -15,3 +15,4 @@ export * from './forecasts';
 export * from './misses';
 export * from './workers';
 export * from './reconciliations';
+export * from './mail';

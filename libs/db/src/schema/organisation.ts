@@ -25,6 +25,10 @@ export const organisation = pgTable(
     name: text('name').notNull(),
     timeZone: text('time_zone').notNull().default('UTC'),
     refitHour: smallint('refit_hour').notNull().default(2),
+    /** Minutes after local midnight by which each day's forecasts must be written (07:00 by default). */
+    forecastDeadlineMinute: smallint('forecast_deadline_minute').notNull().default(420),
+    /** Local hour at which the daily digest of misses is e-mailed. */
+    digestHour: smallint('digest_hour').notNull().default(7),
     holidayCountry: text('holiday_country'),
     holidayRegion: text('holiday_region'),
     alertDefaults: jsonb('alert_defaults')
@@ -38,5 +42,7 @@ export const organisation = pgTable(
   (t) => [
     check('organisation_singleton_check', sql`${t.singleton}`),
     check('organisation_refit_hour_check', sql`${t.refitHour} between 0 and 23`),
+    check('organisation_forecast_deadline_check', sql`${t.forecastDeadlineMinute} between 0 and 1439`),
+    check('organisation_digest_hour_check', sql`${t.digestHour} between 0 and 23`),
   ],
 );

@@ -20,6 +20,12 @@ describe('holidayDates', () => {
     expect(() => holidayDates({ country: 'US', region: 'ZZ', extraDates: [] }, [2024])).toThrow(/region/);
     expect(() => holidayDates({ country: 'US', extraDates: ['4 July'] }, [2024])).toThrow(/YYYY-MM-DD/);
   });
+
+  it('drops a public holiday the organisation removed, unless it is also listed as its own day', () => {
+    // Independence Day 2024 is a US public holiday in date-holidays; excluded, it no longer counts.
+    expect(holidayDates({ country: 'US', extraDates: [], excludedDates: ['2024-07-04'] }, [2024]).has('2024-07-04')).toBe(false);
+    expect(holidayDates({ country: 'US', extraDates: ['2024-07-04'], excludedDates: ['2024-07-04'] }, [2024]).has('2024-07-04')).toBe(true);
+  });
 });
 
 describe('day types', () => {

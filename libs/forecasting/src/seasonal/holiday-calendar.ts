@@ -9,6 +9,8 @@ export interface HolidaySpec {
   region?: string;
   /** Extra local dates (YYYY-MM-DD) treated as holidays: plant shutdowns, bridge days, local events. */
   extraDates: string[];
+  /** Public holidays of the package that do not count (removed from the organisation's calendar). */
+  excludedDates?: string[];
 }
 
 const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/;
@@ -31,6 +33,7 @@ export function holidayDates(spec: HolidaySpec, years: Iterable<number>): Set<st
     }
     dates.add(extra);
   }
+  for (const excluded of spec.excludedDates ?? []) if (!spec.extraDates.includes(excluded)) dates.delete(excluded);
   return dates;
 }
 

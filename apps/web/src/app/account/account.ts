@@ -5,16 +5,19 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
+import { FormsModule } from '@angular/forms';
+import type { MissMailChoice } from '@loadwright/contracts';
 import { Router } from '@angular/router';
 import { SessionStore } from '../core/auth/session-store';
 import { ApiProblem, problemMessage } from '../core/problems/api-problem';
 import { applyFieldErrors, serverError } from '../core/problems/field-errors';
 import { MINIMUM_PASSWORD_LENGTH, matchingPasswords } from '../set-password/password-rules';
 
-/** Your account: who you are signed in as, change your own password, sign out. */
+/** Your account: who you are signed in as, how you hear about misses, change your own password, sign out. */
 @Component({
   selector: 'lw-account',
-  imports: [ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatInputModule, MatIconModule],
+  imports: [ReactiveFormsModule, FormsModule, MatSelectModule, MatButtonModule, MatFormFieldModule, MatInputModule, MatIconModule],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './account.html',
   styleUrl: './account.scss',
@@ -45,6 +48,24 @@ export class Account {
   protected readonly problem = signal<string | null>(null);
   /** The server's message on a control, for the template. */
   protected readonly serverError = serverError;
+
+  /** How this person hears about misses, as stored. */
+  protected readonly missMail = signal<MissMailChoice['missMail'] | null>(null);
+  /** What saving the choice said. */
+  protected readonly missMailDone = signal<string | null>(null);
+
+  constructor() {
+    this.http.get<MissMailChoice>('/api/account/miss-mail').subscribe({ next: ({ missMail }) => this.missMail.set(missMail) });
+  }
+
+  /** Saves how this person hears about misses. */
+  protected chooseMissMail(missMail: MissMailChoice['missMail']): void {
+    this.missMail.set(missMail);
+    this.http.put<MissMailChoice>('/api/account/miss-mail', { missMail }).subscribe({
+      next: () => this.missMailDone.set('Saved: miss e-mail follows your choice from now on.'),
+      error: (error: unknown) => this.missMailDone.set(problemMessage(error)),
+    });
+  }
 
   /** Changes the password; the API signs out every other session of this person. */
   protected changePassword(): void {

@@ -1,12 +1,17 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import type { OutboxMessage, OutboxSummary } from '@loadwright/contracts';
+import type { MailLog, OutboxMessage, OutboxSummary } from '@loadwright/contracts';
 import type { Observable } from 'rxjs';
 
-/** The Outbox API (admins, development): messages the local mail catcher received. */
+/** The Outbox API (admins): the sent-mail log, and the messages the local mail catcher received (development). */
 @Injectable({ providedIn: 'root' })
 export class OutboxClient {
   private readonly http = inject(HttpClient);
+
+  /** The sent-mail log: what was sent, what is queued (and why it waits), what failed. */
+  mailLog(): Observable<MailLog> {
+    return this.http.get<MailLog>('/api/mail-log');
+  }
 
   /** Every caught message, newest first, without bodies. */
   list(): Observable<OutboxSummary[]> {

@@ -10,11 +10,12 @@ import { type HealthReading, databaseLine, queueLine, verdictOf, workersLine } f
 import { ComponentStatus } from './component-status';
 import { RefitStatus } from './refit-status';
 import { SystemPeak } from './system-peak';
+import { OpenMisses } from './open-misses';
 
 /** The Overview: the night's refits and the week's system peak, then service health, each kept live while the page is open. */
 @Component({
   selector: 'lw-overview',
-  imports: [DatePipe, MatButtonModule, MatIconModule, ComponentStatus, RefitStatus, SystemPeak],
+  imports: [DatePipe, MatButtonModule, MatIconModule, ComponentStatus, RefitStatus, SystemPeak, OpenMisses],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './overview.html',
   styleUrl: './overview.scss',

@@ -6,7 +6,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
-import { type Person, type Role, roles } from '@loadwright/contracts';
+import { type InviteResponse, type Role, roles } from '@loadwright/contracts';
 import { ApiProblem, problemMessage } from '../core/problems/api-problem';
 import { applyFieldErrors, serverError } from '../core/problems/field-errors';
 import { PeopleClient } from './people-client';
@@ -92,7 +92,7 @@ import { ROLE_DESCRIPTIONS } from './person-status';
 })
 export class InviteDialog {
   private readonly people = inject(PeopleClient);
-  private readonly dialogRef = inject<MatDialogRef<InviteDialog, Person>>(MatDialogRef);
+  private readonly dialogRef = inject<MatDialogRef<InviteDialog, InviteResponse>>(MatDialogRef);
 
   /** The invite form; new people start as viewers, the role with least reach. */
   protected readonly form = inject(NonNullableFormBuilder).group({

@@ -1,6 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import type { InviteRequest, Person, UpdatePersonRequest } from '@loadwright/contracts';
+import type { InviteRequest, InviteResponse, Person, UpdatePersonRequest } from '@loadwright/contracts';
 import type { Observable } from 'rxjs';
 
 /** The People API (admins). Failures arrive as ApiProblem from the problem interceptor. */
@@ -13,9 +13,9 @@ export class PeopleClient {
     return this.http.get<Person[]>('/api/people');
   }
 
-  /** Creates the account and e-mails a one-time set-password link. */
-  invite(request: InviteRequest): Observable<Person> {
-    return this.http.post<Person>('/api/people', request);
+  /** Creates the account and queues an e-mail with a one-time set-password link; says whether mail is on its way or delayed. */
+  invite(request: InviteRequest): Observable<InviteResponse> {
+    return this.http.post<InviteResponse>('/api/people', request);
   }
 
   /** Changes role, name or active state; role changes and deactivation end the person's sessions. */

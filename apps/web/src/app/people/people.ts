@@ -4,7 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatSelect, MatSelectModule } from '@angular/material/select';
-import { type Person, type Role, roles } from '@loadwright/contracts';
+import { type InviteResponse, type Person, type Role, roles } from '@loadwright/contracts';
 import { filter, switchMap } from 'rxjs';
 import { SessionStore } from '../core/auth/session-store';
 import { problemMessage } from '../core/problems/api-problem';
@@ -53,12 +53,12 @@ export class People {
   /** Opens the invite dialog and adds the invited person to the list. */
   protected openInvite(): void {
     this.dialog
-      .open<InviteDialog, void, Person>(InviteDialog, { width: '480px', autoFocus: 'first-tabbable' })
+      .open<InviteDialog, void, InviteResponse>(InviteDialog, { width: '480px', autoFocus: 'first-tabbable' })
       .afterClosed()
-      .pipe(filter((person): person is Person => !!person))
-      .subscribe((person) => {
+      .pipe(filter((invited): invited is InviteResponse => !!invited))
+      .subscribe(({ mailNotice, ...person }) => {
         this.replace(person);
-        this.report(`Invite sent to ${person.email}.`);
+        this.report(mailNotice);
       });
   }
 

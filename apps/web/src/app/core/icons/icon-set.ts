@@ -17,6 +17,7 @@ import archiveSvg from '@material-symbols/svg-400/outlined/archive.svg';
 import arrowBackSvg from '@material-symbols/svg-400/outlined/arrow_back.svg';
 import blockSvg from '@material-symbols/svg-400/outlined/block.svg';
 import checkCircleSvg from '@material-symbols/svg-400/outlined/check_circle.svg';
+import chevronLeftSvg from '@material-symbols/svg-400/outlined/chevron_left.svg';
 import chevronRightSvg from '@material-symbols/svg-400/outlined/chevron_right.svg';
 import closeSvg from '@material-symbols/svg-400/outlined/close.svg';
 import cloudOffSvg from '@material-symbols/svg-400/outlined/cloud_off.svg';
@@ -82,6 +83,7 @@ export const iconSet: Readonly<Record<string, string>> = {
   arrow_back: arrowBackSvg,
   block: blockSvg,
   check_circle: checkCircleSvg,
+  chevron_left: chevronLeftSvg,
   chevron_right: chevronRightSvg,
   close: closeSvg,
   cloud_off: cloudOffSvg,

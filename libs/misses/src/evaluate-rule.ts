@@ -1,0 +1,41 @@
+/** One entry point for every kind: what a rule finds in one series' hours. */
+import { actualsLate, estimatedHours, forecastLate } from './operational-misses';
+import { creepingBias } from './creeping-bias';
+import { dailyPeakMissed } from './daily-peak-missed';
+import { errorOverThreshold } from './error-over-threshold';
+import type { HourPoint, MissHit, SeriesFacts } from './hour-point';
+import { outsideBand } from './outside-band';
+import type { RuleSettings } from './rule-kinds';
+
+/** Everything a rule may look at for one series. */
+export interface EvaluationInput {
+  /** Hourly actual-against-forecast points, any order. */
+  points: readonly HourPoint[];
+  series: SeriesFacts & { intervalMinutes: number };
+  now: Date;
+  /** Start of the newest interval with an actual. */
+  lastActualTs: Date | null;
+  /** When the series' newest forecast version was issued. */
+  latestIssuedAt: Date | null;
+  organisation: { timeZone: string; forecastDeadlineMinute: number };
+}
+
+/** The misses `rule` finds in `input`. Pure: the same input always gives the same hits. */
+export function evaluateRule(rule: RuleSettings, input: EvaluationInput): MissHit[] {
+  switch (rule.kind) {
+    case 'outside_band':
+      return outsideBand(input.points, rule, input.series);
+    case 'error_over_threshold':
+      return errorOverThreshold(input.points, rule, input.series);
+    case 'daily_peak_missed':
+      return dailyPeakMissed(input.points, rule, input.series);
+    case 'creeping_bias':
+      return creepingBias(input.points, rule, input.series);
+    case 'actuals_late':
+      return actualsLate(input.lastActualTs, input.series.intervalMinutes, input.now, rule);
+    case 'forecast_late':
+      return forecastLate(input.latestIssuedAt, input.now, input.organisation.timeZone, input.organisation.forecastDeadlineMinute);
+    case 'estimated_hours':
+      return estimatedHours(input.points, rule, input.series.timeZone);
+  }
+}
