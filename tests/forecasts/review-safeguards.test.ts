@@ -184,7 +184,7 @@ describe('adjustment limits', () => {
       (typed.body.errors as { pointer: string; detail: string }[]).map((error) => [error.pointer, error.detail]),
     );
     expect(details).toEqual({
-      '/from': 'Give a date and time in ISO 8601 with its offset, such as 2026-12-03T06:00:00Z',
+      '/from': 'Write the time as ISO 8601, e.g. 2026-03-01T06:00:00Z',
       '/to': 'Give a value: this field is required',
       '/kind': 'Choose one of "shift", "scale"',
       '/amount': 'Give a number',

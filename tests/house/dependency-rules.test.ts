@@ -24,6 +24,8 @@ async function cruise(root: string, folders: string[]): Promise<{ violations: Vi
   const run = (outputType: string) =>
     promisify(execFile)(process.execPath, [cruiser, '--config', '.dependency-cruiser.cjs', '--output-type', outputType, ...folders], {
       cwd: root,
+      // The JSON report of the whole workspace runs to a few megabytes; execFile's default cap is 1 MiB.
+      maxBuffer: 64 * 1024 * 1024,
     }).then(
       (done) => ({ stdout: done.stdout, exitCode: 0 }),
       (failed: { stdout: string; code: number }) => ({ stdout: failed.stdout, exitCode: failed.code }),

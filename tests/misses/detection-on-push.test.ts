@@ -2,11 +2,10 @@
  * Detection runs as actuals are stored: a push through the API adds a detection job in the same
  * transaction, the worker judges the series, and a miss appears; the hourly schedule is registered.
  */
-import { apiTokens } from '@loadwright/db';
 import { detectMissesHourlyQueue, detectionCron } from '@loadwright/misses';
 import request from 'supertest';
 import { afterAll, beforeAll, expect, it } from 'vitest';
-import { newApiTokenSecret } from '../../apps/api/src/auth/api-token-secret';
+import { createTokens } from '../series/support/tokens';
 import { startTestServer, type TestServer } from '../support/server';
 import { approvedForecast, eventsOf, loadSeries, seriesRule } from './support';
 
@@ -23,8 +22,8 @@ it('finds a miss in pushed actuals without anyone asking, and has the hourly sch
   const origin = new Date(hour - 48 * 3_600_000).toISOString();
   await approvedForecast(server.db, seriesId, origin, 96);
   const ruleId = await seriesRule(server.db, seriesId, { kind: 'outside_band', hours: 2, bandLevel: 95 });
-  const { token, prefix, hash } = newApiTokenSecret();
-  await server.db.insert(apiTokens).values({ name: 'SCADA bridge', prefix, secretHash: hash, scope: 'read-write' });
+  // A token acts for its creator, so it comes from the shared helper that makes one with an active admin.
+  const token = (await createTokens(server.db)).readWrite;
 
   // Ten hours ago: 100, 150, 150 (two hours above the [90, 110] band).
   const readings = [100, 150, 150].map((value, i) => ({ ts: new Date(hour - (10 - i) * 3_600_000).toISOString(), value }));

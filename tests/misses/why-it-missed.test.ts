@@ -5,11 +5,11 @@
  * forecast's (6 °F × 0.5 MW/°F) and 1 MW is model error.
  */
 import { eq } from 'drizzle-orm';
-import { apiTokens, fits, forecastVersions, holidays, observations, organisation, series } from '@loadwright/db';
+import { fits, forecastVersions, holidays, observations, organisation, series } from '@loadwright/db';
 import { detectMisses, explainEvent } from '@loadwright/misses';
 import request from 'supertest';
 import { afterAll, beforeAll, expect, it } from 'vitest';
-import { newApiTokenSecret } from '../../apps/api/src/auth/api-token-secret';
+import { createTokens } from '../series/support/tokens';
 import { writeDraftVersion } from '../forecasts/support/draft-versions';
 import { startTestServer, type TestServer } from '../support/server';
 import { actuals, eventsOf, seriesRule } from './support';
@@ -19,9 +19,8 @@ let token: string;
 
 beforeAll(async () => {
   server = await startTestServer({ worker: false });
-  const secret = newApiTokenSecret();
-  await server.db.insert(apiTokens).values({ name: 'weather feed', prefix: secret.prefix, secretHash: secret.hash, scope: 'read-write' });
-  token = secret.token;
+  // A token acts for its creator, so it comes from the shared helper that makes one with an active admin.
+  token = (await createTokens(server.db)).readWrite;
 });
 afterAll(() => server.close());
 

@@ -46,10 +46,19 @@ function yearOf(value: string): number {
 
 const yearMessage = `Use a year from ${yearRange.min} to ${yearRange.max}`;
 
+/**
+ * A field's own message for a value in the wrong form, leaving a missing value to the app's message
+ * map ("this field is required"), and a value in the wrong form to this one message only: the year
+ * check below skips what is not a date at all.
+ */
+function unlessMissing(message: string) {
+  return (issue: { input?: unknown }) => (issue.input === undefined ? undefined : message);
+}
+
 /** A calendar date YYYY-MM-DD in the years Loadwright accepts. */
 export const calendarDateSchema = z.iso
-  .date('Write the date as YYYY-MM-DD')
-  .refine((value) => yearOf(value) >= yearRange.min && yearOf(value) <= yearRange.max, yearMessage);
+  .date({ error: unlessMissing('Write the date as YYYY-MM-DD') })
+  .refine((value) => !/^\d{4}-\d{2}-\d{2}$/.test(value) || (yearOf(value) >= yearRange.min && yearOf(value) <= yearRange.max), yearMessage);
 
 /** True when an ISO 8601 instant falls in `yearRange`. */
 export function isWithinYearRange(value: string): boolean {
@@ -60,8 +69,8 @@ export function isWithinYearRange(value: string): boolean {
 /** An ISO 8601 instant (`Z`, or with `offset: true` any offset) in the years Loadwright accepts. */
 export function instantSchema(options: { offset?: boolean } = {}) {
   return z.iso
-    .datetime({ offset: options.offset ?? false, message: 'Write the time as ISO 8601, e.g. 2026-03-01T06:00:00Z' })
-    .refine(isWithinYearRange, yearMessage);
+    .datetime({ offset: options.offset ?? false, error: unlessMissing('Write the time as ISO 8601, e.g. 2026-03-01T06:00:00Z') })
+    .refine((value) => Number.isNaN(Date.parse(value)) || isWithinYearRange(value), yearMessage);
 }
 
 /**

@@ -1,5 +1,6 @@
 /** Misses (events, rules, the Overview's summary), the organisation's settings and each person's miss e-mail choice. */
 import { z } from 'zod';
+import { digitsSchema, instantSchema, recordIdSchema } from './input';
 import { seriesLevels } from './series';
 
 export const missRuleKinds = [
@@ -44,9 +45,9 @@ export const missListQuerySchema = z.object({
   level: z.enum(seriesLevels).optional(),
   severity: z.enum(missSeverities).optional(),
   state: z.enum(missStates).optional(),
-  from: z.iso.datetime({ offset: true }).optional(),
-  to: z.iso.datetime({ offset: true }).optional(),
-  limit: z.coerce.number().int().min(1).max(500).default(100),
+  from: instantSchema({ offset: true }).optional(),
+  to: instantSchema({ offset: true }).optional(),
+  limit: digitsSchema(1, 500).default(100),
 });
 
 /** One hour of a miss's evidence. */
@@ -161,7 +162,7 @@ export const missRuleCreateSchema = z.object({
   kind: z.enum(missRuleKinds),
   scope: z.enum(['level', 'series']),
   scopeLevel: z.enum(seriesLevels).optional(),
-  scopeSeriesId: z.number().int().positive().optional(),
+  scopeSeriesId: recordIdSchema.optional(),
   hours: z.number().int().min(1).max(168).default(1),
   threshold: z.number().positive().nullable().default(null),
   bandLevel: z.number().int().min(1).max(99).nullable().default(null),

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { digitsSchema } from './input';
 
 /** A message the local mail catcher received, as listed on the Outbox page. */
 export const outboxSummarySchema = z.object({
@@ -37,7 +38,7 @@ export const mailLogEntrySchema = z.object({
 /** GET /api/mail-log query. */
 export const mailLogQuerySchema = z.object({
   status: z.enum(mailStatuses).optional(),
-  limit: z.coerce.number().int().min(1).max(500).default(100),
+  limit: digitsSchema(1, 500).default(100),
 });
 
 /** The log with a line on whether delivery is delayed. */

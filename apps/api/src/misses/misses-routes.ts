@@ -1,5 +1,6 @@
 /** The Misses page's API, the Overview's miss summary, the miss rules, the organisation's settings and each person's miss e-mail choice. */
 import {
+  idParamsSchema,
   messageResponseSchema,
   missCommentRequestSchema,
   missDetailSchema,
@@ -36,7 +37,7 @@ import type { AppContext } from '../app-context';
 import { clientAddress } from '../auth/client-address';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
 
-const idParams = z.object({ id: z.coerce.number().int().positive() });
+const idParams = idParamsSchema;
 
 /** The routes under /api/misses, /api/miss-rules, /api/settings and /api/account/miss-mail. */
 export function missesRoutes({ db }: AppContext): RouteDefinition[] {
