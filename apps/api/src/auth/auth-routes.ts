@@ -41,8 +41,11 @@ export function authRoutes(context: AppContext): RouteDefinition[] {
    */
   const sendResetLink = async (email: string, actor: Actor, ip: string) => {
     const user = await findUserByEmail(email);
-    if (!user?.active || (await issuedRecently(db, user.id, 'password_reset', 2))) return;
+    if (!user?.active) return;
     await db.transaction(async (tx) => {
+      // Two requests at once must not both pass the two-minute check: one waits for the other's link.
+      await tx.execute(sql`select pg_advisory_xact_lock(hashtext('password-reset'), ${user.id})`);
+      if (await issuedRecently(tx, user.id, 'password_reset', 2)) return;
       const secret = await issueLink(tx, user.id, 'password_reset', null);
       const link = `${context.publicUrl}/set-password?token=${encodeURIComponent(secret)}`;
       const message = passwordResetMessage(user.email, user.displayName, link, linkLifetimes.password_reset);

@@ -40,7 +40,7 @@ export async function redeemLink(db: Pick<Database, 'update'>, secret: string): 
 }
 
 /** True when a link of this purpose was issued to the person within the last `minutes`. */
-export async function issuedRecently(db: Database, userId: number, purpose: Purpose, minutes: number): Promise<boolean> {
+export async function issuedRecently(db: Pick<Database, 'select'>, userId: number, purpose: Purpose, minutes: number): Promise<boolean> {
   const rows = await db
     .select({ id: oneTimeTokens.id })
     .from(oneTimeTokens)
