@@ -145,8 +145,8 @@ describe('uploads', () => {
     expect(csv.status).toBe(200);
     expect(csv.headers['content-type']).toMatch(/^text\/csv/);
     const lines = csv.text.trim().split('\r\n');
-    expect(lines[0]).toBe('"rule","series","ts","value","source_row","detail"');
-    expect(lines[1]).toBe(`"unknown_series",,,,2,"{""key"":""=HYPERLINK(\\""x\\"")"",""column"":""feeder""}"`);
+    expect(lines[0]).toBe('rule,series,ts,value,source_row,detail');
+    expect(lines[1]).toBe(`unknown_series,,,,2,"{""key"":""=HYPERLINK(\\""x\\"")"",""column"":""feeder""}"`);
   });
 
   it('refuses an upload from a viewer', async () => {

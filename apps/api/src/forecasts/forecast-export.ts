@@ -23,7 +23,7 @@ import { forecastVersions, type Database } from '@loadwright/db';
 import { and, eq, inArray } from 'drizzle-orm';
 import type { Response } from 'express';
 import { adjustPoints } from '@loadwright/forecasts';
-import { csvLine, numberCell, textCell } from './csv-cells';
+import { csvLine, numberCell, textCell } from '../http/csv-cells';
 import { adjustmentsOf, pointsOf } from '@loadwright/forecasts';
 import { localIso } from '@loadwright/forecasts';
 import { resolveSeriesScope } from '@loadwright/forecasts';

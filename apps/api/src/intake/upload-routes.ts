@@ -30,7 +30,7 @@ import { clientAddress } from '../auth/client-address';
 import { recordAudit } from '@loadwright/audit';
 import { HttpProblem } from '@loadwright/problems';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
-import { csvLine, csvNumber, csvText } from './csv-cell';
+import { csvLine, numberCell, textCell } from '../http/csv-cells';
 import { sniffFile } from '@loadwright/intake';
 import { hashingDiskStorage, type StoredFile } from './hashing-disk-storage';
 import { planImport } from '@loadwright/intake';
@@ -346,17 +346,17 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
         res.status(200);
         res.setHeader('Content-Type', 'text/csv; charset=utf-8');
         res.setHeader('Content-Disposition', `attachment; filename="upload-${upload.id}-findings.csv"`);
-        res.write(csvLine(['rule', 'series', 'ts', 'value', 'source_row', 'detail'].map(csvText)));
+        res.write(csvLine(['rule', 'series', 'ts', 'value', 'source_row', 'detail'].map(textCell)));
         for await (const page of allFindings(db, upload.id)) {
           const text = page
             .map((f) =>
               csvLine([
-                csvText(f.rule),
-                csvText(f.seriesKey),
-                csvText(f.ts),
-                csvNumber(f.value),
-                csvNumber(f.sourceRow),
-                csvText(JSON.stringify(f.detail)),
+                textCell(f.rule),
+                textCell(f.seriesKey),
+                textCell(f.ts),
+                numberCell(f.value, null),
+                numberCell(f.sourceRow, null),
+                textCell(JSON.stringify(f.detail)),
               ]),
             )
             .join('');

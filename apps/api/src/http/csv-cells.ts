@@ -13,9 +13,13 @@ export function textCell(value: string | null | undefined): string {
   return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
 }
 
-/** A number cell, rounded to `decimals` places (default 4) with no trailing zeros; empty for null. */
-export function numberCell(value: number | null | undefined, decimals = 4): string {
+/**
+ * A number cell, rounded to `decimals` places (default 4) with no trailing zeros; empty for null.
+ * `decimals: null` writes the value exactly as stored (readings quoted back to a steward).
+ */
+export function numberCell(value: number | null | undefined, decimals: number | null = 4): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return '';
+  if (decimals === null) return String(value);
   const scale = 10 ** decimals;
   const rounded = Math.round(value * scale) / scale;
   return String(Object.is(rounded, -0) ? 0 : rounded);

@@ -23,6 +23,7 @@ describe('CSV cells', () => {
     expect(numberCell(0.1 + 0.2)).toBe('0.3');
     expect(numberCell(-0.00001)).toBe('0');
     expect(numberCell(null)).toBe('');
+    expect(numberCell(1347.123456, null)).toBe('1347.123456');
     expect(csvLine(['a', '1'])).toBe('a,1\r\n');
   });
 });
