@@ -9,6 +9,11 @@
  *
  * Also measured: revalidation with If-None-Match (the answer is 304 while nothing changed).
  *
+ * Each run also reports the CPU milliseconds per request of the server process and of its PostgreSQL
+ * connections (from /proc): on a shared machine requests per second fall whenever something else takes
+ * the cores, while CPU per request barely moves. The three runs are repeated FORECAST_BENCH_ROUNDS
+ * times (default 3), interleaved, and the table gives each measure's median over the rounds.
+ *
  * `npm run bench -- forecast-review`; FORECAST_BENCH_SECONDS (default 8) sets each run's length,
  * FORECAST_BENCH_PROFILE=<dir> has the server write a CPU profile there, FORECAST_BENCH_KEEP=1 keeps the
  * throwaway database (and prints its read token) for poking at by hand.
@@ -18,14 +23,16 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import http from 'node:http';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
-import { apiTokens, createDb, forecastAdjustments, forecastVersions, series } from '@loadwright/db';
+import { apiTokens, createDb, forecastAdjustments, forecastVersions, series, users } from '@loadwright/db';
 import { eq } from 'drizzle-orm';
+import pg from 'pg';
 import { newApiTokenSecret } from '../../apps/api/src/auth/api-token-secret';
 import { migrate } from '../../libs/db/src/migrate';
 import { seedDemo } from '../../libs/db/src/seed/seed-demo';
 import { createDatabase, dropDatabase, ensurePostgres } from '../../scripts/postgres';
 import { writeDraftVersion } from '../../tests/forecasts/support/draft-versions';
 import type { Benchmark, BenchReport } from '../support/harness';
+import { cpuBetween, cpuSnapshot } from '../support/process-cpu';
 
 const repoRoot = resolve(import.meta.dirname, '../..');
 const clients = 50;
@@ -43,10 +50,20 @@ interface LoadResult {
   p99Ms: number;
   statuses: Record<string, number>;
   bytes: number;
+  /** CPU milliseconds per request of the server process. */
+  serverCpuMs: number;
+  /** CPU milliseconds per request of the server's PostgreSQL connections. */
+  databaseCpuMs: number;
+}
+
+/** The processes whose CPU a run counts: the server and its PostgreSQL backends (found when asked). */
+interface Measured {
+  serverPid: number;
+  databasePids(): Promise<number[]>;
 }
 
 /** Sends requests from `clients` loops for `seconds` over keep-alive connections; latencies per request. */
-async function load(port: number, path: string, headers: Record<string, string>, seconds: number): Promise<LoadResult> {
+async function load(port: number, path: string, headers: Record<string, string>, seconds: number, measured: Measured): Promise<LoadResult> {
   const agent = new http.Agent({ keepAlive: true, maxSockets: clients });
   const latencies: number[] = [];
   const statuses: Record<string, number> = {};
@@ -67,6 +84,9 @@ async function load(port: number, path: string, headers: Record<string, string>,
       });
       request.on('error', fail);
     });
+  const backendsBefore = await measured.databasePids();
+  const serverBefore = cpuSnapshot([measured.serverPid]);
+  const databaseBefore = cpuSnapshot(backendsBefore);
   const started = performance.now();
   await Promise.all(
     Array.from({ length: clients }, async () => {
@@ -74,6 +94,9 @@ async function load(port: number, path: string, headers: Record<string, string>,
     }),
   );
   const elapsed = (performance.now() - started) / 1000;
+  const serverCpu = cpuBetween(serverBefore, cpuSnapshot([measured.serverPid]));
+  // Backends opened during the run count from zero; those that closed during it are lost (rare: the pool keeps them).
+  const databaseCpu = cpuBetween(databaseBefore, cpuSnapshot([...new Set([...backendsBefore, ...(await measured.databasePids())])]));
   agent.destroy();
   const sorted = latencies.sort((a, b) => a - b);
   const at = (share: number) => Math.round(sorted[Math.min(sorted.length - 1, Math.floor(share * sorted.length))]! * 10) / 10;
@@ -85,6 +108,34 @@ async function load(port: number, path: string, headers: Record<string, string>,
     p99Ms: at(0.99),
     statuses,
     bytes,
+    serverCpuMs: Math.round((serverCpu / sorted.length) * 1000) / 1000,
+    databaseCpuMs: Math.round((databaseCpu / sorted.length) * 1000) / 1000,
+  };
+}
+
+/** The median of some numbers. */
+function median(values: number[]): number {
+  const sorted = [...values].sort((a, b) => a - b);
+  const middle = sorted.length >> 1;
+  return sorted.length % 2 === 1 ? sorted[middle]! : (sorted[middle - 1]! + sorted[middle]!) / 2;
+}
+
+/** One result whose every measure is the median of the rounds' (statuses summed over them). */
+function medianOf(results: LoadResult[]): LoadResult {
+  const statuses: Record<string, number> = {};
+  for (const result of results)
+    for (const [status, count] of Object.entries(result.statuses)) statuses[status] = (statuses[status] ?? 0) + count;
+  const of = (measure: (result: LoadResult) => number) => median(results.map(measure));
+  return {
+    requests: of((r) => r.requests),
+    perSecond: of((r) => r.perSecond),
+    p50Ms: of((r) => r.p50Ms),
+    p95Ms: of((r) => r.p95Ms),
+    p99Ms: of((r) => r.p99Ms),
+    statuses,
+    bytes: results[0]!.bytes,
+    serverCpuMs: of((r) => r.serverCpuMs),
+    databaseCpuMs: of((r) => r.databaseCpuMs),
   };
 }
 
@@ -99,6 +150,7 @@ export const bench: Benchmark = {
   description: 'GET /api/series/:id/forecast at 50 concurrent clients against a static file of the same size from the same process',
   async run(): Promise<BenchReport> {
     const seconds = Number(process.env['FORECAST_BENCH_SECONDS'] ?? 8);
+    const rounds = Math.max(1, Number(process.env['FORECAST_BENCH_ROUNDS'] ?? 3));
     const { adminUrl } = await ensurePostgres();
     const name = `bench_forecast_${process.pid}`;
     await createDatabase(adminUrl, name);
@@ -107,6 +159,8 @@ export const bench: Benchmark = {
     const databaseUrl = url.toString();
     const staticFolder = mkdtempSync(join(tmpdir(), 'lw-bench-static-'));
     let child: ReturnType<typeof spawn> | undefined;
+    // Finds the server's PostgreSQL backends by the application name serve-app.ts gives its pool.
+    const watcher = new pg.Client({ connectionString: databaseUrl });
     try {
       await migrate(databaseUrl);
       await seedDemo(databaseUrl);
@@ -140,7 +194,9 @@ export const bench: Benchmark = {
       ]);
       const { token, prefix, hash } = newApiTokenSecret();
       if (process.env['FORECAST_BENCH_KEEP']) console.log(`token ${token}`);
-      await db.insert(apiTokens).values({ name: 'bench reader', prefix, secretHash: hash, scope: 'read' });
+      // A token acts for its creator: made by the demo's active admin, as on the tokens page.
+      const [admin] = await db.select({ id: users.id }).from(users).where(eq(users.role, 'admin')).limit(1);
+      await db.insert(apiTokens).values({ name: 'bench reader', prefix, secretHash: hash, scope: 'read', createdById: admin!.id });
       await close();
 
       // The folder is the server's web app: it needs an index.html to be served at all.
@@ -177,10 +233,28 @@ export const bench: Benchmark = {
       // The ceiling: a file of exactly the JSON's size, served by the same process as its web app.
       writeFileSync(join(staticFolder, 'same-size.json'), body);
 
-      await load(port, path, auth, 1.5); // warm-up: JIT, connection pools
-      const routeRun = await load(port, path, auth, seconds);
-      const staticRun = await load(port, '/same-size.json', {}, seconds);
-      const revalidateRun = etag ? await load(port, path, { ...auth, 'If-None-Match': etag }, seconds) : null;
+      await watcher.connect();
+      const measured: Measured = {
+        serverPid: child.pid!,
+        databasePids: async () =>
+          (
+            await watcher.query<{ pid: number }>(
+              "select pid from pg_stat_activity where datname = current_database() and application_name = 'loadwright-bench'",
+            )
+          ).rows.map((row) => row.pid),
+      };
+      await load(port, path, auth, 1.5, measured); // warm-up: JIT, connection pools
+      const routeRuns: LoadResult[] = [];
+      const staticRuns: LoadResult[] = [];
+      const revalidateRuns: LoadResult[] = [];
+      for (let round = 0; round < rounds; round++) {
+        routeRuns.push(await load(port, path, auth, seconds, measured));
+        staticRuns.push(await load(port, '/same-size.json', {}, seconds, measured));
+        if (etag) revalidateRuns.push(await load(port, path, { ...auth, 'If-None-Match': etag }, seconds, measured));
+      }
+      const routeRun = medianOf(routeRuns);
+      const staticRun = medianOf(staticRuns);
+      const revalidateRun = etag ? medianOf(revalidateRuns) : null;
 
       const row = (what: string, result: LoadResult) => ({
         what,
@@ -188,6 +262,8 @@ export const bench: Benchmark = {
         'p50 ms': result.p50Ms,
         'p95 ms': result.p95Ms,
         'p99 ms': result.p99Ms,
+        'API CPU ms/req': result.serverCpuMs,
+        'DB CPU ms/req': result.databaseCpuMs,
         requests: result.requests,
         statuses: Object.entries(result.statuses)
           .map(([status, count]) => `${status}×${count}`)
@@ -198,8 +274,9 @@ export const bench: Benchmark = {
       return {
         rows,
         notes: [
-          `${clients} concurrent keep-alive clients, ${seconds} s per run after a 1.5 s warm-up; server and clients share this machine's cores`,
-          `route / static throughput: ${(routeRun.perSecond / staticRun.perSecond).toFixed(2)}`,
+          `${clients} concurrent keep-alive clients, ${seconds} s per run after a 1.5 s warm-up, medians of ${rounds} interleaved rounds; server and clients share this machine's cores`,
+          `route / static throughput: ${(routeRun.perSecond / staticRun.perSecond).toFixed(2)}; route / static API CPU per request: ${(routeRun.serverCpuMs / staticRun.serverCpuMs).toFixed(2)}`,
+          `route req/s by round: ${routeRuns.map((r) => r.perSecond).join(', ')}; static: ${staticRuns.map((r) => r.perSecond).join(', ')}`,
           `response ${body.length} bytes uncompressed; ETag ${etag ?? 'none'}`,
         ],
         checks: [
@@ -220,9 +297,18 @@ export const bench: Benchmark = {
               ]
             : []),
         ],
-        data: { route: routeRun, static: staticRun, revalidate: revalidateRun, bytes: body.length, clients, seconds },
+        data: {
+          route: routeRun,
+          static: staticRun,
+          revalidate: revalidateRun,
+          rounds: { route: routeRuns, static: staticRuns, revalidate: revalidateRuns },
+          bytes: body.length,
+          clients,
+          seconds,
+        },
       };
     } finally {
+      await watcher.end().catch(() => {});
       child?.kill();
       rmSync(staticFolder, { recursive: true, force: true });
       if (!process.env['FORECAST_BENCH_KEEP']) await dropDatabase(adminUrl, name).catch(() => {});

@@ -26,25 +26,51 @@ export interface GatekeeperOptions {
 /** How long repeats of one refusal (same caller, same cause) are counted instead of written: 10 minutes. */
 export const refusalAuditWindowMs = 10 * 60_000;
 
+/**
+ * The two lookups every authenticated request makes, as named prepared statements: PostgreSQL parses
+ * and plans each once per connection and Drizzle builds its SQL once per process, instead of both on
+ * every request (together most of a cached forecast review's CPU). They still read the rows on every
+ * request, so a revoked session or token stops working at once, whichever process revoked it.
+ */
+function credentialLookups(db: Database) {
+  const token = db
+    .select({
+      id: apiTokens.id,
+      name: apiTokens.name,
+      scope: apiTokens.scope,
+      lastUsedAt: apiTokens.lastUsedAt,
+      revokedAt: apiTokens.revokedAt,
+      expired: sql<boolean>`(${apiTokens.expiresAt} IS NOT NULL AND ${apiTokens.expiresAt} <= now())`,
+      creatorId: users.id,
+      creatorRole: users.role,
+      creatorActive: users.active,
+    })
+    .from(apiTokens)
+    .leftJoin(users, eq(users.id, apiTokens.createdById))
+    .where(eq(apiTokens.secretHash, sql.placeholder('secretHash')))
+    .prepare('loadwright_token_by_hash');
+  const session = db
+    .select({ userId: users.id, email: users.email, displayName: users.displayName, role: users.role, lastSeenAt: sessions.lastSeenAt })
+    .from(sessions)
+    .innerJoin(users, eq(users.id, sessions.userId))
+    .where(
+      and(
+        eq(sessions.id, sql.placeholder('sessionId')),
+        isNull(sessions.revokedAt),
+        gt(sessions.expiresAt, sql`now()`),
+        eq(users.active, true),
+      ),
+    )
+    .prepare('loadwright_live_session');
+  return { token, session };
+}
+
 /** The gatekeeper used by every declared route. */
 export function createGatekeeper({ db, secret, secureCookies }: GatekeeperOptions): Gatekeeper {
   const damper = createRepeatDamper({ windowMs: refusalAuditWindowMs });
+  const lookups = credentialLookups(db);
   async function identifyToken(token: string): Promise<Actor> {
-    const [row] = await db
-      .select({
-        id: apiTokens.id,
-        name: apiTokens.name,
-        scope: apiTokens.scope,
-        lastUsedAt: apiTokens.lastUsedAt,
-        revokedAt: apiTokens.revokedAt,
-        expired: sql<boolean>`(${apiTokens.expiresAt} IS NOT NULL AND ${apiTokens.expiresAt} <= now())`,
-        creatorId: users.id,
-        creatorRole: users.role,
-        creatorActive: users.active,
-      })
-      .from(apiTokens)
-      .leftJoin(users, eq(users.id, apiTokens.createdById))
-      .where(eq(apiTokens.secretHash, hashApiToken(token)));
+    const [row] = await lookups.token.execute({ secretHash: hashApiToken(token) });
     const refuse = (cause: RefusedCredential['cause'], reason: string): Actor => ({
       kind: 'anonymous',
       reason,
@@ -71,13 +97,7 @@ export function createGatekeeper({ db, secret, secureCookies }: GatekeeperOption
       refused: { credential: 'session', cause: 'ended' },
     };
     if (!claims) return ended;
-    const [row] = await db
-      .select({ userId: users.id, email: users.email, displayName: users.displayName, role: users.role, lastSeenAt: sessions.lastSeenAt })
-      .from(sessions)
-      .innerJoin(users, eq(users.id, sessions.userId))
-      .where(
-        and(eq(sessions.id, claims.sessionId), isNull(sessions.revokedAt), gt(sessions.expiresAt, sql`now()`), eq(users.active, true)),
-      );
+    const [row] = await lookups.session.execute({ sessionId: claims.sessionId });
     if (!row || row.userId !== claims.userId) return ended;
     const secondsLeft = claims.expiresAt - Date.now() / 1000;
     if (secondsLeft < sessionTokenTtlSeconds / 2) {
