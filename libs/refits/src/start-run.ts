@@ -4,9 +4,12 @@
  * so two runs' jobs of one series run one after the other). A scheduled run is unique per fire time,
  * so a schedule delivered twice starts one run. A run over every series is refused while another one
  * is still open (the open one is refitting the same series already); an advisory lock makes the check
- * and the insert one step, so two clicks cannot both pass it.
+ * and the insert one step, so two clicks cannot both pass it. A run someone started is written to the
+ * audit log in the same transaction: the run and its jobs exist exactly when the entry does.
  */
+import { recordAudit, type Actor } from '@loadwright/audit';
 import type { RefitScope } from '@loadwright/contracts';
+import { drizzle } from 'drizzle-orm/node-postgres';
 import type pg from 'pg';
 import { readHolidayPlace, seedHolidayYears } from './holiday-calendar';
 import { refitSeriesKey, refitSeriesQueue, type JobInserter, type RefitSeriesJob } from './refit-queues';
@@ -18,6 +21,8 @@ export interface StartRunRequest {
   requestedById: number | null;
   /** The schedule's fire time (scheduled runs). */
   scheduledFor?: Date;
+  /** Who started it by hand, for the run's audit entry (scheduled runs have none). */
+  caller?: { actor: Actor; ip?: string };
 }
 
 /** The run, or null when a scheduled run for that fire time already existed. */
@@ -78,6 +83,15 @@ export async function startRefitRun(pool: pg.Pool, insertJobs: JobInserter, requ
       singletonKey: refitSeriesKey(seriesId),
     }));
     await insertJobs(jobs, client);
+    if (request.caller)
+      await recordAudit(drizzle(client), {
+        actor: request.caller.actor,
+        action: 'refit.started',
+        targetType: 'refit_run',
+        targetId: runId,
+        detail: { scope: request.scope, series: seriesIds.length },
+        ip: request.caller.ip,
+      });
     await client.query('commit');
     return { runId, seriesIds };
   } catch (error) {

@@ -290,7 +290,7 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
       response: uploadSchema,
       handler: async ({ params, actor, req }) => {
         const by = actor.kind === 'user' ? actor.displayName : actor.kind === 'token' ? `token "${actor.name}"` : 'someone';
-        const outcome = await cancelUpload(db, params.id, by);
+        const outcome = await cancelUpload(db, params.id, { actor, by, ip: clientAddress(req) });
         if (!outcome.cancelled && outcome.reason === 'missing') throw new HttpProblem('notFound', `No upload with id ${params.id}.`);
         if (!outcome.cancelled)
           throw new HttpProblem(
@@ -299,14 +299,6 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
               ? `Upload ${params.id} awaits its mapping; discard it instead.`
               : `Upload ${params.id} is ${outcome.status}; only a queued or running import can be cancelled.`,
           );
-        await recordAudit(db, {
-          actor,
-          action: 'upload.cancelled',
-          targetType: 'upload',
-          targetId: params.id,
-          detail: { fileName: outcome.fileName, from: outcome.from },
-          ip: clientAddress(req),
-        });
         return (await findUpload(db, params.id))!;
       },
     }),

@@ -9,7 +9,6 @@ import {
   idParamsSchema,
 } from '@loadwright/contracts';
 import type { AppContext } from '../app-context';
-import { recordAudit } from '@loadwright/audit';
 import { clientAddress } from '../auth/client-address';
 import { HttpProblem } from '@loadwright/problems';
 import { defineRoute, type RouteDefinition } from '../http/route-table';
@@ -18,7 +17,7 @@ import { RefitScopeError, startRefitRun } from '@loadwright/refits';
 import { currentRun, listRuns, runDetail } from '@loadwright/refits';
 
 /** The routes under /api/refits. */
-export function refitRoutes({ db, pool }: AppContext): RouteDefinition[] {
+export function refitRoutes({ pool }: AppContext): RouteDefinition[] {
   const insertJobs = createJobInserter();
   return [
     defineRoute({
@@ -72,20 +71,13 @@ export function refitRoutes({ db, pool }: AppContext): RouteDefinition[] {
             trigger: 'manual',
             scope: body.scope,
             requestedById: actor.kind === 'user' ? actor.userId : null,
+            caller: { actor, ip: clientAddress(req) },
           });
         } catch (error) {
           if (error instanceof RefitScopeError) throw new HttpProblem(error.kind, error.message);
           throw error;
         }
         if (!started) throw new HttpProblem('conflict', 'The run could not be created.');
-        await recordAudit(db, {
-          actor,
-          action: 'refit.started',
-          targetType: 'refit_run',
-          targetId: started.runId,
-          detail: { scope: body.scope, series: started.seriesIds.length },
-          ip: clientAddress(req),
-        });
         const [summary] = await listRunsById(started.runId);
         return summary!;
       },
