@@ -17,6 +17,7 @@ import { type TestServer, startTestServer } from '../support/server';
 import { blockingViolations, findAccessibilityViolations } from './support/accessibility';
 import { type TestBrowser, launchBrowser } from './support/browser';
 import { signInThroughPage } from './support/sign-in';
+import { clockText } from '../../apps/web/src/app/refits/clock-text';
 import { zonedClock } from '../../apps/web/src/app/series-page/zoned-time';
 
 const artifacts = resolve(import.meta.dirname, '../.artifacts');
@@ -126,6 +127,11 @@ describe('a planner refits a zone and approves a feeder', () => {
     await expect
       .poll(() => page.locator('tr[data-run] .counts').first().textContent())
       .toBe(`${run.counts.total} of ${run.counts.total} done`);
+    // The run's row names the zone it covered, never a bare id, and gives its times on the organisation's clock with the zone named.
+    const runRow = await page.locator(`tr[data-run="${runId}"]`).textContent();
+    expect(runRow).toContain(`${north.name} and everything below it`);
+    expect(runRow).toContain(clockText(run.startedAt, demoScenario.organisation.timeZone));
+    expect(runRow).toContain(clockText(run.finishedAt, demoScenario.organisation.timeZone));
     await page.screenshot({ path: resolve(artifacts, 'refits-finished.png') });
     await expectAccessible();
   }, 300_000);
