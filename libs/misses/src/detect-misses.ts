@@ -4,6 +4,7 @@
  */
 import { missEvents, series, type Database } from '@loadwright/db';
 import { and, eq, gt, sql } from 'drizzle-orm';
+import { trackingWindowHours } from './creeping-bias';
 import { evaluateRule } from './evaluate-rule';
 import { explainEvent } from './explain-event';
 import { notifyNewMisses } from './notify-misses';
@@ -19,7 +20,7 @@ import {
 } from './miss-repository';
 import { rulesInForce } from './rules-in-force';
 
-/** Hours looked back over: a week for the tracking signal and daily peaks, plus a day for late actuals. */
+/** Hours judged: a week for daily peaks, plus a day for late actuals (the tracking signal reads a day more). */
 export const detectionWindowHours = 192;
 
 /** What one detection did, by rule id. */
@@ -54,13 +55,15 @@ export async function detectMisses(
   const to = new Date(Math.floor(now.getTime() / hourMs) * hourMs);
   const from = new Date(to.getTime() - detectionWindowHours * hourMs);
   const [points, freshness, clock] = await Promise.all([
-    hourPointsOf(db, watched, from, to),
+    // A day before the window feeds the tracking signal of the window's first hours.
+    hourPointsOf(db, watched, new Date(from.getTime() - trackingWindowHours * hourMs), to),
     seriesFreshness(db, seriesId),
     organisationClock(db),
   ]);
   for (const rule of rules) {
     const hits = evaluateRule(rule, {
       points,
+      judgeFrom: from,
       series: { unit: watched.unit, timeZone: watched.timeZone, intervalMinutes: watched.intervalMinutes },
       now,
       lastActualTs: freshness.lastActualTs,

@@ -3,7 +3,7 @@ import { Route, Routes } from '@angular/router';
 import { holds, signedIn, signedOut } from './core/auth/auth-guards';
 import { PRODUCT_SECTIONS, type ProductSection } from './core/product-sections';
 
-/** Lazy loaders of the sections that have shipped, by path. */
+/** Lazy loaders of every section's page, by path. */
 const sectionPages: Readonly<Record<string, () => Promise<Type<unknown>>>> = {
   overview: () => import('./overview/overview').then((m) => m.Overview),
   series: () => import('./series-catalogue/series-catalogue').then((m) => m.SeriesCatalogue),
@@ -32,11 +32,11 @@ const subpathPages: Readonly<Record<string, () => Promise<Type<unknown>>>> = {
 
 /**
  * The routes of one section: its page for people holding the section's permission, then, at the same
- * path, a page saying the role may not open it. Sections not built yet share one honest placeholder.
+ * path, a page saying the role may not open it.
  */
 function sectionRoutes(section: ProductSection): Routes {
-  const page = section.available ? sectionPages[section.path] : undefined;
-  const loadComponent = page ?? (() => import('./shared/upcoming-section/upcoming-section').then((m) => m.UpcomingSection));
+  const loadComponent = sectionPages[section.path];
+  if (!loadComponent) throw new Error(`The section "${section.path}" has no page in sectionPages.`);
   const paths = [section.path, ...(sectionSubpaths[section.path] ?? []).map((sub) => `${section.path}/${sub}`)];
   return paths.flatMap((path): Route[] => [
     {
@@ -44,7 +44,7 @@ function sectionRoutes(section: ProductSection): Routes {
       title: section.label,
       data: { section },
       canMatch: [holds(section.permission)],
-      loadComponent: (section.available && subpathPages[path]) || loadComponent,
+      loadComponent: subpathPages[path] ?? loadComponent,
     },
     { path, title: 'Not allowed', data: { section }, loadComponent: () => import('./shared/refused/refused').then((m) => m.Refused) },
   ]);

@@ -9,12 +9,10 @@ export interface ProductSection {
   readonly path: string;
   /** Name shown in the navigation and as the page title. */
   readonly label: string;
-  /** Material Symbols ligature for the navigation icon. */
+  /** Name of the navigation icon in the bundled SVG icon set. */
   readonly icon: string;
   /** One line on what the section lets its users get done. */
   readonly purpose: string;
-  /** False until the section ships; its route then shows the "later release" page. */
-  readonly available: boolean;
   /** The permission a person needs to see the section; the API checks the same one on every call. */
   readonly permission: Permission;
   /** The navigation group it belongs to. */
@@ -34,7 +32,6 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     label: 'Overview',
     icon: 'space_dashboard',
     purpose: 'Live refit status, open misses, accuracy against the naive benchmark and the next-week system peak.',
-    available: true,
     permission: 'data.read',
     group: 'work',
   },
@@ -44,7 +41,6 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     icon: 'stacked_line_chart',
     purpose:
       'The series catalogue with a hierarchy filter; for each series its history and forecast with 80 % and 95 % bands, model card, diagnostics, accuracy by horizon, versions and adjustments.',
-    available: true,
     permission: 'data.read',
     group: 'work',
   },
@@ -53,7 +49,6 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     label: 'Uploads',
     icon: 'upload_file',
     purpose: 'Drop a load or temperature file, map its columns, preview it, follow its progress and read its validation report.',
-    available: true,
     permission: 'data.upload',
     group: 'work',
   },
@@ -62,7 +57,6 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     label: 'Refits',
     icon: 'model_training',
     purpose: 'Refit runs with per-series status, errors and durations, and a way to refit now.',
-    available: true,
     permission: 'data.read',
     group: 'work',
   },
@@ -71,7 +65,6 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     label: 'Misses',
     icon: 'crisis_alert',
     purpose: 'Miss events and the rules that raise them, to acknowledge, comment on and resolve.',
-    available: true,
     permission: 'data.read',
     group: 'work',
   },
@@ -80,7 +73,6 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     label: 'People',
     icon: 'group',
     purpose: 'Invite people by e-mail, change their roles, deactivate and reactivate them.',
-    available: true,
     permission: 'admin.people',
     group: 'people-and-settings',
   },
@@ -89,7 +81,6 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     label: 'API tokens',
     icon: 'key',
     purpose: 'Tokens for downstream systems that pull approved forecasts: create, see last use, revoke.',
-    available: true,
     permission: 'admin.tokens',
     group: 'people-and-settings',
   },
@@ -98,7 +89,6 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     label: 'Audit log',
     icon: 'policy',
     purpose: 'Who did what, when and from where: sign-ins, role and token changes, uploads, model settings, approvals.',
-    available: true,
     permission: 'admin.audit',
     group: 'people-and-settings',
   },
@@ -107,7 +97,6 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     label: 'Settings',
     icon: 'tune',
     purpose: 'Time zone, refit hour and morning deadline, miss rule defaults, the sender address and the holiday calendar.',
-    available: true,
     permission: 'admin.settings',
     group: 'people-and-settings',
   },
@@ -116,7 +105,6 @@ export const PRODUCT_SECTIONS: readonly ProductSection[] = [
     label: 'Outbox',
     icon: 'outbox',
     purpose: 'The local mail catcher for development: every e-mail Loadwright has sent, as its recipient would read it.',
-    available: true,
     permission: 'admin.outbox',
     group: 'development',
   },

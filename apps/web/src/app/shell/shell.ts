@@ -9,7 +9,7 @@ import { MatToolbarModule } from '@angular/material/toolbar';
 import { Router, RouterLink, RouterLinkActive } from '@angular/router';
 import { map } from 'rxjs';
 import { SessionStore } from '../core/auth/session-store';
-import { PRODUCT_SECTIONS, SECTION_GROUP_LABELS, type ProductSection } from '../core/product-sections';
+import { PRODUCT_SECTIONS, SECTION_GROUP_LABELS } from '../core/product-sections';
 import { Cautions } from './cautions';
 import { LogoMark } from './logo-mark';
 
@@ -54,22 +54,18 @@ export class Shell {
   private readonly permittedSections = computed(() =>
     PRODUCT_SECTIONS.filter((section) => this.session.permissions().has(section.permission)),
   );
-  /** Everyday work sections that can be used today. */
-  protected readonly workSections = computed(() =>
-    this.permittedSections().filter((section) => section.available && section.group === 'work'),
-  );
-  /** Shipped sections grouped under a heading ("People and settings", "Development"), empty groups left out. */
+  /** Everyday work sections. */
+  protected readonly workSections = computed(() => this.permittedSections().filter((section) => section.group === 'work'));
+  /** Sections grouped under a heading ("People and settings", "Development"), empty groups left out. */
   protected readonly sectionGroups = computed(() =>
     (Object.keys(SECTION_GROUP_LABELS) as (keyof typeof SECTION_GROUP_LABELS)[])
       .map((group) => ({
         id: group,
         label: SECTION_GROUP_LABELS[group],
-        sections: this.permittedSections().filter((section) => section.available && section.group === group),
+        sections: this.permittedSections().filter((section) => section.group === group),
       }))
       .filter((group) => group.sections.length > 0),
   );
-  /** Sections listed so people know they are coming, each with an honest placeholder page. */
-  protected readonly upcomingSections = computed<ProductSection[]>(() => this.permittedSections().filter((section) => !section.available));
 
   /** Opens or closes the narrow-screen menu. */
   protected toggleMenu(): void {

@@ -30,7 +30,6 @@ import doneAllSvg from '@material-symbols/svg-400/outlined/done_all.svg';
 import downloadSvg from '@material-symbols/svg-400/outlined/download.svg';
 import editSvg from '@material-symbols/svg-400/outlined/edit.svg';
 import errorSvg from '@material-symbols/svg-400/outlined/error.svg';
-import eventUpcomingSvg from '@material-symbols/svg-400/outlined/event_upcoming.svg';
 import factCheckSvg from '@material-symbols/svg-400/outlined/fact_check.svg';
 import folderOpenSvg from '@material-symbols/svg-400/outlined/folder_open.svg';
 import groupSvg from '@material-symbols/svg-400/outlined/group.svg';
@@ -96,7 +95,6 @@ export const iconSet: Readonly<Record<string, string>> = {
   download: downloadSvg,
   edit: editSvg,
   error: errorSvg,
-  event_upcoming: eventUpcomingSvg,
   fact_check: factCheckSvg,
   folder_open: folderOpenSvg,
   group: groupSvg,
