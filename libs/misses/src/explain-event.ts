@@ -1,6 +1,6 @@
 /**
  * Gathers what explaining one miss event needs (the version's temperature response, the temperatures
- * it used and the ones observed since, holidays, the band's recent record at those hours) and stores
+ * it used (readings, else the temperature forecast issue its fit names) and the ones observed since, holidays, the band's recent record at those hours) and stores
  * the explanation on the event.
  */
 import { and, eq, sql } from 'drizzle-orm';
@@ -41,15 +41,21 @@ export function temperatureResponseOf(
 }
 
 /**
- * For each hour, the station's temperature as the forecast saw it at `issuedAt` (the revision in force
- * then) and as observed since (the current reading, when it was stored after the forecast was issued;
- * a reading stored before issue for a forecast hour is itself a forecast).
+ * For each hour, the station's temperature as the forecast assumed it and as observed since.
+ *
+ * Assumed: what the refit read when it wrote the version at `issuedAt`: the station's reading in force
+ * then (a revision superseded later, or the current reading when it was stored before), else the value of
+ * the temperature forecast issue the fit names (`forecastIssuedAt`, libs/refits series-window.ts). A fit
+ * that names no issue (written before issues existed, or covered by readings alone) falls back to the
+ * readings alone. Observed: the current reading, when it was stored after the version was issued (a
+ * reading stored before issue for a forecast hour is itself a forecast).
  */
 export async function temperaturesAround(
   db: Pick<Database, 'execute'>,
   stationId: number,
   issuedAt: Date,
   hours: string[],
+  forecastIssuedAt: Date | null = null,
 ): Promise<HourTemperatures[]> {
   if (hours.length === 0) return [];
   const list = `{${hours.join(',')}}`;
@@ -62,14 +68,27 @@ export async function temperaturesAround(
       from observation_revisions r
      where r.series_id = ${stationId} and r.ts = any(${list}::timestamptz[]) and r.superseded_at > ${issuedAt.toISOString()}::timestamptz
      order by r.ts, r.revision`);
+  const issued = forecastIssuedAt
+    ? await db.execute<{ ts: string; value: number }>(sql`
+    select to_char(f.ts at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"') as ts, f.value
+      from temperature_forecasts f
+     where f.series_id = ${stationId} and f.issued_at = ${forecastIssuedAt.toISOString()}::timestamptz and f.ts = any(${list}::timestamptz[])`)
+    : { rows: [] };
   const replaced = new Map(revisions.rows.map((row) => [row.ts, row.value]));
+  const fromIssue = new Map(issued.rows.map((row) => [row.ts, row.value]));
   const now = new Map(current.rows.map((row) => [row.ts, row]));
   return hours.map((ts) => {
     const row = now.get(ts);
     const storedAfter = row?.stored_at ? new Date(row.stored_at) > issuedAt : false;
-    const used = replaced.has(ts) ? replaced.get(ts)! : row && !storedAfter ? row.value : null;
-    return { ts, forecast: used, observed: row && storedAfter ? row.value : null };
+    const reading = replaced.has(ts) ? replaced.get(ts)! : row && !storedAfter ? row.value : null;
+    return { ts, forecast: reading ?? fromIssue.get(ts) ?? null, observed: row && storedAfter ? row.value : null };
   });
+}
+
+/** The temperature forecast issue a fit used for its forecast hours, as the refit recorded it. */
+export function forecastIssueOf(diagnostics: Record<string, unknown> | null): Date | null {
+  const temperature = (diagnostics?.['temperature'] ?? {}) as { forecastIssuedAt?: unknown };
+  return typeof temperature.forecastIssuedAt === 'string' ? new Date(temperature.forecastIssuedAt) : null;
 }
 
 /** Public holidays of the organisation's country on the local days of the miss that the calendar lacks. */
@@ -126,7 +145,12 @@ export async function explainEvent(db: Database, eventId: number): Promise<MissC
   const versionId = event.versionId ?? hours[0]!.versionId;
   const [version] = versionId
     ? await db
-        .select({ issuedAt: forecastVersions.issuedAt, parameters: fits.parameters, specSnapshot: fits.specSnapshot })
+        .select({
+          issuedAt: forecastVersions.issuedAt,
+          parameters: fits.parameters,
+          specSnapshot: fits.specSnapshot,
+          diagnostics: fits.diagnostics,
+        })
         .from(forecastVersions)
         .innerJoin(fits, eq(fits.id, forecastVersions.fitId))
         .where(and(eq(forecastVersions.id, versionId)))
@@ -140,6 +164,7 @@ export async function explainEvent(db: Database, eventId: number): Promise<MissC
           own.stationId,
           version.issuedAt,
           hours.map((hour) => hour.ts),
+          forecastIssueOf(version.diagnostics),
         )
       : [];
   const timeZone = own?.timeZone ?? 'UTC';
