@@ -1,6 +1,6 @@
 /** Misses (events, rules, the Overview's summary), the organisation's settings and each person's miss e-mail choice. */
 import { z } from 'zod';
-import { digitsSchema, instantSchema, recordIdSchema } from './input';
+import { digitsSchema, idParamSchema, instantSchema, recordIdSchema } from './input';
 import { seriesLevels } from './series';
 
 export const missRuleKinds = [
@@ -118,12 +118,31 @@ export const missOverviewSchema = z.object({
   ),
 });
 
+/** The parameters of a rule a person sets; each kind reads some of them (`reads`). */
+export const missRuleParameters = ['hours', 'threshold', 'bandLevel', 'floorKw', 'peakHourTolerance'] as const;
+export type MissRuleParameter = (typeof missRuleParameters)[number];
+
+/** An e-mail address, or `role:<role>` for everyone active in that role. */
+const recipientSchema = z
+  .string()
+  .trim()
+  .regex(
+    /^(role:(admin|steward|planner|viewer)|[^@\s]+@[^@\s]+\.[^@\s]+)$/,
+    'Each recipient is an e-mail address (name@example.org) or a role written role:planner',
+  );
+
 /** A miss rule as Settings and the Misses page show it. */
 export const missRuleSchema = z.object({
   id: z.number().int(),
   name: z.string(),
   kind: z.enum(missRuleKinds),
   kindName: z.string(),
+  /** What the kind watches, in a sentence. */
+  watches: z.string(),
+  /** What the threshold means for this kind, or null when it takes none. */
+  thresholdMeaning: z.string().nullable(),
+  /** The parameters this kind reads; the others are ignored. */
+  reads: z.array(z.enum(missRuleParameters)),
   scope: z.enum(['all', 'level', 'series']),
   scopeLevel: z.enum(seriesLevels).nullable(),
   scopeSeriesId: z.number().int().nullable(),
@@ -146,12 +165,7 @@ export const missRuleUpdateSchema = z
     floorKw: z.number().min(0).nullable(),
     peakHourTolerance: z.number().int().min(0).max(23).nullable(),
     severity: z.enum(missSeverities),
-    recipients: z.array(
-      z
-        .string()
-        .trim()
-        .regex(/^(role:(admin|steward|planner|viewer)|[^@\s]+@[^@\s]+\.[^@\s]+)$/, 'An e-mail address or role:<role>'),
-    ),
+    recipients: z.array(recipientSchema).max(50),
     active: z.boolean(),
   })
   .partial()
@@ -169,8 +183,37 @@ export const missRuleCreateSchema = z.object({
   floorKw: z.number().min(0).nullable().default(null),
   peakHourTolerance: z.number().int().min(0).max(23).nullable().default(null),
   severity: z.enum(missSeverities).default('medium'),
-  recipients: z.array(z.string()).default([]),
+  recipients: z.array(recipientSchema).max(50).default([]),
   active: z.boolean().default(true),
+});
+
+/** GET /api/miss-rules/in-force: the rules of one series or of one group (level); exactly one of the two. */
+export const missRulesInForceQuerySchema = z.object({
+  series: idParamSchema.optional(),
+  level: z.enum(seriesLevels).optional(),
+});
+
+/** Where the rule in force for a kind comes from. */
+export const missRuleSources = ['default', 'level', 'series'] as const;
+
+/** The rules in force for one series or group, kind by kind. */
+export const missRulesInForceSchema = z.object({
+  scope: z.enum(['level', 'series']),
+  level: z.enum(seriesLevels).nullable(),
+  series: z.object({ id: z.number().int(), key: z.string(), name: z.string(), unit: z.string() }).nullable(),
+  kinds: z.array(
+    z.object({
+      kind: z.enum(missRuleKinds),
+      kindName: z.string(),
+      watches: z.string(),
+      /** The rule that judges this kind here, or null when the kind is switched off here. */
+      inForce: missRuleSchema.nullable(),
+      /** Where the rule in force (or the switching off) comes from. */
+      source: z.enum(missRuleSources),
+      /** The override set for exactly this series or group, which a planner may change or remove. */
+      override: missRuleSchema.nullable(),
+    }),
+  ),
 });
 
 const hhmm = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'A time as HH:MM, e.g. 07:00');
@@ -209,6 +252,8 @@ export type MissDetail = z.infer<typeof missDetailSchema>;
 export type MissOverview = z.infer<typeof missOverviewSchema>;
 export type MissRule = z.infer<typeof missRuleSchema>;
 export type MissRuleUpdate = z.infer<typeof missRuleUpdateSchema>;
+export type MissRuleCreate = z.input<typeof missRuleCreateSchema>;
+export type MissRulesInForce = z.infer<typeof missRulesInForceSchema>;
 export type OrganisationSettings = z.infer<typeof organisationSettingsSchema>;
 export type OrganisationSettingsUpdate = z.infer<typeof organisationSettingsUpdateSchema>;
 export type MissMailChoice = z.infer<typeof missMailChoiceSchema>;

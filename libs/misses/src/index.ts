@@ -16,4 +16,5 @@ export * from './explain-miss';
 export * from './explain-event';
 export * from './notify-misses';
 export * from './miss-service';
+export * from './rule-service';
 export * from './demo-misses';

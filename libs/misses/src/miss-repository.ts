@@ -2,7 +2,7 @@
  * Reading what detection needs from the database (rules, the organisation's clock, a series' hourly
  * actual-against-forecast points) and writing what it finds as miss events.
  */
-import { and, asc, desc, eq, gte, inArray, isNotNull, lt, or, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, isNotNull, isNull, lt, or, sql } from 'drizzle-orm';
 import { forecastVersions, missEvents, missRules, observations, organisation, series, type Database } from '@loadwright/db';
 import { adjustPoints, adjustmentsOf, pointsOf } from '@loadwright/forecasts';
 import { hourMs, type EvidenceHour, type HourPoint, type MissHit } from './hour-point';
@@ -16,9 +16,9 @@ export type MissDb = Pick<Database, 'select' | 'insert' | 'update' | 'execute'>;
 /** A stored rule with what evaluation and mail need. */
 export type StoredRule = ScopedRule;
 
-/** Every rule, active or not. */
+/** Every rule, active or not, except overrides a planner removed. */
 export async function loadRules(db: MissDb): Promise<StoredRule[]> {
-  return db.select().from(missRules).orderBy(asc(missRules.id));
+  return db.select().from(missRules).where(isNull(missRules.removedAt)).orderBy(asc(missRules.id));
 }
 
 /**

@@ -1,19 +1,16 @@
 /**
  * The Misses page's and Settings page's domain operations, free of HTTP: listing and reading misses,
- * acknowledging, commenting, resolving, the Overview's summary, rules, the organisation's settings and
- * each person's miss e-mail choice. Refusals are HttpProblems the API writes as problem details.
+ * acknowledging, commenting, resolving, the Overview's summary, the organisation's settings and each
+ * person's miss e-mail choice (rules: rule-service.ts). Refusals are HttpProblems the API writes as problem details.
  */
 import { and, asc, desc, eq, gte, lte, or, sql, type SQL } from 'drizzle-orm';
 import type {
   MissDetail,
   MissOverview,
-  MissRule,
   MissSummary,
   OrganisationSettings,
   OrganisationSettingsUpdate,
   missListQuerySchema,
-  missRuleCreateSchema,
-  MissRuleUpdate,
 } from '@loadwright/contracts';
 import { missComments, missEvents, missRules, observations, organisation, series, users, type Database } from '@loadwright/db';
 import { recordAudit, type Actor } from '@loadwright/audit';
@@ -237,100 +234,6 @@ export async function missOverview(db: Database): Promise<MissOverview> {
     .sort((a, b) => severityRank[b.highest] - severityRank[a.highest] || b.open - a.open || a.seriesName.localeCompare(b.seriesName))
     .slice(0, 5);
   return { open, worstSeries };
-}
-
-function toRule(rule: typeof missRules.$inferSelect): MissRule {
-  return {
-    id: rule.id,
-    name: rule.name,
-    kind: rule.kind,
-    kindName: ruleKindInfo[rule.kind].name,
-    scope: rule.scope,
-    scopeLevel: rule.scopeLevel,
-    scopeSeriesId: rule.scopeSeriesId,
-    hours: rule.hours,
-    threshold: rule.threshold,
-    bandLevel: rule.bandLevel,
-    floorKw: rule.floorKw,
-    peakHourTolerance: rule.peakHourTolerance,
-    severity: rule.severity,
-    recipients: rule.recipients,
-    active: rule.active,
-  };
-}
-
-/** Every rule: defaults first, then overrides. */
-export async function listRules(db: Database): Promise<MissRule[]> {
-  const rows = await db
-    .select()
-    .from(missRules)
-    .orderBy(sql`case ${missRules.scope} when 'all' then 0 when 'level' then 1 else 2 end`, asc(missRules.id));
-  return rows.map(toRule);
-}
-
-/** Changes a rule: defaults (scope all) need admin.settings, overrides misses.rules (checked by the caller via `mayChangeDefaults`). */
-export async function updateRule(
-  db: Database,
-  id: number,
-  change: MissRuleUpdate,
-  actor: Actor,
-  mayChangeDefaults: boolean,
-): Promise<MissRule> {
-  return db.transaction(async (tx) => {
-    const [rule] = await tx.select().from(missRules).where(eq(missRules.id, id)).for('update');
-    if (!rule) throw new HttpProblem('notFound', `No miss rule with id ${id}.`);
-    if (rule.scope === 'all' && !mayChangeDefaults)
-      throw new HttpProblem('forbidden', 'Only an admin changes the default rules; add an override for your series or group instead.');
-    const [row] = await tx.update(missRules).set(change).where(eq(missRules.id, id)).returning();
-    await recordAudit(tx, {
-      actor,
-      action: 'miss_rule.changed',
-      targetType: 'miss_rule',
-      targetId: id,
-      detail: change as Record<string, unknown>,
-    });
-    return toRule(row!);
-  });
-}
-
-/** Adds a planner's override for a group (level) or one series. */
-export async function createRuleOverride(db: Database, body: z.output<typeof missRuleCreateSchema>, actor: Actor): Promise<MissRule> {
-  if (body.scope === 'level' && !body.scopeLevel)
-    throw new HttpProblem('invalidInput', 'Name the group (level) this override is for.', [
-      { pointer: '/scopeLevel', detail: 'Required for a group override' },
-    ]);
-  if (body.scope === 'series' && !body.scopeSeriesId)
-    throw new HttpProblem('invalidInput', 'Name the series this override is for.', [
-      { pointer: '/scopeSeriesId', detail: 'Required for a series override' },
-    ]);
-  const target = body.scope === 'series' ? `series ${body.scopeSeriesId}` : `${body.scopeLevel}s`;
-  const [row] = await db
-    .insert(missRules)
-    .values({
-      name: `${ruleKindInfo[body.kind].name} for ${target}`,
-      kind: body.kind,
-      scope: body.scope,
-      scopeLevel: body.scope === 'level' ? body.scopeLevel! : null,
-      scopeSeriesId: body.scope === 'series' ? body.scopeSeriesId! : null,
-      hours: body.hours,
-      threshold: body.threshold,
-      bandLevel: body.bandLevel,
-      floorKw: body.floorKw,
-      peakHourTolerance: body.peakHourTolerance,
-      severity: body.severity,
-      recipients: body.recipients,
-      active: body.active,
-      createdById: personOf(actor),
-    })
-    .returning();
-  await recordAudit(db, {
-    actor,
-    action: 'miss_rule.added',
-    targetType: 'miss_rule',
-    targetId: row!.id,
-    detail: { kind: body.kind, scope: body.scope },
-  });
-  return toRule(row!);
 }
 
 /** The organisation's settings (defaults before the organisation exists). */

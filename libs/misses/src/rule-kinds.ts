@@ -34,12 +34,17 @@ export interface RuleSettings {
   peakHourTolerance: number | null;
 }
 
-/** A rule kind's name, what it watches, and what its threshold means. */
+/** The parameters a person sets on a rule. */
+export type RuleParameter = 'hours' | 'threshold' | 'bandLevel' | 'floorKw' | 'peakHourTolerance';
+
+/** A rule kind's name, what it watches, what its threshold means, and the parameters its check reads. */
 export interface RuleKindInfo {
   name: string;
   watches: string;
   /** What `threshold` means for this kind, or null when it takes none. */
   threshold: string | null;
+  /** The parameters the kind's check reads (the others are ignored, so a rule must leave them empty). */
+  reads: readonly RuleParameter[];
 }
 
 /** Names and meanings shown in Settings, on the Misses page and in e-mail. */
@@ -48,36 +53,44 @@ export const ruleKindInfo: Record<MissRuleKind, RuleKindInfo> = {
     name: 'Outside the band',
     watches: 'Actual load outside the forecast band for consecutive hours.',
     threshold: null,
+    reads: ['hours', 'bandLevel'],
   },
   error_over_threshold: {
     name: 'Error over threshold',
     watches: 'Absolute percentage error above the threshold for consecutive hours, ignoring hours below the load floor.',
     threshold: 'percent error',
+    reads: ['hours', 'threshold', 'floorKw'],
   },
   daily_peak_missed: {
     name: 'Daily peak missed',
     watches: "The day's peak off by more than the threshold, or its hour off by more than the tolerance.",
     threshold: 'percent peak error',
+    reads: ['threshold', 'floorKw', 'peakHourTolerance'],
   },
   creeping_bias: {
     name: 'Creeping bias',
-    watches: 'Errors piling up on one side: the tracking signal (running sum of errors over mean absolute error) beyond the limit.',
+    watches:
+      "Errors piling up on one side: the tracking signal (the sum of the last day's errors over their mean absolute error) beyond the limit.",
     threshold: 'tracking signal limit',
+    reads: ['hours', 'threshold'],
   },
   actuals_late: {
     name: 'Actuals late',
     watches: 'No new actuals for longer than expected.',
     threshold: 'hours without actuals',
+    reads: ['threshold'],
   },
   forecast_late: {
     name: 'No forecast by the deadline',
     watches: 'No forecast written for the series by the morning deadline.',
     threshold: null,
+    reads: [],
   },
   estimated_hours: {
     name: 'Too many estimated hours',
     watches: "More estimated hours in a day's actuals than the threshold.",
     threshold: 'estimated hours in a day',
+    reads: ['threshold'],
   },
 };
 

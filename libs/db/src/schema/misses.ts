@@ -51,7 +51,8 @@ export const missState = pgEnum('miss_state', ['open', 'acknowledged', 'resolved
  * `band_level` is the interval level (percent) for `outside_band`; `threshold` is the percentage
  * error for `error_over_threshold`, the peak error (percent) for `daily_peak_missed`, the tracking
  * signal limit for `creeping_bias`, hours without actuals for `actuals_late`, and estimated hours in a
- * day for `estimated_hours`. `hours` is how many consecutive hours must break the rule.
+ * day for `estimated_hours`. `hours` is how many consecutive hours must break the rule. A target (a
+ * level or a series) has at most one override of a kind that has not been removed.
  */
 export const missRules = pgTable(
   'miss_rules',
@@ -76,12 +77,20 @@ export const missRules = pgTable(
       .notNull()
       .default(sql`'{}'::text[]`),
     active: boolean('active').notNull().default(true),
+    /** When a planner removed this override: it no longer applies, and the misses it found keep their rule. */
+    removedAt: instant('removed_at'),
     createdById: integer('created_by_id').references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
   (t) => [
     index('miss_rules_scope_series_idx').on(t.scopeSeriesId),
+    uniqueIndex('miss_rules_one_level_override_key')
+      .on(t.kind, t.scopeLevel)
+      .where(sql`${t.scope} = 'level' and ${t.removedAt} is null`),
+    uniqueIndex('miss_rules_one_series_override_key')
+      .on(t.kind, t.scopeSeriesId)
+      .where(sql`${t.scope} = 'series' and ${t.removedAt} is null`),
     check(
       'miss_rules_scope_check',
       sql`(${t.scope} = 'all' and ${t.scopeLevel} is null and ${t.scopeSeriesId} is null)

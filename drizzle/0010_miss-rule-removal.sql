@@ -1,0 +1,3 @@
+ALTER TABLE "miss_rules" ADD COLUMN "removed_at" timestamp with time zone;--> statement-breakpoint
+CREATE UNIQUE INDEX "miss_rules_one_level_override_key" ON "miss_rules" USING btree ("kind","scope_level") WHERE "miss_rules"."scope" = 'level' and "miss_rules"."removed_at" is null;--> statement-breakpoint
+CREATE UNIQUE INDEX "miss_rules_one_series_override_key" ON "miss_rules" USING btree ("kind","scope_series_id") WHERE "miss_rules"."scope" = 'series' and "miss_rules"."removed_at" is null;
