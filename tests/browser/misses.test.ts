@@ -1,12 +1,15 @@
 /**
  * A manager-like viewer in a real browser over the demo co-op with its seeded misses: open a miss from
- * the Overview, read why it missed, acknowledge it with a comment. Then an admin changes the refit hour
- * and a miss rule default in Settings and sees both in use (the nightly schedule moves; the rule
- * reads back). axe-core on each page; screenshots at 1440×900.
+ * the Overview, read why it missed, acknowledge it with a comment, and read (never change) the rules.
+ * A planner overrides a rule for one series in the Rules view (a refused value explained first) and
+ * removes it again. Then an admin changes the refit hour and a miss rule default in Settings and sees
+ * both in use: the nightly schedule moves, the Rules view shows the new default, and detection judges
+ * by it. axe-core on each page; screenshots at 1440×900.
  */
 import { mkdir } from 'node:fs/promises';
 import { resolve } from 'node:path';
-import type { MissDetail, MissRule, Role } from '@loadwright/contracts';
+import type { MissDetail, MissRule, MissRulesInForce, Role } from '@loadwright/contracts';
+import { detectMisses } from '@loadwright/misses';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoScenario } from '../../fixtures/demo/scenario';
@@ -16,6 +19,7 @@ import { type TestServer, startTestServer } from '../support/server';
 import { blockingViolations, findAccessibilityViolations } from './support/accessibility';
 import { type TestBrowser, launchBrowser } from './support/browser';
 import { signInThroughPage } from './support/sign-in';
+import { actuals, approvedForecast, eventsOf, loadSeries } from '../misses/support';
 
 const artifacts = resolve(import.meta.dirname, '../.artifacts');
 const password = demoScenario.demoPassword;
@@ -96,6 +100,55 @@ describe('a viewer handles a miss', () => {
     // A viewer may acknowledge but not resolve.
     expect(await page.getByRole('button', { name: 'Resolve' }).count()).toBe(0);
   });
+
+  it('reads the rules in force but is offered no way to change them', async () => {
+    await page.getByRole('navigation', { name: 'Misses views' }).getByRole('link', { name: 'Rules' }).click();
+    await page.getByRole('heading', { level: 2, name: 'Rules in force for every feeder' }).waitFor();
+    await page.getByText('You can read these rules; planners and admins change them.').waitFor();
+    expect(await page.getByRole('button', { name: /^(Override|Change|Remove)/ }).count()).toBe(0);
+    await expectAccessible();
+  });
+});
+
+describe('a planner overrides a rule for one series', () => {
+  it('sees why a value is refused, adds the override, sees it in force, and removes it', async () => {
+    await browser.context.clearCookies();
+    const planner = account('planner');
+    const feeder = demoScenario.feeders[0];
+    await signInThroughPage(page, server.url, planner.email, password, '/misses/rules');
+    await page.getByRole('heading', { level: 2, name: 'Rules in force for every feeder' }).waitFor();
+    await page.getByRole('combobox', { name: 'Rules for' }).click();
+    await page.getByRole('option', { name: `${feeder!.name} (${feeder!.key})` }).click();
+    await page.getByRole('heading', { level: 2, name: `Rules in force for ${feeder!.name}` }).waitFor();
+
+    await page.getByRole('button', { name: 'Override Outside the band' }).click();
+    const form = page.getByRole('form', { name: `Outside the band override for ${feeder!.name}` });
+    await form.getByLabel('Band %').fill('150');
+    await form.getByRole('button', { name: 'Add override' }).click();
+    await form.getByText('The band level must be from 1 to 99.').waitFor();
+    await page.screenshot({ path: resolve(artifacts, 'miss-rules-refused.png'), fullPage: true });
+
+    await form.getByLabel('Band %').fill('80');
+    await form.getByLabel('Hours in a row').fill('2');
+    await form.getByLabel('Recipients').fill('role:planner, control-room@tallowmere.example');
+    await form.getByRole('button', { name: 'Add override' }).click();
+    await page.getByText(`Outside the band for ${feeder!.name}: override added.`).waitFor();
+    const row = page.getByRole('row', { name: /^Outside the band/ });
+    await row.getByText("This series' own override").waitFor();
+    await row.getByText('2 hours in a row; 80 % band; high severity; to role:planner, control-room@tallowmere.example').waitFor();
+    await page.screenshot({ path: resolve(artifacts, 'miss-rules-override.png'), fullPage: true });
+    await expectAccessible();
+
+    const seriesId = (await api<{ items: { id: number; key: string }[] }>(`/api/series?q=${feeder!.key}`)).items.find(
+      (s) => s.key === feeder!.key,
+    )!.id;
+    const view = await api<MissRulesInForce>(`/api/miss-rules/in-force?series=${seriesId}`);
+    expect(view.kinds.find((k) => k.kind === 'outside_band')).toMatchObject({ source: 'series', inForce: { hours: 2, bandLevel: 80 } });
+
+    await page.getByRole('button', { name: 'Remove the Outside the band override' }).click();
+    await page.getByText('Override removed: Outside the band follows the group override or the default again.').waitFor();
+    await row.getByText('Default (Settings)').waitFor();
+  });
 });
 
 describe('an admin changes settings', () => {
@@ -118,6 +171,25 @@ describe('an admin changes settings', () => {
 
     const rules = await api<MissRule[]>('/api/miss-rules');
     expect(rules.find((rule) => rule.scope === 'all' && rule.kind === 'outside_band')!.hours).toBe(4);
+    // The Rules view shows the new default in force for every feeder.
+    await page.goto(`${server.url}/misses/rules?level=feeder`);
+    await page
+      .getByRole('row', { name: /^Outside the band/ })
+      .getByText(/4 hours in a row; 95 % band; high severity/)
+      .waitFor();
+    await page.screenshot({ path: resolve(artifacts, 'miss-rules-default.png'), fullPage: true });
+
+    // Detection judges by it: a feeder 3 hours outside its band (±10 around 100) is no miss, the 4th hour makes one.
+    const seriesId = await loadSeries(server.db, 'browser-default-rule');
+    await approvedForecast(server.db, seriesId, '2026-10-31T05:00:00Z', 24);
+    await actuals(server.db, seriesId, '2026-10-31T05:00:00Z', [125, 125, 125]);
+    await detectMisses(server.db, seriesId, new Date('2026-10-31T08:00:00Z'));
+    const bandDefault = rules.find((rule) => rule.scope === 'all' && rule.kind === 'outside_band')!.id;
+    expect((await eventsOf(server.db, seriesId)).filter((e) => e.ruleId === bandDefault)).toEqual([]);
+    await actuals(server.db, seriesId, '2026-10-31T08:00:00Z', [125]);
+    await detectMisses(server.db, seriesId, new Date('2026-10-31T09:00:00Z'));
+    const [event] = (await eventsOf(server.db, seriesId)).filter((e) => e.ruleId === bandDefault);
+    expect(event!.periodEnd.getTime() - event!.periodStart.getTime()).toBe(4 * 3_600_000);
     // The worker moves the nightly schedule to 04:00 in the organisation's zone.
     let cron = '';
     for (let i = 0; i < 50 && cron !== '0 4 * * *'; i++) {

@@ -22,12 +22,14 @@ const sectionSubpaths: Readonly<Record<string, readonly string[]>> = {
   outbox: [':id'],
   uploads: [':id'],
   series: [':id'],
-  misses: [':id'],
+  // 'rules' before ':id', so the Rules view is not read as a miss id.
+  misses: ['rules', ':id'],
 };
 
 /** Extra paths served by a page of their own instead of the section's (e.g. one series), by full path. */
 const subpathPages: Readonly<Record<string, () => Promise<Type<unknown>>>> = {
   'series/:id': () => import('./series-page/series-page').then((m) => m.SeriesPage),
+  'misses/rules': () => import('./misses/miss-rules').then((m) => m.MissRules),
 };
 
 /**

@@ -14,6 +14,7 @@ import { SessionStore } from '../core/auth/session-store';
 import { problemMessage } from '../core/problems/api-problem';
 import { MissChart } from './miss-chart';
 import { MissesClient, type MissFilters } from './misses-client';
+import { MissesViews } from './misses-views';
 
 /**
  * The Misses page: open, acknowledged and resolved misses with filters by series, group, severity,
@@ -33,6 +34,7 @@ import { MissesClient, type MissFilters } from './misses-client';
     MatInputModule,
     MatSelectModule,
     MissChart,
+    MissesViews,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './misses.html',

@@ -18,6 +18,7 @@ import {
 } from '@loadwright/contracts';
 import type { Observable } from 'rxjs';
 import { problemMessage } from '../core/problems/api-problem';
+import { RULE_PARAMETER_FIELDS, numberOrNull } from '../shared/miss-rules/rule-parameters';
 
 /** A default rule as edited in the table. */
 type RuleDraft = Pick<MissRule, 'hours' | 'threshold' | 'bandLevel' | 'floorKw' | 'peakHourTolerance' | 'severity' | 'active'>;
@@ -39,6 +40,10 @@ export class Settings {
 
   protected readonly hours = Array.from({ length: 24 }, (_, h) => h);
   protected readonly severities = missSeverities;
+  /** The rule parameters, one table column each. */
+  protected readonly parameterFields = RULE_PARAMETER_FIELDS;
+  /** A number typed in a field, or null when left empty. */
+  protected readonly numberOrNull = numberOrNull;
 
   private readonly refreshes = signal(0);
   /** The organisation's settings as stored. */
@@ -166,12 +171,5 @@ export class Settings {
 
   private report(message: string): void {
     this.outcome.set(message);
-  }
-
-  /** A number typed in a field, or null when left empty. */
-  protected numberOrNull(value: string | number | null): number | null {
-    if (value === null || value === '') return null;
-    const n = Number(value);
-    return Number.isFinite(n) ? n : null;
   }
 }
