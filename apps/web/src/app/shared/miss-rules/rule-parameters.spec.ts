@@ -47,6 +47,11 @@ describe('describeRule', () => {
   });
 });
 
+it('words the tracking signal limit as a bound either side', () => {
+  const bias = rule({ kind: 'creeping_bias', reads: ['hours', 'threshold'], thresholdMeaning: 'tracking signal limit', threshold: 4 });
+  expect(describeRule(bias)).toBe('3 hours in a row; tracking signal beyond ±4; high severity; to role:admin, role:planner');
+});
+
 describe('numberOrNull', () => {
   it('reads typed numbers and leaves empty or unreadable input as null', () => {
     expect(numberOrNull('4')).toBe(4);

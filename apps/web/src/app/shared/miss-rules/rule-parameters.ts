@@ -66,6 +66,8 @@ export function describeRule(rule: MissRule): string {
     const value = rule[field.key];
     if (value === null) continue;
     if (field.key === 'hours') parts.push(value === 1 ? '1 hour' : `${value} hours in a row`);
+    // The tracking signal limit is a bound either side, read better after its name.
+    else if (field.key === 'threshold' && rule.kind === 'creeping_bias') parts.push(`tracking signal beyond ±${value}`);
     else if (field.key === 'threshold') parts.push(`${value} ${rule.thresholdMeaning ?? ''}`.trim());
     else if (field.key === 'bandLevel') parts.push(`${value} % band`);
     else if (field.key === 'floorKw') parts.push(`floor ${value} kW`);
