@@ -106,6 +106,11 @@ export class WeatherScenarios {
     this.chosen.update((keys) => (on ? [...keys.filter((k) => k !== key), key] : keys.filter((k) => k !== key)));
   }
 
+  /** A signed temperature difference, e.g. "−14.0 °F". */
+  protected signedDegrees(value: number): string {
+    return `${value > 0 ? '+' : value < 0 ? '−' : '±'}${Math.abs(value).toFixed(1)} ${this.degrees()}`;
+  }
+
   /** A signed change with the series' unit, e.g. "+12.0 MW". */
   protected change(value: number | null): string {
     if (value === null) return '—';
