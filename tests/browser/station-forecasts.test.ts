@@ -108,6 +108,47 @@ describe('the station page as a steward', () => {
     expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
   });
 
+  it('names the row a file cannot store, offers no store, and the steward discards it', async () => {
+    const section = page.locator('lw-station-forecasts');
+    const lines = [
+      'issued,valid,temp_c',
+      ...Array.from(
+        { length: 24 },
+        (_, k) => `2026-12-04 06:00,${new Date(Date.parse('2026-12-05T06:00:00Z') + k * 3_600_000).toISOString()},${k === 2 ? 400 : 5}`,
+      ),
+    ];
+    await section
+      .getByLabel('Forecast file (CSV)')
+      .setInputFiles({ name: 'hot-typo.csv', mimeType: 'text/csv', buffer: Buffer.from(`${lines.join('\n')}\n`) });
+    await section.getByRole('table', { name: /First rows of hot-typo\.csv/ }).waitFor();
+    await section.getByRole('button', { name: 'Check the file' }).click();
+    const verdict = section.getByTestId('forecast-check');
+    await verdict.waitFor();
+    expect(await verdict.textContent()).toContain(
+      '1 issue with 24 valid hours for Millrace Flats weather station; 1 problem stops the file from being stored.',
+    );
+    // Row 1 is the header: the third hour is on row 4.
+    expect(await section.locator('ul.problems').textContent()).toContain(
+      'Row 4, temp_c: 400 °C is outside plausible air temperatures (-70 to 60 °C). Is the unit right?',
+    );
+    expect(await section.getByRole('button', { name: /^Store/ }).count()).toBe(0);
+    await page.screenshot({ path: resolve(artifacts, 'station-forecast-problem.png') });
+    await section.getByRole('button', { name: 'Discard the file' }).click();
+    await expect
+      .poll(
+        async () =>
+          (await section
+            .locator('lw-forecast-upload')
+            .getByRole('status')
+            .textContent()
+            .catch(() => '')) ?? '',
+        { timeout: 15_000 },
+      )
+      .toBe('Discarded hot-typo.csv; nothing was stored.');
+    const { rows } = await server.pool.query('select count(*)::int as n from temperature_forecasts where series_id = $1', [stationId]);
+    expect(rows[0].n).toBe(7 * 192 + 96);
+  });
+
   it('answers the same file again with the earlier upload and stores nothing more', async () => {
     const section = page.locator('lw-station-forecasts');
     await section

@@ -76,7 +76,7 @@ export async function storeTemperatureForecastFile(
     return result(
       false,
       problems.length
-        ? `${found}; ${problems.length} problem${problems.length === 1 ? '' : 's'} stop the file from being stored.`
+        ? `${found}; ${problems.length} problem${problems.length === 1 ? ' stops' : 's stop'} the file from being stored.`
         : `${found}, ready to store.`,
     );
   if (problems.length > 0) {
@@ -84,7 +84,7 @@ export async function storeTemperatureForecastFile(
     if (refused && problems.length === 1) throw issueExists(station, refused.summary.issuedAt, 'Nothing from this file was stored.');
     throw new HttpProblem(
       'invalidInput',
-      `${problems.length} problem${problems.length === 1 ? '' : 's'} stop the file from being stored; nothing was stored. ${problems[0]}`,
+      `${problems.length} problem${problems.length === 1 ? ' stops' : 's stop'} the file from being stored; nothing was stored. ${problems[0]}`,
       problems.map((detail) => ({ pointer: '/file', detail })),
     );
   }

@@ -39,6 +39,8 @@ export class ForecastUpload {
   readonly station = input.required<SeriesDetail>();
   /** Emits the sentence saying what was stored. */
   readonly stored = output<string>();
+  /** Emits when a new file is sent, so an earlier outcome stops showing. */
+  readonly started = output<void>();
 
   /** The received file, awaiting how to read it. */
   protected readonly receipt = signal<UploadReceipt | null>(null);
@@ -82,14 +84,17 @@ export class ForecastUpload {
     field.value = '';
     if (!file) return;
     this.reset();
+    this.started.emit();
     this.busy.set(true);
     this.client.send(file).subscribe({
       next: (receipt) => {
         this.busy.set(false);
-        if (receipt.duplicateOf !== null || receipt.upload.status !== 'received') {
+        if (receipt.upload.status !== 'received') {
           this.message.set(receipt.message ?? receipt.upload.error ?? `Upload ${receipt.upload.id} is ${receipt.upload.status}.`);
           return;
         }
+        // The same file sent earlier and never stored: carry on with that upload, saying so.
+        if (receipt.duplicateOf !== null) this.message.set(`${receipt.message} Carrying on with it.`);
         const guess = guessForecastColumns(receipt.layout?.columns ?? []);
         this.reading.set({
           issuedAtColumn: guess.issuedAtColumn ?? '',
