@@ -2,11 +2,14 @@
  * Weather on the series page in a real browser as a planner, over the seeded demo co-op (which ships a week
  * of station forecasts issued each morning): after a real refit of Tallowmere Town (zone-central, linked to
  * Millrace Flats, °F) with a fixed CMLE model, the fan chart overlays the temperatures the forecast assumed
- * and says which forecast issue they came from; the model card names the issue too. Screenshot at 1440×900.
+ * and says which forecast issue they came from; the model card names the issue too. The planner then asks how the
+ * week moves if it runs 8 °F hotter: the scenario joins the fan chart and the table gives each day's peak change as
+ * the API's re-run says (the arithmetic is checked by hand in tests/forecasts/temperature-scenarios.test.ts), with
+ * the caution beside it. Screenshots at 1440×900.
  */
 import { mkdir } from 'node:fs/promises';
 import { resolve } from 'node:path';
-import type { AssumedTemperatures, RefitRunDetail, Role } from '@loadwright/contracts';
+import type { AssumedTemperatures, RefitRunDetail, Role, TemperatureScenarios } from '@loadwright/contracts';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoScenario } from '../../fixtures/demo/scenario';
@@ -82,6 +85,39 @@ describe('temperatures on the series page', () => {
     expect(await page.locator('lw-model-card').textContent()).toContain('forecast issued 2026-11-30 12:00 UTC (168 of 168 hours)');
     await page.locator('lw-forecast-chart').evaluate((chart) => chart.scrollIntoView({ block: 'center' }));
     await page.screenshot({ path: resolve(artifacts, 'weather-overlay.png') });
+    expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
+    expect(pageErrors).toEqual([]);
+  });
+});
+
+describe('weather scenarios on the series page', () => {
+  it('shows how the daily peaks move if the week runs 8 °F hotter, as a line on the fan chart and a table', async () => {
+    const section = page.locator('lw-weather-scenarios');
+    await section.getByRole('heading', { name: 'If the weather turns out otherwise' }).scrollIntoViewIfNeeded();
+    await section.getByLabel('Degrees hotter or colder').click();
+    await page.getByRole('option', { name: '8 °F' }).click();
+    // Only the hotter line: leave the colder one out of the chart and the table.
+    await section.getByRole('checkbox', { name: /8 °F colder/ }).uncheck();
+    const table = section.locator('table.scenario-peaks');
+    await expect.poll(async () => (await table.locator('thead').textContent()) ?? '', { timeout: 15_000 }).toContain('8 °F hotter');
+    expect(await table.locator('thead').textContent()).not.toContain('colder');
+
+    const scenarios = await api<TemperatureScenarios>(`/api/series/${zoneId}/temperature-scenarios?shift=8`);
+    const hotter = scenarios.scenarios.find((scenario) => scenario.key === 'hotter')!;
+    const firstDay = scenarios.base.dailyPeaks[0]!;
+    const change = hotter.dailyPeaks[0]!.value - firstDay.value;
+    expect(change).not.toBe(0);
+    const magnitude = Math.abs(change).toLocaleString('en-GB', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
+    const firstRow = table.locator('tbody tr').first();
+    expect(await firstRow.locator('th').textContent()).toContain(firstDay.date);
+    expect(((await firstRow.locator('td').nth(1).textContent()) ?? '').trim()).toContain(`${change > 0 ? '+' : '−'}${magnitude} MW`);
+    expect(await section.getByTestId('scenario-caution').textContent()).toContain('decision support for peak warnings');
+    expect(await page.locator('lw-forecast-chart canvas').getAttribute('aria-label')).toContain('with 1 weather scenario lines');
+
+    await page.locator('lw-forecast-chart').evaluate((chart) => chart.scrollIntoView({ block: 'start' }));
+    await page.screenshot({ path: resolve(artifacts, 'weather-scenario-chart.png') });
+    await section.evaluate((element) => element.scrollIntoView({ block: 'start' }));
+    await page.screenshot({ path: resolve(artifacts, 'weather-scenario-peaks.png') });
     expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
     expect(pageErrors).toEqual([]);
   });

@@ -5,6 +5,7 @@ import { auditRoutes } from './audit/audit-routes';
 import { authRoutes } from './auth/auth-routes';
 import { forecastRoutes } from './forecasts/forecast-routes';
 import { hierarchyRoutes } from './forecasts/hierarchy-routes';
+import { temperatureScenarioRoutes } from './forecasts/temperature-scenario-routes';
 import { healthRoutes } from './health/health-routes';
 import { uploadRoutes } from './intake/upload-routes';
 import { buildOpenApiDocument } from './http/openapi';
@@ -33,7 +34,7 @@ export function apiRoutes(context: AppContext): RouteDefinition[] {
     ...outboxRoutes(context),
   ];
   routes.push(...forecastRoutes(context));
-  routes.push(...hierarchyRoutes(context));
+  routes.push(...hierarchyRoutes(context), ...temperatureScenarioRoutes(context));
   routes.push(...modelRoutes(context), ...refitRoutes(context));
   routes.push(...seriesRoutes(context), ...readingsRoutes(context));
   routes.push(...temperatureForecastRoutes(context));

@@ -16,6 +16,7 @@ export * from './refits';
 export * from './uploads';
 export * from './hierarchy';
 export * from './temperature-forecasts';
+export * from './temperature-scenarios';
 export * from './validation-messages';
 export * from './organisation';
 export * from './misses';

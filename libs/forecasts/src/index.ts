@@ -11,3 +11,4 @@ export * from './hierarchy-coherence';
 export * from './hierarchy-reconciliation';
 export * from './reconciled-sets';
 export * from './assumed-temperatures';
+export * from './temperature-scenarios';

@@ -10,3 +10,5 @@ export * from './load-catalogue';
 export * from './propose-mapping';
 export * from './time-zone-offset';
 export * from './upload-store';
+export * from './temperature-forecast-file';
+export { UploadRejection } from './upload-rejection';

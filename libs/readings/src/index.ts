@@ -6,3 +6,4 @@ export * from './import-service';
 export * from './push-readings';
 export * from './temperature-forecast-issues';
 export * from './green-button/read-green-button-off-thread';
+export * from './temperature-forecast-upload';

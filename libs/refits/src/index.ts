@@ -9,4 +9,5 @@ export * from './start-run';
 export { autoSelect, candidateKeys, type AutoChoice, type AutoOptions, type CandidateKey } from './auto-select';
 export { fitSeriesModel, type SeriesModelOutcome } from './fit-series-model';
 export { defaultModelSettings } from './model-settings';
+export { defaultBalancePoints } from './model-plan';
 export type { RefitInputs } from './series-window';

@@ -1,11 +1,26 @@
 /**
  * Temperature forecast issues of a weather station: pushed by a provider's system with a token (or a steward),
- * listed for the station page. `:series` is the station's id or key.
+ * or uploaded as a CSV file (received by POST /api/uploads, then read here as issues); listed with their hours
+ * for the station page. `:series` is the station's id or key.
  */
-import { pushTemperatureForecastSchema, temperatureForecastIssueListSchema, temperatureForecastIssueSchema } from '@loadwright/contracts';
+import {
+  idParamsSchema,
+  pushTemperatureForecastSchema,
+  temperatureForecastFileResultSchema,
+  temperatureForecastFileSchema,
+  temperatureForecastHoursQuerySchema,
+  temperatureForecastHoursSchema,
+  temperatureForecastIssueListSchema,
+  temperatureForecastIssueSchema,
+} from '@loadwright/contracts';
 import type { Series } from '@loadwright/db';
 import { HttpProblem } from '@loadwright/problems';
-import { listTemperatureForecasts, storeTemperatureForecast } from '@loadwright/readings';
+import {
+  listTemperatureForecasts,
+  storeTemperatureForecast,
+  storeTemperatureForecastFile,
+  temperatureForecastHours,
+} from '@loadwright/readings';
 import { findSeriesByRef } from '@loadwright/series';
 import { z } from 'zod';
 import type { AppContext } from '../app-context';
@@ -45,6 +60,29 @@ export function temperatureForecastRoutes({ db }: AppContext): RouteDefinition[]
       params: seriesParams,
       response: temperatureForecastIssueListSchema,
       handler: async ({ params }) => listTemperatureForecasts(db, await stationOf(params.series)),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/series/:series/temperature-forecast-hours',
+      access: 'data.read',
+      tag,
+      summary: 'The valid hours of one temperature forecast issue of a station, in its unit',
+      params: seriesParams,
+      query: temperatureForecastHoursQuerySchema,
+      response: temperatureForecastHoursSchema,
+      handler: async ({ params, query }) => temperatureForecastHours(db, await stationOf(params.series), query.issuedAt),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/uploads/:id/temperature-forecast',
+      access: 'data.upload',
+      tag: 'Uploads',
+      summary:
+        'Read a received CSV file as temperature forecast issues (issue time, valid hour, temperature columns; °C or °F converted once): check only, or store every issue all or nothing',
+      params: idParamsSchema,
+      body: temperatureForecastFileSchema,
+      response: temperatureForecastFileResultSchema,
+      handler: ({ params, body, actor, req }) => storeTemperatureForecastFile(db, params.id, body, { actor, ip: clientAddress(req) }),
     }),
   ];
 }

@@ -8,3 +8,4 @@ export * from './seasonal-naive-model';
 export * from './exact-arima-forecast';
 export * from './fit-load-model';
 export * from './forecast-load-model';
+export * from './temperature-scenario';

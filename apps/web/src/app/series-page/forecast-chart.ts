@@ -1,14 +1,16 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { ChartData, ChartDataset, ChartOptions, TooltipItem } from 'chart.js';
-import type { AssumedTemperatures, ForecastReview } from '@loadwright/contracts';
+import type { AssumedTemperatures, ForecastReview, TemperatureScenario } from '@loadwright/contracts';
 import { BaseChartDirective } from 'ng2-charts';
+import { scenarioStyle } from '../weather-scenarios/scenario-style';
 import { bandTooltipText, fanChartData, reviewedVersion } from './chart-data';
 import { chartColours, timeChartOptions, unitLabel, withUnit } from './chart-theme';
 
 /**
  * The forecast fan chart: actuals so far, the version under review with its 95 % and 80 % bands
  * (filled, the 80 % band darker, each named in the legend), the approved version as a dashed line,
- * and the adjusted mean as a dotted line where a planner adjusted the draft.
+ * and the adjusted mean as a dotted line where a planner adjusted the draft; weather scenarios a planner chose
+ * as extra lines.
  */
 @Component({
   selector: 'lw-forecast-chart',
@@ -35,6 +37,8 @@ export class ForecastChart {
   readonly review = input.required<ForecastReview>();
   /** The temperatures the forecast assumed, drawn against a right-hand axis; null or unused draws none. */
   readonly temperatures = input<AssumedTemperatures | null>(null);
+  /** Weather scenarios to draw as extra lines (the forecast re-run with other temperatures). */
+  readonly scenarios = input<readonly TemperatureScenario[]>([]);
   /** True when there are assumed temperatures to draw. */
   protected readonly withTemperature = computed(() => (this.temperatures()?.hours.length ?? 0) > 0);
 
@@ -103,6 +107,19 @@ export class ForecastChart {
       pointRadius: 0,
       pointStyle: 'line',
     });
+    let pastYear = 0;
+    for (const scenario of this.scenarios()) {
+      const style = scenarioStyle(scenario, scenario.kind === 'past-year' ? pastYear++ : 0);
+      datasets.push({
+        label: `Scenario: ${scenario.label}`,
+        data: scenario.points.map((point) => ({ x: Date.parse(point.ts), y: point.value })),
+        borderColor: style.colour,
+        borderWidth: 2,
+        borderDash: style.dash,
+        pointRadius: 0,
+        pointStyle: 'line',
+      });
+    }
     const temperatures = this.temperatures();
     if (temperatures && temperatures.hours.length && temperatures.station) {
       const unit = temperatures.station.unit === 'degC' ? '°C' : '°F';
@@ -170,6 +187,6 @@ export class ForecastChart {
     const review = this.review();
     const version = reviewedVersion(review);
     if (!version) return 'No forecast yet.';
-    return `Forecast fan chart of ${review.series.name} in ${unitLabel(review.series.unit)}: ${version.state} version with 80 % and 95 % intervals${review.draft && review.approved ? ', the approved version' : ''} and actual load so far. Daily peaks are listed in the table below.`;
+    return `Forecast fan chart of ${review.series.name} in ${unitLabel(review.series.unit)}: ${version.state} version with 80 % and 95 % intervals${review.draft && review.approved ? ', the approved version' : ''} and actual load so far${this.scenarios().length ? `, with ${this.scenarios().length} weather scenario lines` : ''}. Daily peaks are listed in the tables below.`;
   });
 }

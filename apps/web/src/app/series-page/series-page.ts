@@ -15,6 +15,7 @@ import {
   type ModelSettings,
   type ReconciliationResult,
   type SeriesDetail,
+  type TemperatureScenario,
   forecastExportPath,
   modelMethodLabels,
   versionTimeliness,
@@ -35,6 +36,8 @@ import { ModelCard } from './model-card';
 import { ModelSettingsDialog, type ModelSettingsDialogData } from './model-settings-dialog';
 import { SeriesPageClient } from './series-page-client';
 import { zoneAbbreviation, zonedClock } from './zoned-time';
+import { WeatherScenarios } from '../weather-scenarios/weather-scenarios';
+import { StationForecasts } from '../station/station-forecasts';
 
 /** Everything the page reads about one series. */
 type PageState =
@@ -68,6 +71,8 @@ const optional = <T>(source: Observable<T>): Observable<T | null> => source.pipe
     GroupApproval,
     HistoryChart,
     ModelCard,
+    StationForecasts,
+    WeatherScenarios,
   ],
   providers: [
     provideCharts(withDefaultRegisterables(), { defaults: { font: { family: "'Source Sans 3', system-ui, sans-serif", size: 13 } } }),
@@ -138,6 +143,15 @@ export class SeriesPage {
   /** Permissions of the person looking. */
   protected readonly canApprove = computed(() => this.session.permissions().has('forecasts.approve'));
   protected readonly canEditModel = computed(() => this.session.permissions().has('models.edit'));
+  protected readonly canUpload = computed(() => this.session.permissions().has('data.upload'));
+
+  /** Weather scenarios the planner chose to draw on the fan chart. */
+  protected readonly scenarioLines = signal<TemperatureScenario[]>([]);
+  /** Changes when the reviewed version or its adjustments change, so the scenarios are read again. */
+  protected readonly scenarioRevision = computed(() => {
+    const version = this.version();
+    return version ? `${version.id}:${version.adjustments.map((a) => a.id).join(',')}` : '';
+  });
 
   /** Time zone of the export: UTC or the series' own. */
   protected readonly exportZone = signal<'utc' | 'series'>('series');
