@@ -19,3 +19,4 @@ export * from './temperature-forecasts';
 export * from './validation-messages';
 export * from './organisation';
 export * from './misses';
+export * from './accuracy';
