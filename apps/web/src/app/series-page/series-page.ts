@@ -54,6 +54,8 @@ type PageState =
 const optional = <T>(source: Observable<T>): Observable<T | null> => source.pipe(catchError(() => of(null)));
 
 /** One series: history, forecast fan chart with 80/95 % bands, peaks, adjustments, approval, export, model card, versions. */
+import { SeriesAccuracy } from '../series-accuracy/series-accuracy';
+
 @Component({
   selector: 'lw-series-page',
   imports: [
@@ -68,6 +70,7 @@ const optional = <T>(source: Observable<T>): Observable<T | null> => source.pipe
     GroupApproval,
     HistoryChart,
     ModelCard,
+    SeriesAccuracy,
   ],
   providers: [
     provideCharts(withDefaultRegisterables(), { defaults: { font: { family: "'Source Sans 3', system-ui, sans-serif", size: 13 } } }),
