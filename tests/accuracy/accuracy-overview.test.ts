@@ -55,5 +55,9 @@ it('pools skill over scaled errors and lists the series with the highest MASE fi
   expect(overview.worst[1]!.mape).toBeCloseTo(3.125, 12);
   // Flat forecasts with a ±3.9 band miss 160 every hour.
   expect(overview.worst[1]!.coverage95).toBe(0);
-  expect(overview.window).toEqual({ from: new Date(origin + 24 * hourMs - 28 * 86_400_000).toISOString(), to: new Date(origin + 24 * hourMs).toISOString(), days: 28 });
+  expect(overview.window).toEqual({
+    from: new Date(origin + 24 * hourMs - 28 * 86_400_000).toISOString(),
+    to: new Date(origin + 24 * hourMs).toISOString(),
+    days: 28,
+  });
 });

@@ -55,13 +55,7 @@ export async function versionsToScore(db: ScoreDb, seriesId: number, since: Date
  * interval arrived. Hours are counted from `anchor` (a forecast instant), so series in half-hour zones
  * bucket like their forecasts.
  */
-export async function hourlyActuals(
-  db: ScoreDb,
-  target: ScorableSeries,
-  from: Date,
-  to: Date,
-  anchor: Date,
-): Promise<Map<number, number>> {
+export async function hourlyActuals(db: ScoreDb, target: ScorableSeries, from: Date, to: Date, anchor: Date): Promise<Map<number, number>> {
   const perHour = Math.round(60 / target.intervalMinutes);
   const { rows } = await db.execute<{ hour_ms: number; value: number }>(sql`
     select (extract(epoch from date_bin('1 hour', ts, ${anchor.toISOString()}::timestamptz)) * 1000)::float8 as hour_ms,

@@ -26,11 +26,7 @@ export interface ScoringOutcome {
  * eight days) and began before now. A series scoring does not apply to (archived, not load, daily
  * readings) is left alone.
  */
-export async function scoreSeries(
-  db: Database,
-  seriesId: number,
-  options: { now?: Date; since?: Date } = {},
-): Promise<ScoringOutcome> {
+export async function scoreSeries(db: Database, seriesId: number, options: { now?: Date; since?: Date } = {}): Promise<ScoringOutcome> {
   const now = options.now ?? new Date();
   const since = options.since ?? new Date(now.getTime() - rescoreWindowHours * hourMs);
   const outcome: ScoringOutcome = { seriesId, versions: 0, hours: 0 };

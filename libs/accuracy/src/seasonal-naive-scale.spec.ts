@@ -14,9 +14,19 @@ function fiveWeeks(valueOf: (week: number, hourOfWeek: number) => number): Map<n
 describe('seasonalNaiveScale (MASE scale, Hyndman & Koehler 2006 §3, m = 168)', () => {
   it('is the mean |y_t − y_{t−168}| over the four weeks before the origin', () => {
     // Each week is 10 above the one before: every pair differs by 10, so Q = 10.
-    expect(seasonalNaiveScale(fiveWeeks((week) => 10 * week), origin)).toBeCloseTo(10, 12);
+    expect(
+      seasonalNaiveScale(
+        fiveWeeks((week) => 10 * week),
+        origin,
+      ),
+    ).toBeCloseTo(10, 12);
     // Weeks alternate 0, 6, 0, 6, 0 on even hours of the week and stay 0 on odd ones: Q = (6 + 0) / 2 = 3.
-    expect(seasonalNaiveScale(fiveWeeks((week, h) => (h % 2 === 0 && week % 2 === 0 ? 6 : 0)), origin)).toBeCloseTo(3, 12);
+    expect(
+      seasonalNaiveScale(
+        fiveWeeks((week, h) => (h % 2 === 0 && week % 2 === 0 ? 6 : 0)),
+        origin,
+      ),
+    ).toBeCloseTo(3, 12);
   });
 
   it('skips pairs with a missing actual, and gives null with under a week of pairs or a flat history', () => {
@@ -25,7 +35,12 @@ describe('seasonalNaiveScale (MASE scale, Hyndman & Koehler 2006 §3, m = 168)',
     expect(seasonalNaiveScale(gappy, origin)).toBeCloseTo(10, 12);
     const short = new Map([...gappy].filter(([t]) => t >= origin - 300 * hourMs));
     expect(seasonalNaiveScale(short, origin)).toBeNull();
-    expect(seasonalNaiveScale(fiveWeeks(() => 7), origin)).toBeNull();
+    expect(
+      seasonalNaiveScale(
+        fiveWeeks(() => 7),
+        origin,
+      ),
+    ).toBeNull();
   });
 });
 

@@ -52,7 +52,9 @@ export function buildSeriesAccuracy(
 ): SeriesAccuracy {
   const { seriesId, unit, timeZone } = context;
   const window = { from: context.from.toISOString(), to: context.to.toISOString(), days: context.days };
-  const byHorizon = [...groupBy(rows, (row) => row.horizon)].sort(([a], [b]) => a - b).map(([horizon, group]) => ({ horizon, ...summaryOf(group) }));
+  const byHorizon = [...groupBy(rows, (row) => row.horizon)]
+    .sort(([a], [b]) => a - b)
+    .map(([horizon, group]) => ({ horizon, ...summaryOf(group) }));
   const dayTypeGroups = groupBy(rows, (row) => row.dayType);
   const byDayType = dayTypes.flatMap((dayType) => {
     const group = dayTypeGroups.get(dayType);

@@ -13,7 +13,7 @@ type AccuracyState =
 /** "12 % better than", "5 % worse than" or "no better than" the same hour last week. */
 function skillWords(skill: number): string {
   const percent = Math.round(Math.abs(skill) * 100);
-  if (percent === 0) return 'no better than';
+  if (percent === 0) return 'No better than';
   return `${percent} % ${skill > 0 ? 'better' : 'worse'} than`;
 }
 

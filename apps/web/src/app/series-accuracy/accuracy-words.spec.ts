@@ -1,12 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { coverageVerdict, hoursText, percentOf, skillSentence } from './accuracy-words';
+import { coverageVerdict, hoursText, percentOf, skillShort } from './accuracy-words';
 
 describe('accuracy words', () => {
   it('says skill against the same hour last week plainly', () => {
-    expect(skillSentence(0.123)).toBe('12 % better than the same hour last week');
-    expect(skillSentence(-0.05)).toBe('5 % worse than the same hour last week');
-    expect(skillSentence(0.001)).toBe('no better than the same hour last week');
-    expect(skillSentence(null)).toBeNull();
+    expect(skillShort(0.001)).toBe('No better');
+    expect(skillShort(null)).toBeNull();
+    expect(skillShort(0.123)).toBe('12 % better');
+    expect(skillShort(-0.05)).toBe('5 % worse');
+    expect(skillShort(0)).toBe('No better');
   });
 
   it('judges coverage against the nominal level with five points of tolerance', () => {

@@ -1,11 +1,11 @@
 /** Accuracy figures in plain words for planners. */
 
-/** "12 % better than the same hour last week", "5 % worse than …", "no better than …", or null. */
-export function skillSentence(skill: number | null | undefined): string | null {
+/** "12 % better", "5 % worse" or "No better": skill against the same hour last week, for a tile headed by the benchmark. */
+export function skillShort(skill: number | null | undefined): string | null {
   if (skill === null || skill === undefined) return null;
   const percent = Math.round(Math.abs(skill) * 100);
-  if (percent === 0) return 'no better than the same hour last week';
-  return `${percent} % ${skill > 0 ? 'better' : 'worse'} than the same hour last week`;
+  if (percent === 0) return 'No better';
+  return `${percent} % ${skill > 0 ? 'better' : 'worse'}`;
 }
 
 /** A share (0–1) as a whole percentage, "87 %". */

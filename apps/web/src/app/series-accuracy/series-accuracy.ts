@@ -10,7 +10,7 @@ import { catchError, combineLatest, map, of, startWith, switchMap } from 'rxjs';
 import { problemMessage } from '../core/problems/api-problem';
 import { chartColours, timeChartOptions, unitLabel, withUnit } from '../series-page/chart-theme';
 import { bandKindLabels, coverageChartData, horizonChartData, recentChartData } from './accuracy-charts';
-import { coverageVerdict, hoursText, percentOf, percentValue, skillSentence } from './accuracy-words';
+import { coverageVerdict, hoursText, percentOf, percentValue, skillShort } from './accuracy-words';
 
 /** Windows the section offers, in days up to the newest scored hour. */
 export const accuracyWindows = [7, 28, 90] as const;
@@ -159,17 +159,8 @@ export class SeriesAccuracy {
     };
   });
 
-  /** The overall figures in words for the tiles. */
-  protected readonly headline = computed(() => {
-    const report = this.report();
-    if (!report) return null;
-    const overall = report.overall!;
-    return {
-      skill: skillSentence(overall.skill),
-      coverage80: `${percentOf(overall.coverage80)} inside the 80 % band: ${coverageVerdict(overall.coverage80, 0.8)}`,
-      coverage95: `${percentOf(overall.coverage95)} inside the 95 % band: ${coverageVerdict(overall.coverage95, 0.95)}`,
-    };
-  });
+  /** Skill against the same hour last week in words. */
+  protected readonly skill = computed(() => skillShort(this.report()?.overall?.skill));
 
   protected readonly dayTypeLabels = dayTypeLabels;
   protected readonly bandKindLabels = bandKindLabels;
