@@ -82,32 +82,45 @@ export async function holidayDates(db: ScoreDb, from: Date, to: Date): Promise<S
   return new Set(rows.map((row) => row.day));
 }
 
-const excluded = (column: string) => sql.raw(`excluded.${column}`);
+/** Each stored column with its PostgreSQL type and how a scored hour fills it, in table order. */
+const scoreColumns: ReadonlyArray<readonly [string, string, (hour: ScoredHour, seriesId: number) => unknown]> = [
+  ['version_id', 'bigint', (h) => h.versionId],
+  ['series_id', 'integer', (_h, seriesId) => seriesId],
+  ['ts', 'timestamptz', (h) => h.ts.toISOString()],
+  ['horizon', 'smallint', (h) => h.horizon],
+  ['local_date', 'date', (h) => h.localDate],
+  ['local_hour', 'smallint', (h) => h.localHour],
+  ['day_type', 'day_type', (h) => h.dayType],
+  ['actual', 'float8', (h) => h.actual],
+  ['forecast', 'float8', (h) => h.forecast],
+  ['naive', 'float8', (h) => h.naive],
+  ['scale', 'float8', (h) => h.scale],
+  ['lower_80', 'float8', (h) => h.lower80],
+  ['upper_80', 'float8', (h) => h.upper80],
+  ['lower_95', 'float8', (h) => h.lower95],
+  ['upper_95', 'float8', (h) => h.upper95],
+];
 
-/** Writes scored hours of a series, replacing the stored ones of the same version and hour. */
+/** The columns a new score can change (all but the key and the series). */
+const changeable = scoreColumns.map(([name]) => name).filter((name) => !['version_id', 'series_id', 'ts'].includes(name));
+
+/**
+ * Writes scored hours of a series, replacing the stored ones of the same version and hour. One
+ * statement of column arrays (unnest), so thousands of hours travel as 15 parameters; an hour scored
+ * again with the same numbers (the hourly job's usual case) is left as it is, making no new row version.
+ */
 export async function writeScores(db: ScoreDb, seriesId: number, hours: readonly ScoredHour[]): Promise<void> {
-  for (let i = 0; i < hours.length; i += 1000) {
-    await db
-      .insert(forecastHourScores)
-      .values(hours.slice(i, i + 1000).map((hour) => ({ ...hour, seriesId })))
-      .onConflictDoUpdate({
-        target: [forecastHourScores.versionId, forecastHourScores.ts],
-        set: {
-          horizon: excluded('horizon'),
-          localDate: excluded('local_date'),
-          localHour: excluded('local_hour'),
-          dayType: excluded('day_type'),
-          actual: excluded('actual'),
-          forecast: excluded('forecast'),
-          naive: excluded('naive'),
-          scale: excluded('scale'),
-          lower80: excluded('lower_80'),
-          upper80: excluded('upper_80'),
-          lower95: excluded('lower_95'),
-          upper95: excluded('upper_95'),
-        },
-      });
-  }
+  if (hours.length === 0) return;
+  const arrays = scoreColumns.map(([, type, value]) => sql`${sql.param(hours.map((hour) => value(hour, seriesId)))}::${sql.raw(type)}[]`);
+  const names = sql.raw(scoreColumns.map(([name]) => name).join(', '));
+  const updates = sql.raw(changeable.map((name) => `${name} = excluded.${name}`).join(', '));
+  const changed = sql.raw(
+    `(${changeable.map((name) => `forecast_hour_scores.${name}`).join(', ')}) is distinct from (${changeable.map((name) => `excluded.${name}`).join(', ')})`,
+  );
+  await db.execute(sql`
+    insert into forecast_hour_scores (${names})
+    select * from unnest(${sql.join(arrays, sql`, `)})
+    on conflict (version_id, ts) do update set ${updates} where ${changed}`);
 }
 
 /** A scored hour with what the version it belongs to was. */

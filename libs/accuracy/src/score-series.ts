@@ -44,12 +44,13 @@ export async function scoreSeries(db: Database, seriesId: number, options: { now
     pointsOf(db, ids),
     adjustmentsOf(db, ids),
   ]);
+  const clocks = new Map<number, { date: string; hour: number }>();
   const scored = versions.flatMap((version) => {
     const own = points.get(version.id) ?? [];
     const adjusted = adjustPoints(own, adjustments.get(version.id) ?? []);
     // Scored as handed on: the planners' adjusted numbers where an adjustment covers the hour.
     const handedOn: HandedOnHour[] = own.map((point, i) => ({ ...point, ...(adjusted[i] ?? {}) }));
-    return scoreVersion(version, handedOn, actuals, { timeZone: target.timeZone, holidays: calendar });
+    return scoreVersion(version, handedOn, actuals, { timeZone: target.timeZone, holidays: calendar, clocks });
   });
   await db.transaction((tx) => writeScores(tx, seriesId, scored));
   outcome.versions = new Set(scored.map((h) => h.versionId)).size;

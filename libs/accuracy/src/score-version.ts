@@ -31,6 +31,21 @@ export interface ScoringCalendar {
   timeZone: string;
   /** Local dates of the holiday calendar (YYYY-MM-DD). */
   holidays: ReadonlySet<string>;
+  /**
+   * Local date and hour by instant, shared by the versions of one scoring: reading a zone's clock is the
+   * dearest step, and each hour is forecast by up to seven versions.
+   */
+  clocks?: Map<number, { date: string; hour: number }>;
+}
+
+/** The local date and hour of instant `t`, read once per instant when a cache is given. */
+function localHourOf(t: number, calendar: ScoringCalendar): { date: string; hour: number } {
+  const cached = calendar.clocks?.get(t);
+  if (cached) return cached;
+  const clock = localClock(t, calendar.timeZone);
+  const local = { date: clock.date, hour: Number(clock.time.slice(0, 2)) };
+  calendar.clocks?.set(t, local);
+  return local;
 }
 
 /** The scored hours of `version`: its hours in [origin, origin + horizon) that have an actual, in time order. */
@@ -48,13 +63,13 @@ export function scoreVersion(
     const t = hour.ts.getTime();
     const actual = actuals.get(t);
     if (actual === undefined || t < originMs || t >= endMs) continue;
-    const clock = localClock(t, calendar.timeZone);
+    const clock = localHourOf(t, calendar);
     scored.push({
       versionId: version.id,
       ts: hour.ts,
       horizon: Math.round((t - originMs) / hourMs) + 1,
       localDate: clock.date,
-      localHour: Number(clock.time.slice(0, 2)),
+      localHour: clock.hour,
       dayType: dayTypeOf(clock.date, calendar.holidays),
       actual,
       forecast: hour.mean,
