@@ -10,6 +10,7 @@ import { sweepOrphanedImports } from './import-sweeper';
 import { registerRefitQueues } from './refit-queues';
 import { registerMailQueue } from './send-mail.worker';
 import { registerDetectionQueues } from './detect-misses.worker';
+import { registerScoringQueues } from './score-accuracy.worker';
 import { startWorkerPresence, type WorkerPresence } from './worker-presence';
 
 /** What a queue's handler may use. */
@@ -52,5 +53,6 @@ export async function registerQueues(boss: PgBoss, context: WorkerContext): Prom
   await registerRefitQueues(boss, withPresence);
   await registerMailQueue(boss, { ...withPresence, mailFrom: context.mailFrom ?? 'Loadwright <loadwright@localhost>' });
   await registerDetectionQueues(boss, { ...withPresence, publicUrl: context.publicUrl ?? 'http://127.0.0.1:4280' });
+  await registerScoringQueues(boss, withPresence);
   return presence;
 }

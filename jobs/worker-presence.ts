@@ -19,9 +19,10 @@ import type PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
 import { importQueue } from '@loadwright/intake';
 import { refitNightlyQueue, refitSeriesQueue } from '@loadwright/refits';
+import { scoreAccuracyQueue } from '@loadwright/accuracy';
 
 /** Queues whose active jobs are held by a worker's heartbeat and reaped when that worker dies. */
-export const leasedQueues = [importQueue, refitSeriesQueue, refitNightlyQueue];
+export const leasedQueues = [importQueue, refitSeriesQueue, refitNightlyQueue, scoreAccuracyQueue];
 
 /** Default seconds between heartbeats (WORKER_HEARTBEAT_SECONDS). */
 export const defaultBeatSeconds = 10;

@@ -2,13 +2,28 @@
 import { demoScenario } from '../fixtures/demo/scenario';
 import { createDb } from '@loadwright/db';
 import { seedDemoMisses } from '@loadwright/misses';
+import { scoreAllSeries } from '@loadwright/accuracy';
 import { seedDemo } from '../libs/db/src/seed/seed-demo';
 
 /** Seeds when the database holds no organisation yet, then a few misses in its history; true when it seeded. */
 export async function seedDemoIfEmpty(databaseUrl: string): Promise<boolean> {
   const { seeded } = await seedDemo(databaseUrl);
-  if (seeded) await addDemoMisses(databaseUrl);
+  if (seeded) {
+    await addDemoMisses(databaseUrl);
+    await addDemoAccuracy(databaseUrl);
+  }
   return seeded;
+}
+
+/** Scores every demo version against the demo's actuals, so accuracy shows on first start; returns the hours scored. */
+export async function addDemoAccuracy(databaseUrl: string): Promise<number> {
+  const handle = createDb(databaseUrl, { max: 2, applicationName: 'loadwright-seed' });
+  try {
+    const outcomes = await scoreAllSeries(handle.db, { since: new Date(0) });
+    return outcomes.reduce((sum, outcome) => sum + outcome.hours, 0);
+  } finally {
+    await handle.close();
+  }
 }
 
 /** The demo's misses (forecasts for a few series over its last week, judged by the default rules); returns how many. */

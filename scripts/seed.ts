@@ -5,7 +5,7 @@
 import { migrate } from '@loadwright/db';
 import { demoScenario } from '../fixtures/demo/scenario';
 import { seedDemo } from '../libs/db/src/seed/seed-demo';
-import { addDemoMisses } from './demo-seed';
+import { addDemoAccuracy, addDemoMisses } from './demo-seed';
 import { defaultLocation, ensurePostgres, stopPostgres } from './postgres';
 
 const database = await ensurePostgres();
@@ -17,7 +17,10 @@ try {
   } else {
     const { generateMs, hashMs, writeMs } = result.timings;
     const misses = await addDemoMisses(database.url);
-    console.log(`Seeded ${demoScenario.organisation.name}: ${result.observations.toLocaleString('en-US')} readings, ${misses} misses.`);
+    const scored = await addDemoAccuracy(database.url);
+    console.log(
+      `Seeded ${demoScenario.organisation.name}: ${result.observations.toLocaleString('en-US')} readings, ${misses} misses, ${scored} forecast hours scored.`,
+    );
     console.log(
       `  generated in ${generateMs.toFixed(0)} ms, passwords hashed in ${hashMs.toFixed(0)} ms, written in ${writeMs.toFixed(0)} ms`,
     );

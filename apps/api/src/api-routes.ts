@@ -20,6 +20,7 @@ import { modelRoutes } from './models/model-routes';
 import { refitRoutes } from './refits/refit-routes';
 import { organisationRoutes } from './organisation/organisation-routes';
 import { missesRoutes } from './misses/misses-routes';
+import { accuracyRoutes } from './accuracy/accuracy-routes';
 
 const version = process.env['npm_package_version'] ?? '0.1.0';
 
@@ -41,6 +42,7 @@ export function apiRoutes(context: AppContext): RouteDefinition[] {
   routes.push(...uploadRoutes(context));
   routes.push(...organisationRoutes(context));
   routes.push(...missesRoutes(context));
+  routes.push(...accuracyRoutes(context));
   let document: unknown;
   routes.push(
     defineRoute({

@@ -20,3 +20,4 @@ export * from './temperature-scenarios';
 export * from './validation-messages';
 export * from './organisation';
 export * from './misses';
+export * from './accuracy';

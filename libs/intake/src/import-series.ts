@@ -13,6 +13,7 @@ import type { SeriesReadings } from './series-readings';
 import { validateSeries } from './validate-series';
 import { writeFindings } from './write-findings';
 import { enqueueDetection } from '@loadwright/misses';
+import { enqueueScoring } from '@loadwright/accuracy';
 import { writeObservations, type SqlExecutor, type WriteCounts } from './write-observations';
 
 /** The series a batch belongs to, as the catalogue describes it. */
@@ -96,7 +97,11 @@ export async function storeSeries(
 ): Promise<ImportSeriesResult> {
   const counts = await writeObservations(executor, seriesId, options.uploadId, validated.rows, options.onRows);
   // New or corrected actuals are judged against the forecast at once; the job commits with them.
-  if (counts.inserted + counts.revised > 0) await enqueueDetection(executor, [seriesId]);
+  // Both are jobs of their own, so the import never waits on detection or scoring.
+  if (counts.inserted + counts.revised > 0) {
+    await enqueueDetection(executor, [seriesId]);
+    await enqueueScoring(executor, [seriesId]);
+  }
   if (options.uploadId !== null) await writeFindings(executor, options.uploadId, validated.findings);
   const tally = new FindingTally();
   for (const finding of validated.findings) tally.add(finding);

@@ -16,3 +16,4 @@ export * from './misses';
 export * from './workers';
 export * from './reconciliations';
 export * from './mail';
+export * from './accuracy';

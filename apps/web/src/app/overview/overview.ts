@@ -11,11 +11,12 @@ import { ComponentStatus } from './component-status';
 import { RefitStatus } from './refit-status';
 import { SystemPeak } from './system-peak';
 import { OpenMisses } from './open-misses';
+import { ForecastAccuracy } from './forecast-accuracy';
 
 /** The Overview: the night's refits and the week's system peak, then service health, each kept live while the page is open. */
 @Component({
   selector: 'lw-overview',
-  imports: [DatePipe, MatButtonModule, MatIconModule, ComponentStatus, RefitStatus, SystemPeak, OpenMisses],
+  imports: [DatePipe, MatButtonModule, MatIconModule, ComponentStatus, RefitStatus, SystemPeak, OpenMisses, ForecastAccuracy],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './overview.html',
   styleUrl: './overview.scss',

@@ -57,6 +57,8 @@ type PageState =
 const optional = <T>(source: Observable<T>): Observable<T | null> => source.pipe(catchError(() => of(null)));
 
 /** One series: history, forecast fan chart with 80/95 % bands, peaks, adjustments, approval, export, model card, versions. */
+import { SeriesAccuracy } from '../series-accuracy/series-accuracy';
+
 @Component({
   selector: 'lw-series-page',
   imports: [
@@ -71,6 +73,7 @@ const optional = <T>(source: Observable<T>): Observable<T | null> => source.pipe
     GroupApproval,
     HistoryChart,
     ModelCard,
+    SeriesAccuracy,
     StationForecasts,
     WeatherScenarios,
   ],
