@@ -1,8 +1,7 @@
-import { fitLoadModel, forecastLoadModel, type LoadSeriesData } from '@loadwright/forecasting';
+import type { LoadSeriesData } from '@loadwright/forecasting';
 import { describe, expect, it } from 'vitest';
 import { feederLoad, stationTemperatures } from '../../../bench/refit/synthetic-fleet';
-import { autoSelect, backtestMean, yuleWalkerOrderByAic } from './auto-select';
-import { extendModel, modelAtOrigin } from './reanchor';
+import { autoSelect, yuleWalkerOrderByAic } from './auto-select';
 import type { ModelDesign } from './model-plan';
 
 const startMs = Date.UTC(2025, 0, 6);
@@ -99,27 +98,5 @@ describe('yuleWalkerOrderByAic', () => {
       yule_walker_aic_selection: { order_selected: number; order_max: number };
     };
     expect(yuleWalkerOrderByAic(series.values, ref.yule_walker_aic_selection.order_max)).toBe(ref.yule_walker_aic_selection.order_selected);
-  });
-});
-
-describe('backtestMean', () => {
-  it('equals the full forecast of the model carried to the origin', () => {
-    const data = feeder(24 * 7 * 8);
-    const m = data.values.length - 72;
-    const fitted = fitLoadModel(
-      { ...design, holidays: { country: 'US', extraDates: [] }, method: 'cmle', p: 3, q: 0 },
-      { timestamps: data.timestamps.subarray(0, m), values: data.values.subarray(0, m), temperature: data.temperature!.subarray(0, m) },
-    );
-    const extended = extendModel(fitted, data);
-    for (const origin of [m, m + 24, m + 48]) {
-      const quick = backtestMean(extended, origin, 24);
-      const full = forecastLoadModel(
-        modelAtOrigin(extended, origin),
-        { temperature: data.temperature!.subarray(origin, origin + 24) },
-        24,
-        [],
-      ).mean;
-      for (let h = 0; h < 24; h++) expect(quick[h]).toBeCloseTo(full[h], 8);
-    }
   });
 });

@@ -27,20 +27,23 @@ import {
   autocovariance,
   cmleAr,
   fitArmaPart,
+  backTransformLog,
+  backTransformLogBound,
   fitLoadModel,
-  forecastArma,
-  forecastLoadModel,
   levinsonDurbin,
   ljungBox,
+  predictionIntervals,
   selectOrder,
   yuleWalker,
   type FitResult,
   type FittedLoadModel,
   type LoadModelSpec,
   type LoadSeriesData,
+  type PredictionInterval,
   type RegularisedFit,
 } from '@loadwright/forecasting';
 import { regularisedLags, seasonalNaiveSpec, type ModelDesign } from './model-plan';
+import { originForecaster, type OriginForecast } from './origin-forecast';
 import { extendModel, modelAtOrigin, type ExtendedModel } from './reanchor';
 import { describeRefitError } from './refit-errors';
 
@@ -226,13 +229,9 @@ export function autoSelect(design: ModelDesign, data: LoadSeriesData, options: A
       const pct: number[] = [];
       let in80 = 0;
       let in95 = 0;
+      const forecastFrom = originForecaster(candidate.extended, horizon);
       for (const o of origins) {
-        const forecast = forecastLoadModel(
-          modelAtOrigin(candidate.extended, o),
-          { temperature: data.temperature?.subarray(o, o + horizon) },
-          horizon,
-          [80, 95],
-        );
+        const forecast = loadScale(forecastFrom(o, horizon), design.log);
         const [band80, band95] = forecast.intervals;
         for (let h = 0; h < horizon; h++) {
           const y = actual(o, h);
@@ -373,22 +372,16 @@ export function yuleWalkerOrderByAic(x: ArrayLike<number>, maxP: number): number
 }
 
 /**
- * Mean forecast of hours o+1..o+horizon from origin o with the parameters fixed. With an additive or no
- * seasonal step and no log, the deterministic part of hour t is transformed_t − remainder_t (profile and
- * regression on the observed regressors), so the forecast is that plus the ARMA forecast of the
- * remainder: exactly what forecastLoadModel computes, without rebuilding calendars and regressors for
- * every origin. Other designs go through forecastLoadModel.
+ * A modelling-scale forecast on the load scale with its 80 % and 95 % Gaussian bands, as forecastLoadModel
+ * makes them: with logs the lognormal mean and the bounds exp(m ± z·s), otherwise m and m ± z·s.
  */
-export function backtestMean(extended: ExtendedModel, origin: number, horizon: number): ArrayLike<number> {
-  const { spec, arma } = extended.fitted;
-  const additive = spec.seasonal.kind === 'none' || (spec.seasonal.kind === 'profile' && spec.seasonal.form === 'additive');
-  if (!additive || spec.log) {
-    const temperature = extended.data.temperature?.subarray(origin, origin + horizon);
-    return forecastLoadModel(modelAtOrigin(extended, origin), { temperature }, horizon, []).mean;
-  }
-  const cut = origin - extended.remainderOffset;
-  const part = forecastArma(arma!, extended.remainder.subarray(0, cut), horizon, extended.residuals.subarray(0, cut));
-  return Array.from(part.mean, (value, h) => value + extended.transformed[origin + h] - extended.remainder[cut + h]);
+function loadScale(forecast: OriginForecast, log: boolean): { mean: ArrayLike<number>; intervals: PredictionInterval[] } {
+  const gaussian = predictionIntervals(forecast, [80, 95]);
+  if (!log) return { mean: forecast.mean, intervals: gaussian };
+  return {
+    mean: backTransformLog(forecast.mean, forecast.se).mean,
+    intervals: gaussian.map((band) => ({ level: band.level, lower: backTransformLogBound(band.lower), upper: backTransformLogBound(band.upper) })),
+  };
 }
 
 /** CPU time of this process in milliseconds (the fit is synchronous, so this is the fit's own time). */

@@ -16,14 +16,14 @@ import {
   applyBands,
   calibrateBands,
   fitLoadModel,
-  forecastLoadModel,
   localCalendar,
   type BandScore,
   type FittedLoadModel,
   type LoadForecast,
   type LoadSeriesData,
 } from '@loadwright/forecasting';
-import { extendModel, modelAtOrigin, type ExtendedModel } from './reanchor';
+import { originForecaster } from './origin-forecast';
+import { extendModel, type ExtendedModel } from './reanchor';
 
 /** Fewest daily origins worth calibrating on (two weeks); below that the Gaussian band stays. */
 const MIN_ORIGINS = 14;
@@ -61,16 +61,17 @@ export function calibrateForecast(
     return gaussian(`the history is too short to hold out ${MIN_ORIGINS} days for calibration: Gaussian ψ-weight band`);
   }
   const scores: BandScore[] = [];
+  const forecastFrom = originForecaster(heldOut, horizon);
+  const hourOfDay = localCalendar(data.timestamps, model.spec.timeZone).hourOfDay;
   for (const origin of origins) {
     const ahead = Math.min(horizon, n - origin);
-    const temperature = data.temperature?.subarray(origin, origin + ahead);
-    const past = forecastLoadModel(modelAtOrigin(heldOut, origin), { temperature }, ahead, []);
-    const hours = localCalendar(past.timestamps, model.spec.timeZone).hourOfDay;
+    const past = forecastFrom(origin, ahead);
     for (let h = 0; h < ahead; h++) {
-      const actual = model.spec.log ? Math.log(data.values[origin + h]) : data.values[origin + h];
-      const s = past.modelScale.se[h];
+      // The held-out model's transformed series is the load (or its log) over all of the data.
+      const actual = heldOut.transformed[origin + h];
+      const s = past.se[h];
       if (!(s > 0)) continue;
-      scores.push({ horizon: h + 1, hourOfDay: hours[h], z: (actual - past.modelScale.mean[h]) / s });
+      scores.push({ horizon: h + 1, hourOfDay: hourOfDay[origin + h], z: (actual - past.mean[h]) / s });
     }
   }
   const calibration = calibrateBands(scores, levels);

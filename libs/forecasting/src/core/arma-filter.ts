@@ -28,9 +28,12 @@ export function armaResiduals(x: ArrayLike<number>, mean: number, ar: ArrayLike<
   const q = ma.length;
   const w = new Float64Array(n);
   for (let t = 0; t < n; t++) w[t] = x[t] - mean;
-  const phi = Float64Array.from(ar);
   const theta = Float64Array.from(ma);
   const e = new Float64Array(n);
+  // Only the non-zero φ_i, in order: a wide-lag AR (lags 1–48 and 168 of 168) is mostly zeros, and skipping an
+  // exact zero leaves every sum bit for bit as it was.
+  const { lags, coefficients: phi } = nonZeroTerms(ar);
+  const terms = lags.length;
   // AR part u_t = w_t − Σ φ_i w_{t−i} first: it is not recursive, so four t share each φ_i.
   let t = p;
   for (; t + 3 < n; t += 4) {
@@ -38,9 +41,9 @@ export function armaResiduals(x: ArrayLike<number>, mean: number, ar: ArrayLike<
     let u1 = w[t + 1];
     let u2 = w[t + 2];
     let u3 = w[t + 3];
-    for (let i = 0; i < p; i++) {
+    for (let i = 0; i < terms; i++) {
       const c = phi[i];
-      const base = t - i - 1;
+      const base = t - lags[i];
       u0 -= c * w[base];
       u1 -= c * w[base + 1];
       u2 -= c * w[base + 2];
@@ -53,7 +56,7 @@ export function armaResiduals(x: ArrayLike<number>, mean: number, ar: ArrayLike<
   }
   for (; t < n; t++) {
     let u = w[t];
-    for (let i = 0; i < p; i++) u -= phi[i] * w[t - i - 1];
+    for (let i = 0; i < terms; i++) u -= phi[i] * w[t - lags[i]];
     e[t] = u;
   }
   // MA part e_t = u_t − Σ θ_j e_{t−j}, recursive; e before t = p is 0 (conditioned on or pre-sample).
@@ -66,4 +69,18 @@ export function armaResiduals(x: ArrayLike<number>, mean: number, ar: ArrayLike<
     }
   }
   return e;
+}
+
+/** The lags (1-based) and values of the non-zero coefficients, in increasing lag order. */
+export function nonZeroTerms(coefficients: ArrayLike<number>): { lags: Int32Array; coefficients: Float64Array } {
+  let count = 0;
+  for (let i = 0; i < coefficients.length; i++) if (coefficients[i] !== 0) count++;
+  const lags = new Int32Array(count);
+  const values = new Float64Array(count);
+  for (let i = 0, k = 0; i < coefficients.length; i++) {
+    if (coefficients[i] === 0) continue;
+    lags[k] = i + 1;
+    values[k++] = coefficients[i];
+  }
+  return { lags, coefficients: values };
 }

@@ -67,13 +67,17 @@ export function horizonBand(h: number): number {
 export function conformalQuantiles(z: ArrayLike<number>, level: number): { lower: number; upper: number } | null {
   if (!(level > 0 && level < 100))
     throw new ForecastingError('invalid-argument', 'conformalQuantiles', `level must lie in (0, 100), got ${level}`);
-  const n = z.length;
+  return sortedConformalQuantiles(Float64Array.from(z).sort(), level);
+}
+
+/** conformalQuantiles of scores already sorted in increasing order (one sort serves every level). */
+function sortedConformalQuantiles(sorted: Float64Array, level: number): { lower: number; upper: number } | null {
+  const n = sorted.length;
   // (n + 1)·α/2 with α/2 = (100 − level)/200, guarded against rounding (20 × 0.1 must give 2, not 1.999…).
   const tail = (n + 1) * ((100 - level) / 200);
   const lo = Math.floor(tail + 1e-9);
   const hi = Math.ceil(n + 1 - tail - 1e-9);
   if (lo < 1 || hi > n) return null;
-  const sorted = Float64Array.from(z).sort();
   return { lower: sorted[lo - 1], upper: sorted[hi - 1] };
 }
 
@@ -82,12 +86,28 @@ export function conformalQuantiles(z: ArrayLike<number>, level: number): { lower
  * too few (the caller keeps the Gaussian ψ-weight band).
  */
 export function calibrateBands(scores: readonly BandScore[], levels: readonly number[]): BandCalibration | null {
-  const all = scores.map((s) => s.z).filter(Number.isFinite);
+  for (const level of levels) {
+    if (!(level > 0 && level < 100))
+      throw new ForecastingError('invalid-argument', 'calibrateBands', `level must lie in (0, 100), got ${level}`);
+  }
+  const blocks = 24 / BLOCK_HOURS;
+  // One pass sorts the finite scores into their cells; each pool is then sorted once for every level.
+  const all: number[] = [];
+  const byBand: number[][] = HORIZON_BANDS.map(() => []);
+  const byCell: number[][][] = HORIZON_BANDS.map(() => Array.from({ length: blocks }, () => []));
+  for (const s of scores) {
+    if (!Number.isFinite(s.z)) continue;
+    const band = horizonBand(s.horizon);
+    all.push(s.z);
+    byBand[band].push(s.z);
+    byCell[band][Math.floor(s.hourOfDay / BLOCK_HOURS)].push(s.z);
+  }
   const fit = (z: number[]): BandQuantiles[] | null => {
     if (z.length < MIN_CELL_SCORES) return null;
+    const sorted = Float64Array.from(z).sort();
     const out: BandQuantiles[] = [];
     for (const level of levels) {
-      const q = conformalQuantiles(z, level);
+      const q = sortedConformalQuantiles(sorted, level);
       if (!q) return null;
       out.push({ level, ...q });
     }
@@ -95,14 +115,13 @@ export function calibrateBands(scores: readonly BandScore[], levels: readonly nu
   };
   const overall = fit(all);
   if (!overall) return null;
-  const blocks = 24 / BLOCK_HOURS;
   const cells: BandCalibration['cells'] = [];
   for (let band = 0; band < HORIZON_BANDS.length; band++) {
-    const inBand = scores.filter((s) => Number.isFinite(s.z) && horizonBand(s.horizon) === band);
-    const bandQuantiles = fit(inBand.map((s) => s.z));
+    const inBand = byBand[band];
+    const bandQuantiles = fit(inBand);
     const row: BandCalibration['cells'][number] = [];
     for (let block = 0; block < blocks; block++) {
-      const inCell = inBand.filter((s) => Math.floor(s.hourOfDay / BLOCK_HOURS) === block).map((s) => s.z);
+      const inCell = byCell[band][block];
       const own = fit(inCell);
       if (own) row.push({ quantiles: own, scores: inCell.length, pooled: 'cell' });
       else if (bandQuantiles) row.push({ quantiles: bandQuantiles, scores: inBand.length, pooled: 'band' });

@@ -22,7 +22,7 @@
  *
  * References: Box et al. (2016) §5; Brockwell & Davis (2016) §3.3 and §5.4; R `stats::predict.Arima`.
  */
-import { armaResiduals } from '../core/arma-filter';
+import { armaResiduals, nonZeroTerms } from '../core/arma-filter';
 import { assertFinite, assertLength, ForecastingError } from '../core/errors';
 import type { ArmaParameters } from '../core/types';
 import { psiWeights } from './psi-weights';
@@ -62,9 +62,11 @@ export function forecastArma(
   const w = new Float64Array(p + horizon);
   for (let i = 0; i < p; i++) w[i] = history[n - p + i] - mu;
   const mean = new Float64Array(horizon);
+  // Non-zero φ only (same order, so the same sums): wide-lag AR fits are mostly zeros.
+  const terms = nonZeroTerms(ar);
   for (let h = 1; h <= horizon; h++) {
     let value = 0;
-    for (let i = 1; i <= p; i++) value += ar[i - 1] * w[p + h - 1 - i];
+    for (let k = 0; k < terms.lags.length; k++) value += terms.coefficients[k] * w[p + h - 1 - terms.lags[k]];
     // Known errors e_{n+h−j} for j ≥ h; future errors are 0.
     for (let j = h; j <= q; j++) {
       const s = n + h - j - 1;

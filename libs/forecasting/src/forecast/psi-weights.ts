@@ -15,6 +15,7 @@
  *
  * References: Brockwell & Davis (2016) §3.1; R `stats::ARMAtoMA` (which omits ψ_0).
  */
+import { nonZeroTerms } from '../core/arma-filter';
 import { assertFinite, ForecastingError } from '../core/errors';
 
 /** ψ_0..ψ_{count−1} of the ARMA model with coefficients φ and θ. */
@@ -25,10 +26,11 @@ export function psiWeights(ar: ArrayLike<number>, ma: ArrayLike<number>, count: 
   assertFinite('psiWeights', ma, 'ma coefficients');
   const psi = new Float64Array(count);
   psi[0] = 1;
+  // Non-zero φ only, in order (the same sums): seasonal and wide-lag AR polynomials are mostly zeros.
+  const { lags, coefficients } = nonZeroTerms(ar);
   for (let j = 1; j < count; j++) {
     let value = j <= ma.length ? ma[j - 1] : 0;
-    const reach = Math.min(j, ar.length);
-    for (let i = 1; i <= reach; i++) value += ar[i - 1] * psi[j - i];
+    for (let k = 0; k < lags.length && lags[k] <= j; k++) value += coefficients[k] * psi[j - lags[k]];
     psi[j] = value;
   }
   return psi;

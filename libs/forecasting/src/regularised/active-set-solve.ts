@@ -67,3 +67,90 @@ export function solveActiveSet(
   }
   return { beta: candidate, gradient };
 }
+
+/**
+ * The lasso solution at λ found by moving the active set from the signs of `start` (the previous λ's solution):
+ * solve on the set, drop every coefficient whose sign flipped, else add the inactive lag that breaks its KKT
+ * condition the most with the sign of its gradient, and repeat (the add/drop steps of the homotopy method,
+ * Osborne, Presnell & Turlach 2000, taken in one jump to λ). Returns only a solution that passes the same checks
+ * as solveActiveSet, so it is the lasso solution; null when `maxRounds` moves do not reach one or G_AA is not
+ * positive definite, and the caller falls back to coordinate descent.
+ */
+export function moveActiveSet(
+  gram: Float64Array,
+  k: number,
+  c: Float64Array,
+  start: Float64Array,
+  lambda: number,
+  slack: number,
+  maxRounds: number,
+): { beta: Float64Array; gradient: Float64Array } | null {
+  const signs = Float64Array.from(start, Math.sign);
+  for (let round = 0; round < maxRounds; round++) {
+    const attempt = solveActiveSet(gram, k, c, signs, lambda, slack);
+    if (attempt) return attempt;
+    const solution = solveOnSet(gram, k, c, signs, lambda);
+    if (!solution) return null;
+    let flipped = false;
+    for (let j = 0; j < k; j++) {
+      if (signs[j] !== 0 && Math.sign(solution[j]) !== signs[j]) {
+        signs[j] = 0;
+        flipped = true;
+      }
+    }
+    if (flipped) continue;
+    let worst = -1;
+    let worstGradient = 0;
+    let worstExcess = slack;
+    for (let j = 0; j < k; j++) {
+      if (signs[j] !== 0) continue;
+      let g = c[j];
+      for (let i = 0; i < k; i++) if (signs[i] !== 0) g -= gram[j * k + i] * solution[i];
+      if (Math.abs(g) - lambda > worstExcess) {
+        worstExcess = Math.abs(g) - lambda;
+        worst = j;
+        worstGradient = g;
+      }
+    }
+    if (worst < 0) {
+      // Every condition holds; solveActiveSet refuses only an empty set, whose solution is β = 0.
+      return signs.some((s) => s !== 0) ? null : { beta: new Float64Array(k), gradient: Float64Array.from(c) };
+    }
+    signs[worst] = Math.sign(worstGradient);
+  }
+  return null;
+}
+
+/** The unconstrained solution of G_AA β_A = c_A − λ s_A on the set and signs `signs` (zeros elsewhere), or null when G_AA is not positive definite. */
+function solveOnSet(gram: Float64Array, k: number, c: Float64Array, signs: Float64Array, lambda: number): Float64Array | null {
+  const active: number[] = [];
+  for (let j = 0; j < k; j++) if (signs[j] !== 0) active.push(j);
+  const a = active.length;
+  const out = new Float64Array(k);
+  if (a === 0) return out;
+  const l = new Float64Array(a * a);
+  for (let i = 0; i < a; i++) {
+    for (let j = 0; j <= i; j++) {
+      let s = gram[active[i] * k + active[j]];
+      for (let p = 0; p < j; p++) s -= l[i * a + p] * l[j * a + p];
+      if (i === j) {
+        if (!(s > 0)) return null;
+        l[i * a + i] = Math.sqrt(s);
+      } else {
+        l[i * a + j] = s / l[j * a + j];
+      }
+    }
+  }
+  const z = new Float64Array(a);
+  for (let i = 0; i < a; i++) {
+    let s = c[active[i]] - lambda * signs[active[i]];
+    for (let p = 0; p < i; p++) s -= l[i * a + p] * z[p];
+    z[i] = s / l[i * a + i];
+  }
+  for (let i = a - 1; i >= 0; i--) {
+    let s = z[i];
+    for (let p = i + 1; p < a; p++) s -= l[p * a + i] * out[active[p]];
+    out[active[i]] = s / l[i * a + i];
+  }
+  return out;
+}

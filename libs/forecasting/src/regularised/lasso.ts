@@ -26,8 +26,9 @@
  *   Park & Casella (2008).
  */
 import type { LaggedDesign } from './lagged-design';
-import { solveActiveSet } from './active-set-solve';
+import { moveActiveSet, solveActiveSet } from './active-set-solve';
 import { buildLaggedDesign } from './lagged-design';
+import { laggedGram } from './lagged-gram';
 import { selectPenalty } from './penalty-selection';
 import { assembleFit, type RegularisedArOptions, type RegularisedFit, type StandardisedSolution } from './regularised-fit';
 import { checkPenaltyOptions } from './ridge';
@@ -36,6 +37,8 @@ const FN = 'lassoAr';
 
 /** Active-set sweeps between full sweeps. */
 const ACTIVE_SWEEPS = 20;
+/** Add/drop moves tried from the previous λ's active set before coordinate descent takes over. */
+const MOVE_ROUNDS = 12;
 
 /** Lasso options: the shared ones plus the coordinate-descent stopping rule. */
 export interface LassoArOptions extends RegularisedArOptions {
@@ -55,9 +58,9 @@ interface LassoSolution extends StandardisedSolution {
 export function lassoAr(x: ArrayLike<number>, options: LassoArOptions): RegularisedFit {
   checkPenaltyOptions(FN, options);
   const design = buildLaggedDesign(FN, x, options.lags);
-  const solve = (d: LaggedDesign, lambdas: readonly number[]) => lassoPath(d, lambdas, options);
+  const solve = (d: LaggedDesign, lambdas: readonly number[]) => lassoPath(d, lambdas, options, d === design ? x : undefined);
   if (options.lambda !== undefined) {
-    const path = lassoPath(design, warmStartGrid(design, options.lambda), options);
+    const path = lassoPath(design, warmStartGrid(design, options.lambda), options, x);
     const solution = path[path.length - 1];
     return assembleFit(FN, 'lasso', x, design, solution, {
       selection: 'fixed',
@@ -84,26 +87,23 @@ export function lassoLambdaMax(design: LaggedDesign): number {
   return max;
 }
 
-/** Lasso solutions along a decreasing λ grid, each warm-started from the previous one. */
+/**
+ * Lasso solutions along a decreasing λ grid, each warm-started from the previous one. With `series` (the x the
+ * design was built from) the Gram matrix comes from lag shifts of the series (lagged-gram.ts), else from the columns.
+ * Each solution carries its residual sum of squares, yᵀy − 2βᵀc·m + βᵀGβ·m, so choosing λ needs no pass over the rows.
+ */
 export function lassoPath(
   design: LaggedDesign,
   lambdas: readonly number[],
   options: Pick<LassoArOptions, 'tolerance' | 'maxIterations'> = {},
+  series?: ArrayLike<number>,
 ): LassoSolution[] {
   const k = design.columns.length;
   const m = design.rows;
-  const gram = new Float64Array(k * k);
-  const gradient = new Float64Array(k);
-  for (let i = 0; i < k; i++) {
-    gradient[i] = dot(design.columns[i], design.response) / m;
-    for (let j = 0; j <= i; j++) {
-      const g = dot(design.columns[i], design.columns[j]) / m;
-      gram[i * k + j] = g;
-      gram[j * k + i] = g;
-    }
-  }
-  const covariance = Float64Array.from(gradient); // c = Zᵀy/m, the gradient at β = 0
-  const sdY = Math.sqrt(dot(design.response, design.response) / m);
+  const { gram, covariance } = series ? laggedGram(design, series) : columnGram(design); // c = Zᵀy/m, the gradient at β = 0
+  const gradient = Float64Array.from(covariance);
+  const yy = dot(design.response, design.response);
+  const sdY = Math.sqrt(yy / m);
   const threshold = (options.tolerance ?? 1e-12) * sdY;
   const maxSweeps = options.maxIterations ?? 10_000;
   const beta = new Float64Array(k);
@@ -130,17 +130,28 @@ export function lassoPath(
   return lambdas.map((lambda) => {
     let sweeps = 0;
     let converged = false;
-    let previousPattern = '';
     let triedPattern = '';
-    while (sweeps < maxSweeps) {
+    // Between the kinks of the path the active set and its signs stay put (Osborne, Presnell & Turlach 2000): try the
+    // exact solution on the warm start's set first, and sweep only when the set has to change.
+    if (beta.some((b) => b !== 0)) {
+      triedPattern = signPattern(beta);
+      const exact = moveActiveSet(gram, k, covariance, beta, lambda, slack, MOVE_ROUNDS);
+      if (exact) {
+        beta.set(exact.beta);
+        gradient.set(exact.gradient);
+        converged = true;
+      }
+    }
+    while (!converged && sweeps < maxSweeps) {
       sweeps++;
       if (sweep(lambda, all) <= threshold) {
         converged = true;
         break;
       }
-      // Once a full sweep leaves the active set and its signs unchanged, solve that set exactly (active-set-solve.ts).
+      // After each full sweep, solve its active set exactly (active-set-solve.ts) unless that set was tried already:
+      // a solve costs about one sweep, and on the right set it ends what would take coordinate descent hundreds.
       const pattern = signPattern(beta);
-      if (pattern === previousPattern && pattern !== triedPattern) {
+      if (pattern !== triedPattern) {
         triedPattern = pattern;
         const exact = solveActiveSet(gram, k, covariance, beta, lambda, slack);
         if (exact) {
@@ -150,7 +161,6 @@ export function lassoPath(
           break;
         }
       }
-      previousPattern = pattern;
       // Iterate on the active set for a while, then return to a full sweep (FHT 2010 §2.6).
       const active = Int32Array.from(all.filter((j) => beta[j] !== 0));
       for (let inner = 0; inner < ACTIVE_SWEEPS && sweeps < maxSweeps; inner++) {
@@ -160,8 +170,39 @@ export function lassoPath(
     }
     let df = 0;
     for (let j = 0; j < k; j++) if (beta[j] !== 0) df++;
-    return { lambda, beta: Float64Array.from(beta), df, converged, iterations: sweeps };
+    return { lambda, beta: Float64Array.from(beta), df, converged, iterations: sweeps, rss: residualSum(gram, k, covariance, beta, yy, m) };
   });
+}
+
+/** ‖y − Zβ‖² = yᵀy − 2m·βᵀc + m·βᵀGβ over the non-zero coefficients. */
+function residualSum(gram: Float64Array, k: number, covariance: Float64Array, beta: Float64Array, yy: number, m: number): number {
+  let linear = 0;
+  let quadratic = 0;
+  for (let i = 0; i < k; i++) {
+    if (beta[i] === 0) continue;
+    linear += beta[i] * covariance[i];
+    let row = 0;
+    for (let j = 0; j < k; j++) if (beta[j] !== 0) row += gram[i * k + j] * beta[j];
+    quadratic += beta[i] * row;
+  }
+  return Math.max(0, yy + m * (quadratic - 2 * linear));
+}
+
+/** G = ZᵀZ/m and c = Zᵀy/m from the design's columns. */
+function columnGram(design: LaggedDesign): { gram: Float64Array; covariance: Float64Array } {
+  const k = design.columns.length;
+  const m = design.rows;
+  const gram = new Float64Array(k * k);
+  const covariance = new Float64Array(k);
+  for (let i = 0; i < k; i++) {
+    covariance[i] = dot(design.columns[i], design.response) / m;
+    for (let j = 0; j <= i; j++) {
+      const g = dot(design.columns[i], design.columns[j]) / m;
+      gram[i * k + j] = g;
+      gram[j * k + i] = g;
+    }
+  }
+  return { gram, covariance };
 }
 
 /** Signs of the coefficients as a string, to notice when the active set has settled. */

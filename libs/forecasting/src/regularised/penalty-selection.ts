@@ -53,7 +53,7 @@ export function selectPenalty(
   solutions.forEach((solution, i) => {
     const { ar } = backTransform(design, solution.beta);
     const stationary = isCausalAr(ar);
-    const rss = residualSumOfSquares(design, solution.beta);
+    const rss = solution.rss ?? residualSumOfSquares(design, solution.beta);
     const bic = stationary && rss > 0 ? criteria(rss, design.rows, solution.df).bic : null;
     const mse = validationMse ? validationMse[i] : null;
     path.push({ lambda: solution.lambda, df: solution.df, bic, validationMse: mse, stationary });

@@ -74,6 +74,8 @@ export interface StandardisedSolution {
   lambda: number;
   beta: Float64Array;
   df: number;
+  /** Residual sum of squares at beta, when the solver has it already (else it is computed from the rows). */
+  rss?: number;
 }
 
 /** AR coefficients (length maxLag, zeros outside the lag set) and intercept from standardised coefficients. */

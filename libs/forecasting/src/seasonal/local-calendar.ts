@@ -82,6 +82,15 @@ const hourMs = 3_600_000;
 const dayMs = 86_400_000;
 
 /**
+ * Each zone's steady offset (or null: a clock change that day) by UTC day, kept across calls: a refit asks
+ * for the calendar of the same days many times (estimation, every backtest origin, the forecast), and the
+ * tz database does not change while the process runs. Emptied past MAX_CACHED_DAYS days per zone.
+ */
+const steadyOffsets = new Map<string, Map<number, number | null>>();
+/** About 270 years of days per zone: far more than any worker sees, small in memory. */
+const MAX_CACHED_DAYS = 100_000;
+
+/**
  * The zone's UTC offset at an instant, asking Intl (the slow part) about twice per UTC day: when the
  * offsets at a day's first and last minute agree, no clock change falls inside it (zones change at
  * most once a day), and every instant of the day shares that offset.
@@ -103,14 +112,19 @@ function offsetFinder(timeZone: string): (t: number) => number {
     }
     return Date.UTC(year, month - 1, day, hour, minute) - Math.floor(t / minuteMs) * minuteMs;
   };
-  const steadyByDay = new Map<number, number | null>();
+  let steadyByDay = steadyOffsets.get(timeZone);
+  if (!steadyByDay || steadyByDay.size > MAX_CACHED_DAYS) {
+    steadyByDay = new Map<number, number | null>();
+    steadyOffsets.set(timeZone, steadyByDay);
+  }
+  const days = steadyByDay;
   return (t) => {
     const utcDay = Math.floor(t / dayMs);
-    let steady = steadyByDay.get(utcDay);
+    let steady = days.get(utcDay);
     if (steady === undefined) {
       const first = exact(utcDay * dayMs);
       steady = first === exact(utcDay * dayMs + dayMs - minuteMs) ? first : null;
-      steadyByDay.set(utcDay, steady);
+      days.set(utcDay, steady);
     }
     return steady ?? exact(t);
   };
