@@ -24,7 +24,7 @@ import { ForecastingError } from './errors';
 export interface LeastSquaresSolution {
   /** β̂, length k. */
   coefficients: Float64Array;
-  /** y − Xβ̂, length m. */
+  /** y − Xβ̂, length m (empty, and rss NaN, when asked for without residuals). */
   residuals: Float64Array;
   /** Σ residuals². */
   rss: number;
@@ -35,13 +35,14 @@ export interface LeastSquaresSolution {
 /** Relative size below which a column counts as lying in the span of the previous ones. */
 const collinearityTolerance = 1e-12;
 
-/** Solves min ‖y − Xβ‖² for X (m×k, column-major) by Householder QR. `fn` names the caller in errors. */
+/** Solves min ‖y − Xβ‖² for X (m×k, column-major) by Householder QR. `fn` names the caller in errors; `withResiduals` false skips the residuals. */
 export function householderLeastSquares(
   fn: string,
   design: Float64Array,
   m: number,
   k: number,
   y: ArrayLike<number>,
+  withResiduals = true,
 ): LeastSquaresSolution {
   if (design.length !== m * k || y.length !== m || m < k || k < 1) {
     throw new ForecastingError(
@@ -88,15 +89,19 @@ export function householderLeastSquares(
     for (let l = i + 1; l < k; l++) sum -= r[i * k + l] * coefficients[l];
     coefficients[i] = sum / r[i * k + i];
   }
-  // Residuals from the original columns, so they are exactly y − Xβ̂ as reported.
-  const residuals = Float64Array.from(y);
-  for (let l = 0; l < k; l++) {
-    const b = coefficients[l];
-    const col = l * m;
-    for (let i = 0; i < m; i++) residuals[i] -= b * design[col + i];
+  // Residuals from the original columns, so they are exactly y − Xβ̂ as reported (skipped when the caller needs
+  // only β̂ and (XᵀX)⁻¹: for the few columns of a GLS step they cost as much as the factorisation).
+  const residuals = withResiduals ? Float64Array.from(y) : new Float64Array(0);
+  let rss = Number.NaN;
+  if (withResiduals) {
+    for (let l = 0; l < k; l++) {
+      const b = coefficients[l];
+      const col = l * m;
+      for (let i = 0; i < m; i++) residuals[i] -= b * design[col + i];
+    }
+    rss = 0;
+    for (let i = 0; i < m; i++) rss += residuals[i] * residuals[i];
   }
-  let rss = 0;
-  for (let i = 0; i < m; i++) rss += residuals[i] * residuals[i];
 
   // R⁻¹ by back substitution, then R⁻¹R⁻ᵀ.
   const rInverse = new Float64Array(k * k);

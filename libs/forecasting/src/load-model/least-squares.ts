@@ -22,7 +22,7 @@ export function leastSquares(fn: string, columns: readonly Float64Array[], y: Ar
   const design = new Float64Array(m * k);
   columns.forEach((column, j) => design.set(column.subarray(0, m), j * m));
   try {
-    const solution = householderLeastSquares(fn, design, m, k, y);
+    const solution = householderLeastSquares(fn, design, m, k, y, false);
     const unscaledCovariance = Array.from({ length: k }, (_, i) => Array.from(solution.unscaledCovariance.subarray(i * k, (i + 1) * k)));
     return { beta: solution.coefficients, unscaledCovariance };
   } catch (error) {

@@ -13,6 +13,8 @@ export interface QrFactors {
   k: number;
   r: Float64Array;
   qtb: Float64Array;
+  /** Σ (Qᵀb)_i² over the rows below k: the least-squares residual sum of squares, the part of ‖b − Aβ‖² no β changes. */
+  tailSquares: number;
 }
 
 /** Factors the matrix whose columns are `columns` (each of the same length ≥ k) and applies Qᵀ to `rhs`. */
@@ -42,7 +44,9 @@ export function householderQr(columns: readonly Float64Array[], rhs: Float64Arra
     r[j * k + j] = alpha;
     for (let l = j + 1; l < k; l++) r[j * k + l] = a[l][j];
   }
-  return { k, r, qtb: b.subarray(0, k) };
+  let tailSquares = 0;
+  for (let i = k; i < rows; i++) tailSquares += b[i] * b[i];
+  return { k, r, qtb: b.subarray(0, k), tailSquares };
 }
 
 /** Applies I − scale·vvᵀ (rows j..) to the column `c` in place. */

@@ -28,7 +28,8 @@ export function laggedGram(design: LaggedDesign, x: ArrayLike<number>): { gram: 
     let sum: number;
     if (chain && chain.a <= a && a - chain.a < m) {
       sum = chain.sum;
-      for (let s = chain.a; s < a; s++) sum += centred[start - 1 - s] * centred[start - 1 - s - difference] - centred[n - 1 - s] * centred[n - 1 - s - difference];
+      for (let s = chain.a; s < a; s++)
+        sum += centred[start - 1 - s] * centred[start - 1 - s - difference] - centred[n - 1 - s] * centred[n - 1 - s - difference];
     } else {
       sum = 0;
       for (let t = start; t < n; t++) sum += centred[t - a] * centred[t - b];

@@ -85,7 +85,8 @@ export function ridgePath(design: LaggedDesign, lambdas: readonly number[]): Sta
       if (isCollinear(qr)) {
         throw new ForecastingError('singular-matrix', FN, 'the lagged columns are collinear, so λ = 0 has no unique solution; use λ > 0');
       }
-      return { lambda, beta: backSubstitute(qr.r, k, qr.qtb), df: k };
+      const beta = backSubstitute(qr.r, k, qr.qtb);
+      return { lambda, beta, df: k, rss: residualSum(qr, beta) };
     }
     const root = Math.sqrt(lambda);
     const stacked = Array.from({ length: k }, (_, j) => {
@@ -107,8 +108,21 @@ export function ridgePath(design: LaggedDesign, lambdas: readonly number[]): Sta
         df += s * s;
       }
     }
-    return { lambda, beta, df };
+    return { lambda, beta, df, rss: residualSum(qr, beta) };
   });
+}
+
+/** ‖y − Zβ‖² = ‖Qᵀy − Rβ‖² over the first k rows plus the rest of Qᵀy, which no β reaches (Golub & Van Loan 2013 §5.3). */
+function residualSum(qr: QrFactors, beta: Float64Array): number {
+  const k = qr.k;
+  let sum = qr.tailSquares;
+  for (let i = 0; i < k; i++) {
+    let fitted = 0;
+    for (let j = i; j < k; j++) fitted += qr.r[i * k + j] * beta[j];
+    const difference = qr.qtb[i] - fitted;
+    sum += difference * difference;
+  }
+  return sum;
 }
 
 /** The decreasing ridge grid m·10^a, a = 1, 0.8, …, −6, then 0 (least squares) unless the lags are collinear. */

@@ -19,11 +19,15 @@ export function dayTypeIndicators(
   calendar: LocalCalendar,
   holidays: ReadonlySet<string> | null,
 ): { saturday: Float64Array; sundayHoliday: Float64Array } {
-  const types = dayTypes(calendar, holidays);
-  return {
-    saturday: Float64Array.from(types, (t) => (t === 'saturday' ? 1 : 0)),
-    sundayHoliday: Float64Array.from(types, (t) => (t === 'sunday-holiday' ? 1 : 0)),
-  };
+  // The same rule as dayTypes, written straight into the columns (this runs for every fit and forecast).
+  const n = calendar.localDate.length;
+  const saturday = new Float64Array(n);
+  const sundayHoliday = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    if (calendar.dayOfWeek[i] === 6 || holidays?.has(calendar.localDate[i])) sundayHoliday[i] = 1;
+    else if (calendar.dayOfWeek[i] === 5) saturday[i] = 1;
+  }
+  return { saturday, sundayHoliday };
 }
 
 /** 0/1 regressor column: the observation's local date is a holiday. */

@@ -71,6 +71,12 @@ function publicHolidays(fn: string, country: string, region: string | undefined,
 /** The calendar years spanned by local dates (YYYY-MM-DD), for asking the holiday calendar. */
 export function yearsOf(localDates: readonly string[]): number[] {
   const years = new Set<number>();
-  for (const date of localDates) years.add(Number(date.slice(0, 4)));
+  let previous = '';
+  // Hourly dates repeat 24 times in a row: parse each day once.
+  for (const date of localDates) {
+    if (date === previous) continue;
+    previous = date;
+    years.add(Number(date.slice(0, 4)));
+  }
   return [...years].sort((a, b) => a - b);
 }
