@@ -28,18 +28,16 @@ import {
   cmleAr,
   fitArmaPart,
   backTransformLog,
-  backTransformLogBound,
   fitLoadModel,
   levinsonDurbin,
   ljungBox,
-  predictionIntervals,
+  normalQuantile,
   selectOrder,
   yuleWalker,
   type FitResult,
   type FittedLoadModel,
   type LoadModelSpec,
   type LoadSeriesData,
-  type PredictionInterval,
   type RegularisedFit,
 } from '@loadwright/forecasting';
 import { regularisedLags, seasonalNaiveSpec, type ModelDesign } from './model-plan';
@@ -371,17 +369,28 @@ export function yuleWalkerOrderByAic(x: ArrayLike<number>, maxP: number): number
   return best;
 }
 
+/** z of the 80 % and 95 % Gaussian bands, computed once as predictionIntervals computes them. */
+const BAND_Z = [80, 95].map((level) => normalQuantile(0.5 + level / 200));
+
 /**
  * A modelling-scale forecast on the load scale with its 80 % and 95 % Gaussian bands, as forecastLoadModel
  * makes them: with logs the lognormal mean and the bounds exp(m ± z·s), otherwise m and m ± z·s.
  */
-function loadScale(forecast: OriginForecast, log: boolean): { mean: ArrayLike<number>; intervals: PredictionInterval[] } {
-  const gaussian = predictionIntervals(forecast, [80, 95]);
-  if (!log) return { mean: forecast.mean, intervals: gaussian };
-  return {
-    mean: backTransformLog(forecast.mean, forecast.se).mean,
-    intervals: gaussian.map((band) => ({ level: band.level, lower: backTransformLogBound(band.lower), upper: backTransformLogBound(band.upper) })),
-  };
+function loadScale(
+  forecast: OriginForecast,
+  log: boolean,
+): { mean: ArrayLike<number>; intervals: Array<{ lower: Float64Array; upper: Float64Array }> } {
+  const { mean, se } = forecast;
+  const intervals = BAND_Z.map((z) => {
+    const lower = new Float64Array(mean.length);
+    const upper = new Float64Array(mean.length);
+    for (let h = 0; h < mean.length; h++) {
+      lower[h] = log ? Math.exp(mean[h] - z * se[h]) : mean[h] - z * se[h];
+      upper[h] = log ? Math.exp(mean[h] + z * se[h]) : mean[h] + z * se[h];
+    }
+    return { lower, upper };
+  });
+  return { mean: log ? backTransformLog(mean, se).mean : mean, intervals };
 }
 
 /** CPU time of this process in milliseconds (the fit is synchronous, so this is the fit's own time). */

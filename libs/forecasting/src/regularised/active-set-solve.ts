@@ -87,8 +87,6 @@ export function moveActiveSet(
 ): { beta: Float64Array; gradient: Float64Array } | null {
   const signs = Float64Array.from(start, Math.sign);
   for (let round = 0; round < maxRounds; round++) {
-    const attempt = solveActiveSet(gram, k, c, signs, lambda, slack);
-    if (attempt) return attempt;
     const solution = solveOnSet(gram, k, c, signs, lambda);
     if (!solution) return null;
     let flipped = false;
@@ -99,24 +97,21 @@ export function moveActiveSet(
       }
     }
     if (flipped) continue;
+    // Signs hold: the gradient c − G_·A β_A, and the inactive lag that breaks |g_j| ≤ λ the most (solveActiveSet's check).
+    const gradient = new Float64Array(k);
     let worst = -1;
-    let worstGradient = 0;
     let worstExcess = slack;
     for (let j = 0; j < k; j++) {
-      if (signs[j] !== 0) continue;
       let g = c[j];
       for (let i = 0; i < k; i++) if (signs[i] !== 0) g -= gram[j * k + i] * solution[i];
-      if (Math.abs(g) - lambda > worstExcess) {
+      gradient[j] = g;
+      if (signs[j] === 0 && Math.abs(g) - lambda > worstExcess) {
         worstExcess = Math.abs(g) - lambda;
         worst = j;
-        worstGradient = g;
       }
     }
-    if (worst < 0) {
-      // Every condition holds; solveActiveSet refuses only an empty set, whose solution is β = 0.
-      return signs.some((s) => s !== 0) ? null : { beta: new Float64Array(k), gradient: Float64Array.from(c) };
-    }
-    signs[worst] = Math.sign(worstGradient);
+    if (worst < 0) return { beta: solution, gradient };
+    signs[worst] = Math.sign(gradient[worst]);
   }
   return null;
 }

@@ -73,29 +73,36 @@ export function buildLaggedDesign(fn: string, x: ArrayLike<number>, lagSet: read
   }
   if (!(responseSs > 0)) throw new ForecastingError('constant-series', fn, 'the series is constant after the first maxLag values');
 
-  const columns: Float64Array[] = [];
   const columnMeans = new Float64Array(k);
   const columnScales = new Float64Array(k);
   for (let j = 0; j < k; j++) {
     const lag = lags[j];
-    const column = new Float64Array(rows);
     let mean = 0;
-    for (let r = 0; r < rows; r++) {
-      column[r] = x[maxLag + r - lag];
-      mean += column[r];
-    }
+    for (let r = 0; r < rows; r++) mean += x[maxLag + r - lag];
     mean /= rows;
     let ss = 0;
     for (let r = 0; r < rows; r++) {
-      column[r] -= mean;
-      ss += column[r] * column[r];
+      const d = x[maxLag + r - lag] - mean;
+      ss += d * d;
     }
     const scale = Math.sqrt(ss / rows);
     if (!(scale > 0)) throw new ForecastingError('constant-series', fn, `the column at lag ${lag} is constant`);
-    for (let r = 0; r < rows; r++) column[r] /= scale;
-    columns.push(column);
     columnMeans[j] = mean;
     columnScales[j] = scale;
   }
-  return { lags, maxLag, rows, columns, response, responseMean, columnMeans, columnScales };
+  // The standardised columns are made on first use: the lasso with its Gram matrix from lag shifts
+  // (lagged-gram.ts) never reads them, and for lags 1–48 and 168 of a year of hours they are 3 MB.
+  let columns: Float64Array[] | null = null;
+  const source = Float64Array.from(x); // the columns must not follow later changes to the caller's array
+  const design = { lags, maxLag, rows, response, responseMean, columnMeans, columnScales } as LaggedDesign;
+  Object.defineProperty(design, 'columns', {
+    enumerable: true,
+    get: () =>
+      (columns ??= lags.map((lag, j) => {
+        const column = new Float64Array(rows);
+        for (let r = 0; r < rows; r++) column[r] = (source[maxLag + r - lag] - columnMeans[j]) / columnScales[j];
+        return column;
+      })),
+  });
+  return design;
 }

@@ -58,6 +58,7 @@ interface LassoSolution extends StandardisedSolution {
 export function lassoAr(x: ArrayLike<number>, options: LassoArOptions): RegularisedFit {
   checkPenaltyOptions(FN, options);
   const design = buildLaggedDesign(FN, x, options.lags);
+  gramCache.set(design, laggedGram(design, x));
   const solve = (d: LaggedDesign, lambdas: readonly number[]) => lassoPath(d, lambdas, options, d === design ? x : undefined);
   if (options.lambda !== undefined) {
     const path = lassoPath(design, warmStartGrid(design, options.lambda), options, x);
@@ -82,10 +83,15 @@ export function lassoAr(x: ArrayLike<number>, options: LassoArOptions): Regulari
 
 /** Smallest λ at which every coefficient is zero: max_j |Z_jᵀy|/m. */
 export function lassoLambdaMax(design: LaggedDesign): number {
+  const moments = gramCache.get(design);
   let max = 0;
-  for (const column of design.columns) max = Math.max(max, Math.abs(dot(column, design.response)) / design.rows);
+  if (moments) for (const c of moments.covariance) max = Math.max(max, Math.abs(c));
+  else for (const column of design.columns) max = Math.max(max, Math.abs(dot(column, design.response)) / design.rows);
   return max;
 }
+
+/** G and c of the designs lassoAr made, from lag shifts of their series, so the grid and the path share them. */
+const gramCache = new WeakMap<LaggedDesign, { gram: Float64Array; covariance: Float64Array }>();
 
 /**
  * Lasso solutions along a decreasing λ grid, each warm-started from the previous one. With `series` (the x the
@@ -100,7 +106,7 @@ export function lassoPath(
 ): LassoSolution[] {
   const k = design.columns.length;
   const m = design.rows;
-  const { gram, covariance } = series ? laggedGram(design, series) : columnGram(design); // c = Zᵀy/m, the gradient at β = 0
+  const { gram, covariance } = gramCache.get(design) ?? (series ? laggedGram(design, series) : columnGram(design)); // c = Zᵀy/m, the gradient at β = 0
   const gradient = Float64Array.from(covariance);
   const yy = dot(design.response, design.response);
   const sdY = Math.sqrt(yy / m);
