@@ -8,12 +8,12 @@
  * - on the settings' own design (by default the hour-of-week profile with calendar regressors, AR(2)
  *   errors for the GLS step): AR by least squares (conditional MLE) with the order by AIC up to 6;
  *   ridge AR over the daily and weekly lags 1–3, 24, 25, 168; lasso AR over lags 1–48 and 168 (the
- *   regularised wide-lag AR); ARMA(2,1) by nonlinear least squares;
+ *   regularised wide-lag AR);
  * - on the weekly (168 h) and the daily (24 h) difference of the series and its regressors: AR by
  *   Yule-Walker and AR by least squares, the order by AIC (Yule-Walker likelihood, as R's `ar()`) up to
  *   the settings' largest AR order.
  * Each forecasts `horizon` hours from each daily origin of the held-out part, parameters fixed and the
- * actuals up to the origin known, and is scored there by MAE, the coverage of its 80 % and 95 % Gaussian
+ * actuals up to the origin known (origin-forecast.ts), and is scored there by MAE, the coverage of its 80 % and 95 % Gaussian
  * bands, and Ljung-Box on its estimation residuals (48 lags).
  *
  * Rule: candidates whose MAE is within 2 % of the best are near-equal. Among them, a candidate whose

@@ -7,10 +7,12 @@
  * Method: on standardised lagged regressors Z (Σz² = m per column) and centred response y, minimise
  *   (1/(2m))‖y − Zβ‖² + λ‖β‖₁ (Tibshirani 1996, J. R. Stat. Soc. B 58(1)) by cyclic coordinate descent with
  *   soft-thresholding, β_j ← S(g_j + G_jj β_j, λ)/G_jj with G = ZᵀZ/m and gradient g = Zᵀ(y − Zβ)/m kept current
- *   by covariance updates, active-set sweeps between full sweeps, an exact solve once the active set and signs
- *   settle (active-set-solve.ts; correlated hourly lags otherwise need thousands of sweeps), and warm starts along a decreasing λ path
+ *   by covariance updates, active-set sweeps between full sweeps, an exact solve on each new active set and signs
+ *   (active-set-solve.ts; correlated hourly lags otherwise need thousands of sweeps), and warm starts along a decreasing λ path
  *   from λ_max = max_j |Z_jᵀy|/m (all lags benched) to 1e-4·λ_max in 100 log-spaced steps (Friedman, Hastie &
- *   Tibshirani 2010, J. Stat. Softw. 33(1), §2.1–2.5). Under the prior p(β_j) ∝ exp(−(mλ/σ²)|β_j|) the negative log
+ *   Tibshirani 2010, J. Stat. Softw. 33(1), §2.1–2.5). At each λ the previous λ's active set is first moved to the new
+ *   solution exactly by add/drop steps (moveActiveSet; between kinks of the path it is already right), so most
+ *   λ need no sweep at all; G and c come from lag shifts of the series (lagged-gram.ts). Under the prior p(β_j) ∝ exp(−(mλ/σ²)|β_j|) the negative log
  *   posterior is (m/σ²) times the objective, so the solution is the MAP estimate (Park & Casella 2008, JASA 103(482)).
  *   df = number of non-zero coefficients, an unbiased estimate of the lasso's degrees of freedom (Zou, Hastie &
  *   Tibshirani 2007, Ann. Statist. 35(5)); λ by BIC or rolling-origin validation, or fixed.
