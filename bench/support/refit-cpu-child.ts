@@ -54,7 +54,11 @@ function inputsEndingAt(end: number) {
   return {
     series: { id: 1, key: 'pjm-east', name: 'PJM East', unit: 'MW', intervalMinutes: 60, timeZone: 'UTC', temperatureSeriesId: null },
     settings,
-    window: { timestamps: data.timestamps.subarray(end - windowHours, end), values: data.values.subarray(end - windowHours, end), bridgedHours: 0 },
+    window: {
+      timestamps: data.timestamps.subarray(end - windowHours, end),
+      values: data.values.subarray(end - windowHours, end),
+      bridgedHours: 0,
+    },
     temperature: { usable: false, station: null, reason: 'no temperature in this data', fallback: false },
   };
 }
