@@ -3,13 +3,15 @@
  * validate, and write every reading and finding in ONE transaction, so the upload lands whole or
  * not at all. Progress goes to the upload row over a separate connection while the transaction
  * runs, so the web app can show it. A rejection marks the upload failed with its one message and
- * stores nothing. Safe to run twice: a finished upload is left alone. A steward may cancel a queued
- * or running import (cancelUpload): the running one notices at its next progress update, or at the
- * latest when it would mark itself done, and rolls back.
+ * stores nothing. Safe to run twice: a finished, failed or cancelled upload is left alone. A steward
+ * may cancel a queued or running import (cancelUpload): the running one notices at its next progress
+ * update, or at the latest when it would mark itself done, and rolls back. When the file's order
+ * cannot place a repeated daylight-saving hour and the steward has not chosen how to read it, the
+ * import stores nothing and waits (`awaiting_choice`) with the hours to ask about; the file stays.
  */
 import { rm } from 'node:fs/promises';
 import { and, eq, inArray, sql } from 'drizzle-orm';
-import type { UploadMapping, UploadSettings } from '@loadwright/contracts';
+import { maxRepeatedHourQuestions, type RepeatedHourQuestion, type UploadMapping, type UploadSettings } from '@loadwright/contracts';
 import { auditLog, uploads, type Database } from '@loadwright/db';
 import type { Pool } from 'pg';
 import { sniffFile } from './csv/sniff';
@@ -38,7 +40,11 @@ export type ImportUploadOutcome =
   | { status: 'done'; rows: number; inserted: number; unchanged: number; revised: number; rejected: number; findings: FindingTally }
   | { status: 'failed'; message: string }
   | { status: 'cancelled' }
+  | { status: 'awaiting_choice'; questions: number }
   | { status: 'skipped'; reason: string };
+
+/** Statuses an import job leaves alone: nothing left to import, or a steward must act first. */
+const settledStatuses = new Set(['done', 'failed', 'cancelled', 'received', 'awaiting_choice']);
 
 /** Thrown inside the import when a steward cancelled it meanwhile: the transaction rolls back. */
 class ImportCancelled extends Error {}
@@ -48,8 +54,11 @@ export async function importUpload(deps: ImportUploadDeps, uploadId: number): Pr
   const { db, pool } = deps;
   const [upload] = await db.select().from(uploads).where(eq(uploads.id, uploadId));
   if (!upload) return { status: 'skipped', reason: `upload ${uploadId} does not exist` };
-  if (upload.status === 'done' || upload.status === 'failed' || upload.status === 'received')
+  if (settledStatuses.has(upload.status)) {
+    // A cancelled import whose worker stopped before noticing left its file for the next attempt to delete.
+    if (upload.status === 'cancelled' && upload.storagePath) await forgetFile(db, uploadId, upload.storagePath);
     return { status: 'skipped', reason: `upload ${uploadId} is ${upload.status}` };
+  }
   // Each progress update also learns whether the steward cancelled the import (the row is then no longer importing).
   const progress = (fraction: number, rows: number) =>
     pool
@@ -92,6 +101,7 @@ export async function importUpload(deps: ImportUploadDeps, uploadId: number): Pr
     );
     let readings = 0;
     for (const intake of file.bySeries.values()) readings += intake.readings.length;
+    if (file.questions.length > 0) return await askAboutRepeatedHours(db, uploadId, upload.storagePath, file);
     if (readings === 0) throw new UploadRejection(noUsableRowsMessage(file.rows, file.findings[0]));
 
     const tally = new FindingTally();
@@ -164,7 +174,7 @@ export async function importUpload(deps: ImportUploadDeps, uploadId: number): Pr
     return { status: 'done', rows: file.rows, ...totals, findings: tally };
   } catch (error) {
     if (error instanceof ImportCancelled) {
-      if (upload.storagePath) await rm(upload.storagePath, { force: true });
+      if (upload.storagePath) await forgetFile(db, uploadId, upload.storagePath);
       return { status: 'cancelled' };
     }
     if (!(error instanceof UploadRejection)) throw error;
@@ -175,6 +185,41 @@ export async function importUpload(deps: ImportUploadDeps, uploadId: number): Pr
     if (upload.storagePath) await rm(upload.storagePath, { force: true });
     return { status: 'failed', message: error.message };
   }
+}
+
+/**
+ * Stops the import before anything is written, keeping the file, with the repeated hours the steward
+ * must choose for. A cancellation that came meanwhile wins: the file then goes.
+ */
+async function askAboutRepeatedHours(
+  db: Database,
+  uploadId: number,
+  path: string,
+  file: { rows: number; questions: RepeatedHourQuestion[] },
+): Promise<ImportUploadOutcome> {
+  if (file.questions.length > maxRepeatedHourQuestions)
+    throw new UploadRejection(
+      `The file holds ${file.questions.length} repeated daylight-saving hours whose readings its order cannot place, more than the ${maxRepeatedHourQuestions} one upload can ask about; sort the rows by time or give times with a UTC offset, and upload it again.`,
+    );
+  const asked = await db
+    .update(uploads)
+    .set({ status: 'awaiting_choice', repeatedHourQuestions: file.questions, progress: 0, rowsTotal: file.rows, updatedAt: new Date() })
+    .where(and(eq(uploads.id, uploadId), eq(uploads.status, 'importing')))
+    .returning({ id: uploads.id });
+  if (asked.length === 0) {
+    await forgetFile(db, uploadId, path);
+    return { status: 'cancelled' };
+  }
+  return { status: 'awaiting_choice', questions: file.questions.length };
+}
+
+/** Deletes a cancelled upload's file and forgets its path. */
+async function forgetFile(db: Database, uploadId: number, path: string): Promise<void> {
+  await rm(path, { force: true });
+  await db
+    .update(uploads)
+    .set({ storagePath: null })
+    .where(and(eq(uploads.id, uploadId), eq(uploads.status, 'cancelled')));
 }
 
 /** The message for a file none of whose rows could be stored. */

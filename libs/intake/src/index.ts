@@ -12,3 +12,4 @@ export * from './time-zone-offset';
 export * from './upload-store';
 export * from './temperature-forecast-file';
 export { UploadRejection } from './upload-rejection';
+export * from './repeated-hour-choices';
