@@ -192,8 +192,13 @@ export const uploadLayoutSchema = z.object({
   slashDateOrder: z.enum(slashDateOrders).nullable().optional(),
   /** Whether the first rows write midnight as 24:00 of the day before, as files stamped at interval ends do. */
   endOfDayStamps: z.boolean().optional(),
-  /** Minutes between consecutive timestamps in the first rows (the most common step); null when undecided. */
+  /** Minutes between consecutive timestamps (the most common step in windows spread through the file); null when undecided. */
   intervalMinutes: z.number().int().positive().nullable().optional(),
+  /**
+   * Other intervals the file's steps show beside `intervalMinutes` (shorter steps, or steps that are no
+   * whole multiple of it), with their share of the sampled steps; empty unless they make up 5 % or more.
+   */
+  mixedIntervals: z.array(z.object({ minutes: z.number().int().positive(), share: z.number().min(0).max(1) })).optional(),
 });
 export type UploadLayout = z.infer<typeof uploadLayoutSchema>;
 

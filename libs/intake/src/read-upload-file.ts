@@ -437,10 +437,11 @@ function placeHeld(
     }
     // The reading that is daylight time comes first in the file unless the steward said it is the second.
     const daylightIndex = choice === 'first-is-daylight' ? 0 : 1;
-    const why = decidedByOrder ? 'in the file' : 'in the file, as the steward chose';
     group.forEach((reading, k) => {
       const isDaylight = k === daylightIndex;
       const ms = isDaylight ? daylight : standard;
+      const position = `${k === 0 ? 'first' : 'second'} in the file`;
+      const why = decidedByOrder ? position : group.length === 1 ? 'as the steward chose' : `${position}, as the steward chose`;
       placed.push({ ms, reading });
       findings.push({
         rule: 'dst_resolved',
@@ -451,7 +452,7 @@ function placeHeld(
         detail: {
           local,
           timeZone,
-          resolution: `${isDaylight ? 'daylight' : 'standard'} time (${k === 0 ? 'first' : 'second'} ${why})`,
+          resolution: `${isDaylight ? 'daylight' : 'standard'} time (${why})`,
         },
       });
     });
