@@ -66,7 +66,9 @@ async function storedAndFound(key: string, uploadId: number) {
     `select o.ts, o.value, o.estimated, o.quality from observations o join series s on s.id = o.series_id where s.key = $1 and o.upload_id = $2 order by o.ts`,
     [key, uploadId],
   );
-  const found = await server.pool.query(`select rule, ts, source_row, detail from upload_findings where upload_id = $1 order by id`, [uploadId]);
+  const found = await server.pool.query(`select rule, ts, source_row, detail from upload_findings where upload_id = $1 order by id`, [
+    uploadId,
+  ]);
   return {
     rows: stored.rows.map((r) => ({ ts: (r.ts as Date).toISOString(), value: r.value, estimated: r.estimated, quality: r.quality })),
     findings: found.rows.map((r) => ({

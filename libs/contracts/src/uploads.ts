@@ -116,6 +116,7 @@ export const validationRules = [
   'estimated',
   'dst_resolved',
   'partial_interval',
+  'mixed_interval',
 ] as const;
 export type ValidationRule = (typeof validationRules)[number];
 
@@ -142,6 +143,8 @@ export const validationRuleDescriptions: Record<ValidationRule, string> = {
     "A reading in the repeated daylight-saving hour placed by its order in the file (daylight time first, then standard time) or by the steward's choice",
   partial_interval:
     "Readings of a series interval the file covers only in part (the file's finer readings are combined only when every one is there; dropped)",
+  mixed_interval:
+    "Steps between a series' readings at another interval than the file's (shorter, or no whole multiple of it): the file mixes intervals, and readings off the series' grid are dropped; one finding per series, with the steps seen",
 };
 
 /**
@@ -165,6 +168,7 @@ export const validationRuleSeverity: Record<ValidationRule, 'defect' | 'informat
   estimated: 'information',
   dst_resolved: 'information',
   partial_interval: 'defect',
+  mixed_interval: 'defect',
 };
 
 /** Field separators Loadwright detects. */

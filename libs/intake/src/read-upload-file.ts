@@ -83,6 +83,10 @@ interface SeriesRoute {
   held: HeldReading[];
   /** Local-time readings per local day, kept only in zones that never change their clocks. */
   perDay: Map<number, { count: number; line: number }> | null;
+  /** Instant of the series' previous reading, and the steps since seen at other intervals than the file's. */
+  lastMs: number;
+  otherSteps: Map<number, number>;
+  firstOtherLine: number;
 }
 
 /** Reads the file at `path` following the plan; `onProgress` hears the fraction of bytes read. */
@@ -124,6 +128,9 @@ export async function readUploadFile(
       outOfOrder: false,
       held: [],
       perDay: zoneKeepsOneOffset ? new Map() : null,
+      lastMs: Number.NaN,
+      otherSteps: new Map(),
+      firstOtherLine: 0,
     };
     routes.set(series.id, route);
     return route;
@@ -300,6 +307,10 @@ export async function readUploadFile(
       rejected++;
       return;
     }
+    if (at.ms !== route.lastMs) {
+      noteStep(route, Math.abs(at.ms - route.lastMs), line);
+      route.lastMs = at.ms;
+    }
     route.intake.readings.push(at.ms, value, line, at.flags);
   };
 
@@ -354,6 +365,7 @@ export async function readUploadFile(
     choices.set(choiceKey(plan.seriesByKey.find(seriesKey)?.key ?? seriesKey, local), choice);
   const questions: RepeatedHourQuestion[] = [];
   for (const route of routes.values()) {
+    reportOtherSteps(route, findings);
     refuseLongDays(route, settings.timeZone);
     rejected += placeHeld(route, settings.timeZone, { findings, choices, questions }, startOf);
     if (route.readingMinutes < route.grid.intervalMinutes) {
@@ -461,6 +473,36 @@ function placeHeld(
   for (const { ms, reading } of placed)
     route.intake.readings.push(startOf(route, ms), reading.value, reading.line, qualityFlag.dstAmbiguous);
   return dropped;
+}
+
+/** Counts a step between two of a series' readings that is shorter than the file's interval or no whole multiple of it (a longer multiple is a gap). */
+function noteStep(route: SeriesRoute, stepMs: number, line: number): void {
+  const intervalMs = route.readingMinutes * 60_000;
+  if (Number.isNaN(stepMs) || (stepMs >= intervalMs && stepMs % intervalMs === 0)) return; // NaN: the series' first reading
+  const minutes = Math.round(stepMs / 60_000);
+  route.otherSteps.set(minutes, (route.otherSteps.get(minutes) ?? 0) + 1);
+  if (route.firstOtherLine === 0) route.firstOtherLine = line;
+}
+
+/** One finding per series whose readings mix intervals: the steps seen, most common first, and the first row. */
+function reportOtherSteps(route: SeriesRoute, findings: Finding[]): void {
+  if (route.otherSteps.size === 0) return;
+  const steps = [...route.otherSteps].sort((a, b) => b[1] - a[1] || a[0] - b[0]);
+  findings.push({
+    rule: 'mixed_interval',
+    seriesId: route.intake.series.id,
+    tsMs: null,
+    value: null,
+    sourceRow: route.firstOtherLine,
+    detail: {
+      fileIntervalMinutes: route.readingMinutes,
+      otherSteps: steps
+        .slice(0, 5)
+        .map(([minutes, count]) => `${minutes} min × ${count}`)
+        .join(', '),
+      count: steps.reduce((sum, [, count]) => sum + count, 0),
+    },
+  });
 }
 
 /**

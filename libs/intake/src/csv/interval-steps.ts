@@ -67,16 +67,18 @@ const windows = 32;
 const windowBytes = 16 * 1024;
 
 /**
- * Step counts of `windows` windows spread evenly through a UTF-8 file from `from` bytes on; each
+ * Step counts of up to `windows` windows spread evenly through a UTF-8 file from `from` bytes on; each
  * window's steps are counted alone, so no step spans two windows. Windows whose rows do not parse
  * are skipped.
  */
 export async function sampleSteps(handle: FileHandle, size: number, from: number, how: StepSampling): Promise<StepCounts> {
   const steps: StepCounts = new Map();
-  if (size - from < windowBytes) return steps;
+  // Windows never overlap, so no step is counted twice: a short rest of the file gets fewer of them.
+  const count = Math.min(windows, Math.floor((size - from) / windowBytes));
+  if (count === 0) return steps;
   const buffer = Buffer.alloc(windowBytes);
-  const stride = (size - from - windowBytes) / (windows - 1);
-  for (let k = 0; k < windows; k++) {
+  const stride = count === 1 ? 0 : (size - from - windowBytes) / (count - 1);
+  for (let k = 0; k < count; k++) {
     const { bytesRead } = await handle.read(buffer, 0, windowBytes, Math.floor(from + k * stride));
     const text = buffer.subarray(0, bytesRead).toString('utf8');
     // Whole lines only: drop the partial first and last lines; quoted fields spanning lines are rare in exports.

@@ -16,10 +16,11 @@ export const sniffBytes = 64 * 1024;
 /** Data rows shown in the preview. */
 export const previewRows = 20;
 
-/** The outcome of a first look; `stepSampling` says how to read timestamps further into the file (UTF-8 only). */
-export type SniffResult =
-  | { ok: true; layout: UploadLayout; preview: UploadPreview; stepSampling?: (StepSampling & { steps: StepCounts }) | null }
-  | { ok: false; message: string };
+/** The outcome of a first look. */
+export type SniffResult = { ok: true; layout: UploadLayout; preview: UploadPreview } | { ok: false; message: string };
+
+/** How to read timestamps further into the file (UTF-8 only), with the steps of its first rows. */
+type StepsSoFar = StepSampling & { steps: StepCounts };
 
 /** Magic numbers of formats people send instead of CSV. */
 const knownBinaries: Array<{ bytes: number[]; name: string }> = [
@@ -40,13 +41,13 @@ export async function sniffFile(path: string): Promise<SniffResult> {
     const buffer = Buffer.alloc(sniffBytes);
     const { bytesRead } = await handle.read(buffer, 0, sniffBytes, 0);
     const stat = await handle.stat();
-    const first = sniffBytesOf(buffer.subarray(0, bytesRead), bytesRead >= stat.size);
-    if (!first.ok || !first.stepSampling || bytesRead >= stat.size) return first;
+    const { result, sampling } = firstLook(buffer.subarray(0, bytesRead), bytesRead >= stat.size);
+    if (!result.ok || !sampling || bytesRead >= stat.size) return result;
     // The first rows may start irregularly: judge the interval by steps seen through the whole file.
-    const { steps, ...how } = first.stepSampling;
+    const { steps, ...how } = sampling;
     const spread = await sampleSteps(handle, stat.size, bytesRead, how);
     for (const [minutes, count] of steps) spread.set(minutes, (spread.get(minutes) ?? 0) + count);
-    return { ...first, layout: { ...first.layout, ...intervalFacts(spread) } };
+    return { ...result, layout: { ...result.layout, ...intervalFacts(spread) } };
   } finally {
     await handle.close();
   }
@@ -54,6 +55,18 @@ export async function sniffFile(path: string): Promise<SniffResult> {
 
 /** Looks at the first bytes of a file; `whole` says whether they are the entire file. Pure. */
 export function sniffBytesOf(bytes: Buffer, whole: boolean): SniffResult {
+  return firstLook(bytes, whole).result;
+}
+
+/** The first look, and how to sample timestamps further into the file. */
+function firstLook(bytes: Buffer, whole: boolean): { result: SniffResult; sampling: StepsSoFar | null } {
+  const refuse = (result: SniffResult) => ({ result, sampling: null });
+  const looked = readHead(bytes, whole);
+  return 'result' in looked ? looked : refuse(looked);
+}
+
+/** The first look proper: a refusal, or the result with its sampling. */
+function readHead(bytes: Buffer, whole: boolean): SniffResult | { result: SniffResult; sampling: StepsSoFar | null } {
   if (bytes.length === 0) return { ok: false, message: 'The file is empty.' };
   for (const known of knownBinaries) {
     if (known.bytes.every((byte, i) => bytes[i] === byte))
@@ -118,7 +131,7 @@ export function sniffBytesOf(bytes: Buffer, whole: boolean): SniffResult {
   const dayFirst = slashDateOrder === 'day-first';
   const stamps = rows.flatMap((row) => row.map((cell) => parseTimestamp(cell, dayFirst)).filter((stamp) => stamp !== null));
   const head = headSteps(sample, dayFirst);
-  return {
+  const result: SniffResult = {
     ok: true,
     layout: {
       encoding,
@@ -134,7 +147,10 @@ export function sniffBytesOf(bytes: Buffer, whole: boolean): SniffResult {
       ...intervalFacts(head?.steps ?? new Map()),
     },
     preview: { columns, rows },
-    stepSampling: head && encoding === 'utf-8' ? { delimiter: delimiter.value, timestampColumn: head.column, dayFirst, steps: head.steps } : null,
+  };
+  return {
+    result,
+    sampling: head && encoding === 'utf-8' ? { delimiter: delimiter.value, timestampColumn: head.column, dayFirst, steps: head.steps } : null,
   };
 }
 
