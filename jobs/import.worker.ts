@@ -30,7 +30,14 @@ export async function registerImportQueue(boss: PgBoss, context: QueueContext): 
       const outcome = await importUpload({ db, pool }, uploadId);
       if (outcome.status === 'done')
         logger.info(
-          { uploadId, rows: outcome.rows, inserted: outcome.inserted, revised: outcome.revised, findings: outcome.findings.total },
+          {
+            uploadId,
+            rows: outcome.rows,
+            inserted: outcome.inserted,
+            revised: outcome.revised,
+            findings: outcome.findings.total,
+            stageSeconds: outcome.stages,
+          },
           'upload imported',
         );
       else logger.info({ uploadId, outcome }, 'upload import ended without data');

@@ -13,3 +13,4 @@ export * from './upload-store';
 export * from './temperature-forecast-file';
 export { UploadRejection } from './upload-rejection';
 export * from './repeated-hour-choices';
+export * from './import-stages';
