@@ -158,9 +158,10 @@ describe('an import cancelled while its worker lies dead', () => {
     expect(existsSync(path)).toBe(false);
     const stored = await server.pool.query('select count(*)::int as n from observations where upload_id = $1', [uploadId]);
     expect(stored.rows[0].n).toBe(0);
-    const imported = await server.pool.query(`select count(*)::int as n from audit_log where action = 'upload.imported' and target_id = $1`, [
-      String(uploadId),
-    ]);
+    const imported = await server.pool.query(
+      `select count(*)::int as n from audit_log where action = 'upload.imported' and target_id = $1`,
+      [String(uploadId)],
+    );
     expect(imported.rows[0].n).toBe(0);
   }, 150_000);
 });

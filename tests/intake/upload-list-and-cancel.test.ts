@@ -115,7 +115,9 @@ describe('cancelling an import', () => {
       .set('Cookie', steward.cookie)
       .set('X-CSRF-Token', steward.csrf);
     expect(again.status).toBe(409);
-    expect(again.body.detail).toBe(`Upload ${id} is cancelled; only an import that is queued, running or awaiting a choice can be cancelled.`);
+    expect(again.body.detail).toBe(
+      `Upload ${id} is cancelled; only an import that is queued, running or awaiting a choice can be cancelled.`,
+    );
 
     // A worker now takes the job, finds the upload cancelled and leaves it so.
     await registerQueues(boss, { logger: pino({ level: 'silent' }), concurrency: 1, databaseUrl: server.databaseUrl });

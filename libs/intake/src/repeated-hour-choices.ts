@@ -25,7 +25,11 @@ export function settingsWithChoices(
         message: `Series "${choice.seriesKey}" has no repeated hour at ${choice.local} to choose for; choose only for the hours the upload lists.`,
       };
     if (answered.has(key))
-      return { ok: false, index, message: `${question.local} of series "${question.seriesKey}" is chosen twice; choose once for each hour.` };
+      return {
+        ok: false,
+        index,
+        message: `${question.local} of series "${question.seriesKey}" is chosen twice; choose once for each hour.`,
+      };
     answered.set(key, { ...choice, seriesKey: question.seriesKey });
   }
   const open = questions.filter((question) => !answered.has(keyOf(question.seriesKey, question.local)));

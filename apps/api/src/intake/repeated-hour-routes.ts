@@ -5,7 +5,13 @@
  */
 import { eq } from 'drizzle-orm';
 import { drizzle } from 'drizzle-orm/node-postgres';
-import { idParamsSchema, repeatedHourChoicesRequestSchema, uploadSchema, type RepeatedHourQuestion, type UploadSettings } from '@loadwright/contracts';
+import {
+  idParamsSchema,
+  repeatedHourChoicesRequestSchema,
+  uploadSchema,
+  type RepeatedHourQuestion,
+  type UploadSettings,
+} from '@loadwright/contracts';
 import { uploads } from '@loadwright/db';
 import { recordAudit } from '@loadwright/audit';
 import { HttpProblem } from '@loadwright/problems';

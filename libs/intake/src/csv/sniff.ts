@@ -150,7 +150,8 @@ function readHead(bytes: Buffer, whole: boolean): SniffResult | { result: SniffR
   };
   return {
     result,
-    sampling: head && encoding === 'utf-8' ? { delimiter: delimiter.value, timestampColumn: head.column, dayFirst, steps: head.steps } : null,
+    sampling:
+      head && encoding === 'utf-8' ? { delimiter: delimiter.value, timestampColumn: head.column, dayFirst, steps: head.steps } : null,
   };
 }
 

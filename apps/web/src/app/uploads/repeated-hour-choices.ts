@@ -4,12 +4,7 @@ import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatRadioModule } from '@angular/material/radio';
-import {
-  repeatedHourChoiceKinds,
-  type RepeatedHourChoiceKind,
-  type RepeatedHourQuestion,
-  type UploadDetail,
-} from '@loadwright/contracts';
+import { repeatedHourChoiceKinds, type RepeatedHourChoiceKind, type RepeatedHourQuestion, type UploadDetail } from '@loadwright/contracts';
 import { problemMessage } from '../core/problems/api-problem';
 import { choiceWords, reasonWords } from './repeated-hour-labels';
 import { UploadsClient } from './uploads-client';

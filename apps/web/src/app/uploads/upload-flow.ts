@@ -25,7 +25,17 @@ const pollEveryMs = 1000;
  */
 @Component({
   selector: 'lw-upload-flow',
-  imports: [DatePipe, DecimalPipe, RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule, MappingStep, RepeatedHourChoices, UploadReport],
+  imports: [
+    DatePipe,
+    DecimalPipe,
+    RouterLink,
+    MatButtonModule,
+    MatIconModule,
+    MatProgressBarModule,
+    MappingStep,
+    RepeatedHourChoices,
+    UploadReport,
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './upload-flow.html',
   styleUrl: './upload-flow.scss',
