@@ -2,9 +2,10 @@
  * The 'import-upload' handler: imports one confirmed upload per job (an import is heavy, so one at a
  * time per worker; more workers import more files side by side). A rejected file ends its job
  * normally with the upload marked failed; an unexpected error goes to pg-boss's retry, and on the
- * last attempt the upload is marked failed too, so no upload waits forever.
+ * last attempt the upload is marked failed too, so no upload waits forever. Either change applies
+ * only to an upload still queued or importing: a retry never rewrites a cancelled upload.
  */
-import { eq } from 'drizzle-orm';
+import { and, eq, inArray } from 'drizzle-orm';
 import { createDb, uploads } from '@loadwright/db';
 import type PgBoss from 'pg-boss';
 import { createImportQueue, importQueue, type ImportUploadJob } from '@loadwright/intake';
@@ -29,7 +30,14 @@ export async function registerImportQueue(boss: PgBoss, context: QueueContext): 
       const outcome = await importUpload({ db, pool }, uploadId);
       if (outcome.status === 'done')
         logger.info(
-          { uploadId, rows: outcome.rows, inserted: outcome.inserted, revised: outcome.revised, findings: outcome.findings.total },
+          {
+            uploadId,
+            rows: outcome.rows,
+            inserted: outcome.inserted,
+            revised: outcome.revised,
+            findings: outcome.findings.total,
+            stageSeconds: outcome.stages,
+          },
           'upload imported',
         );
       else logger.info({ uploadId, outcome }, 'upload import ended without data');
@@ -48,7 +56,7 @@ export async function registerImportQueue(boss: PgBoss, context: QueueContext): 
               }
             : { status: 'queued', progress: 0 },
         )
-        .where(eq(uploads.id, uploadId));
+        .where(and(eq(uploads.id, uploadId), inArray(uploads.status, ['queued', 'importing'])));
       throw error;
     }
   }

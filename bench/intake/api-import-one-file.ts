@@ -6,7 +6,8 @@
  *   upload   POST /api/uploads (multipart body streamed to disk, SHA-256, sniff, mapping proposal)
  *   confirm  POST /api/uploads/:id/mapping (plan check, job enqueued in the upload's transaction)
  *   queued   from the confirmation until the worker starts the import (pg-boss polling)
- *   import   the worker's import, from the upload row's started_at to finished_at
+ *   import   the worker's import, from the upload row's started_at to finished_at, and its stages as
+ *            the worker recorded them in the audit entry (read, screen, validate, write, findings)
  *   noticed  from finished_at until the steward's poll (every 250 ms) sees "done"
  *
  * Usage: node --import tsx bench/intake/api-import-one-file.ts --rows 1000000
@@ -128,6 +129,10 @@ try {
   );
   if (status !== 'done') throw new Error(`import ended ${status}: ${timing[0]?.error}`);
   const stored = Number((await pool.query('select count(*) as n from observations')).rows[0].n);
+  const audit = await pool.query<{ detail: { stageSeconds: Record<string, number> } }>(
+    `select detail from audit_log where action = 'upload.imported' and target_id = $1`,
+    [String(id)],
+  );
   const started = timing[0]!.started_at.getTime();
   const finished = timing[0]!.finished_at.getTime();
   server.closeAllConnections();
@@ -146,6 +151,7 @@ try {
       importSeconds: (finished - started) / 1000,
       noticedSeconds: (seenAt - finished) / 1000,
       importRowsPerSecond: Math.round(fileRows / ((finished - started) / 1000)),
+      stages: audit.rows[0]?.detail.stageSeconds ?? null,
     }),
   );
 } finally {

@@ -5,9 +5,11 @@
  * write) against a fresh database, sampling the resident set size every 20 ms. Prints one JSON line.
  *
  * With `--mode reference` it instead writes the same readings with the seed's plain batched insert
- * (no parsing, no validation, no merge): the database's own pace at this moment.
+ * (no parsing, no validation, no merge): the database's own pace at this moment. With `--mode
+ * reference-unindexed` it does the same after dropping the observations table's one index (its
+ * primary key) and its statement-level reference checks: the difference is their upkeep.
  *
- * Usage: node --import tsx --expose-gc bench/intake/import-one-file.ts --rows 1000000 [--mode reference]
+ * Usage: node --import tsx --expose-gc bench/intake/import-one-file.ts --rows 1000000 [--mode reference|reference-unindexed]
  */
 import { rm, stat } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
@@ -96,7 +98,12 @@ try {
     peakHeap = Math.max(peakHeap, memory.heapUsed);
   }, 20);
   const began = performance.now();
-  const outcome = args.mode === 'reference' ? await referenceInsert(db) : await importUpload({ db, pool }, upload!.id);
+  const reference = args.mode === 'reference' || args.mode === 'reference-unindexed';
+  if (args.mode === 'reference-unindexed') {
+    await pool.query('alter table observations drop constraint observations_pkey');
+    await pool.query('alter table observations disable trigger user');
+  }
+  const outcome = reference ? await referenceInsert(db) : await importUpload({ db, pool }, upload!.id);
   const seconds = (performance.now() - began) / 1000;
   clearInterval(sampler);
   if (outcome.status !== 'done') throw new Error(`import ended ${outcome.status}: ${JSON.stringify(outcome)}`);
@@ -114,6 +121,7 @@ try {
       peakRssMiB: Math.round(peakRss / 1048576),
       rssGrowthMiB: Math.round((peakRss - baselineRss) / 1048576),
       peakHeapMiB: Math.round(peakHeap / 1048576),
+      stages: 'stages' in outcome ? outcome.stages : null,
     }),
   );
 } finally {

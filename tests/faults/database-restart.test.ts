@@ -2,9 +2,11 @@
  * PostgreSQL stopped in the middle of an import and started again, on a server of this test's own: the
  * worker process stays up (no unhandled 'error' event or rejection), the API answers 503 problems with
  * Retry-After while the database is away and recovers by itself, and the import is finished once, with
- * every reading stored exactly once.
+ * every reading stored exactly once. The same for a refit run: the worker survives the stop and every
+ * series of the run is refitted exactly once.
  */
 import { series } from '@loadwright/db';
+import { seedDemo } from '../../libs/db/src/seed/seed-demo';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { confirm, postFile, waitForImport } from '../intake/upload-client';
@@ -24,6 +26,7 @@ import {
 let postgres: OwnPostgres;
 let server: TestServer;
 let steward: SignedIn;
+let planner: SignedIn;
 let worker: WorkerProcess;
 
 // 30,000 hours × 12 series: several seconds of import, so the stop lands inside it.
@@ -36,6 +39,7 @@ beforeAll(async () => {
   server = await startTestServer({ worker: false, databaseUrl: postgres.url });
   const people = await createPeople(server.db);
   steward = await signIn(server.url, people.steward.email);
+  planner = await signIn(server.url, people.planner.email);
   const load = { kind: 'load', level: 'feeder', unit: 'kW', intervalMinutes: 60, timeZone: 'UTC' } as const;
   await server.db.insert(series).values(loadFileSeries.map((key) => ({ key, name: `Test feeder ${key}`, ...load })));
   worker = startWorker(postgres.url, 'worker-a');
@@ -124,4 +128,56 @@ describe('PostgreSQL stopped during an import', () => {
       worker.child.pid,
     ]);
   }, 180_000);
+});
+
+describe('PostgreSQL stopped during a refit run', () => {
+  let runId: number;
+  let total: number;
+
+  beforeAll(async () => {
+    await seedDemo(postgres.url);
+    // The demo co-op's load series (the test feeders hold 2015–2018 only, too old to refit).
+    const demo = await server.pool.query(`select id from series where kind = 'load' and key not like 'fdr-%' order by id`);
+    const response = await request(server.url)
+      .post('/api/refits')
+      .set('Cookie', planner.cookie)
+      .set('X-CSRF-Token', planner.csrf)
+      .send({ scope: { kind: 'series', seriesIds: demo.rows.map((row) => row.id) } });
+    expect(response.status, JSON.stringify(response.body)).toBe(202);
+    runId = response.body.id;
+    await waitFor(async () => {
+      const { rows } = await server.pool.query(`select count(*)::int as n from refit_run_series where run_id = $1 and status = 'running'`, [
+        runId,
+      ]);
+      return rows[0].n > 0 ? true : undefined;
+    }, 'a series refit to be running');
+    total = (await server.pool.query('select series_total from refit_runs where id = $1', [runId])).rows[0].series_total;
+    await postgres.stop();
+  }, 240_000);
+
+  it('keeps the worker running while the database is away, then finishes the run with every series refitted once', async () => {
+    await new Promise((done) => setTimeout(done, 3_000));
+    expect(worker.child.exitCode).toBeNull();
+    await postgres.start();
+    const run = await waitFor(
+      async () => {
+        const { rows } = await server.pool
+          .query('select series_done, series_failed, finished_at from refit_runs where id = $1', [runId])
+          .catch(() => ({ rows: [{ finished_at: null }] }));
+        return rows[0].finished_at ? rows[0] : undefined;
+      },
+      'the run to finish',
+      240_000,
+    );
+    expect(run.series_failed).toBe(0);
+    expect(run.series_done).toBe(total);
+    const versions = await server.pool.query(
+      `select series_id, count(*)::int as n from forecast_versions where refit_run_id = $1 group by series_id`,
+      [runId],
+    );
+    expect(versions.rows).toHaveLength(total);
+    expect(versions.rows.every((row) => row.n === 1)).toBe(true);
+    // The same worker process did it: it never crashed.
+    expect(worker.child.exitCode).toBeNull();
+  }, 300_000);
 });

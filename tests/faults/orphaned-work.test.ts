@@ -3,6 +3,10 @@
  * that no live worker holds goes back to the queue, a held one stays; an upload whose import job is gone
  * (its last attempt ended with its worker) is marked failed with a message, one with a live job stays.
  */
+import { existsSync } from 'node:fs';
+import { mkdtemp, rm, writeFile } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { uploads } from '@loadwright/db';
 import { importQueue } from '@loadwright/intake';
 import type PgBoss from 'pg-boss';
@@ -112,5 +116,31 @@ describe('sweepOrphanedImports', () => {
     expect(stored.rows[0].n).toBe(0);
     // A second sweep changes nothing.
     expect(await sweepOrphanedImports(server.pool)).toEqual([]);
+  });
+
+  it('deletes the file of a cancelled upload whose running import never noticed, and leaves its status', async () => {
+    const folder = await mkdtemp(join(tmpdir(), 'lw-sweep-'));
+    const path = join(folder, 'left-behind.csv');
+    await writeFile(path, 'timestamp,kW\n2020-01-01T00:00:00Z,1\n');
+    const error = 'Cancelled by Test steward while importing; nothing from this file was stored.';
+    const [left] = await server.db
+      .insert(uploads)
+      .values({
+        fileName: 'left-behind.csv',
+        contentSha256: 'sha-left-behind',
+        byteSize: 10,
+        status: 'cancelled',
+        storagePath: path,
+        error,
+      })
+      .returning({ id: uploads.id });
+    await server.pool.query(`update uploads set updated_at = now() - interval '5 minutes' where id = $1`, [left!.id]);
+
+    expect(await sweepOrphanedImports(server.pool)).toEqual([]);
+
+    expect(existsSync(path)).toBe(false);
+    const { rows } = await server.pool.query('select status, error, storage_path from uploads where id = $1', [left!.id]);
+    expect(rows).toEqual([{ status: 'cancelled', error, storage_path: null }]);
+    await rm(folder, { recursive: true, force: true });
   });
 });

@@ -2,8 +2,10 @@
  * A worker killed outright (SIGKILL) in the middle of an import and in the middle of a refit run: its
  * jobs go back to the queue once its heartbeat stops (3 beats of 1 s here, 10 s in production), a
  * second worker process finishes them, and the database holds every row exactly once: no half-written
- * import, no duplicated reading, no second forecast version for a series in one run.
+ * import, no duplicated reading, no second forecast version for a series in one run. An import a
+ * steward cancels while its worker lies dead stays cancelled when another worker retries the job.
  */
+import { existsSync } from 'node:fs';
 import { series } from '@loadwright/db';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -105,6 +107,63 @@ describe('a worker killed during an import', () => {
     );
     expect(rows).toEqual([{ retry_count: 1, state: 'completed' }]);
   });
+});
+
+describe('an import cancelled while its worker lies dead', () => {
+  // A different length from the file above, so its bytes are new to the upload list.
+  const hours = 20_000;
+  let uploadId: number;
+  let path: string;
+  let cancelledError: string;
+
+  beforeAll(async () => {
+    await stopWorker(second);
+    const doomed = await startLiveWorker('worker-c');
+    const posted = await postFile(server.url, steward, 'feeders-hourly-again.csv', loadFile(hours));
+    expect(posted.status, JSON.stringify(posted.body)).toBe(201);
+    uploadId = posted.body.upload.id;
+    path = (await server.pool.query('select storage_path from uploads where id = $1', [uploadId])).rows[0].storage_path;
+    const confirmed = await confirm(server.url, steward, uploadId, {
+      mapping: posted.body.proposal.mapping,
+      settings: posted.body.proposal.settings,
+    });
+    expect(confirmed.status, JSON.stringify(confirmed.body)).toBe(200);
+    await waitFor(async () => {
+      const { rows } = await server.pool.query('select status, progress from uploads where id = $1', [uploadId]);
+      return rows[0].status === 'importing' && rows[0].progress > 0 ? true : undefined;
+    }, 'the import to be under way');
+    await killWorker(doomed);
+    const cancelled = await request(server.url)
+      .post(`/api/uploads/${uploadId}/cancel`)
+      .set('Cookie', steward.cookie)
+      .set('X-CSRF-Token', steward.csrf);
+    expect(cancelled.status).toBe(200);
+    expect(cancelled.body.status).toBe('cancelled');
+    cancelledError = cancelled.body.error;
+  }, 120_000);
+
+  it('stays cancelled when the job is retried by another worker: no status rewritten, no row stored, the file deleted', async () => {
+    second = await startLiveWorker('worker-d');
+    const job = async () =>
+      (
+        await server.pool.query(`select state, retry_count from pgboss.job where name = 'import-upload' and data->>'uploadId' = $1`, [
+          String(uploadId),
+        ])
+      ).rows[0] as { state: string; retry_count: number };
+    // The retry runs once the dead worker's heartbeat is stale and the retry delay has passed.
+    await waitFor(async () => ((await job()).state === 'completed' ? true : undefined), 'the retried job to complete', 120_000);
+    expect(await job()).toEqual({ state: 'completed', retry_count: 1 });
+    const { rows } = await server.pool.query('select status, error, storage_path from uploads where id = $1', [uploadId]);
+    expect(rows[0]).toEqual({ status: 'cancelled', error: cancelledError, storage_path: null });
+    expect(existsSync(path)).toBe(false);
+    const stored = await server.pool.query('select count(*)::int as n from observations where upload_id = $1', [uploadId]);
+    expect(stored.rows[0].n).toBe(0);
+    const imported = await server.pool.query(
+      `select count(*)::int as n from audit_log where action = 'upload.imported' and target_id = $1`,
+      [String(uploadId)],
+    );
+    expect(imported.rows[0].n).toBe(0);
+  }, 150_000);
 });
 
 describe('a worker killed during a refit run', () => {

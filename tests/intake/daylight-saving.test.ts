@@ -2,10 +2,13 @@
  * Local-time files across the daylight-saving changes of 2026, in a zone with daylight saving
  * (America/Chicago: spring forward 2026-03-08 02:00 → 03:00, fall back 2026-11-01 02:00 → 01:00) and
  * one without (America/Phoenix, UTC−7 all year): the right UTC instants and the right findings. The
- * proposed policy, by-order, places the repeated hour by file order and drops, with the reason, only
- * what order cannot decide; a 25-hour day in Phoenix refuses the file.
+ * proposed policy, by-order, places the repeated hour by file order; when order cannot decide, the
+ * import stores nothing and asks the steward (both readings shown), then goes on with the choice.
+ * A 25-hour day in Phoenix refuses the file.
  */
+import { existsSync } from 'node:fs';
 import { series } from '@loadwright/db';
+import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createPeople, signIn, type SignedIn } from '../support/people';
 import { startTestServer, type TestServer } from '../support/server';
@@ -24,6 +27,7 @@ beforeAll(async () => {
     { key: 'chicago-c', name: 'Chicago C', timeZone: 'America/Chicago', ...feeder },
     { key: 'chicago-d', name: 'Chicago D', timeZone: 'America/Chicago', ...feeder },
     { key: 'chicago-e', name: 'Chicago E', timeZone: 'America/Chicago', ...feeder },
+    { key: 'chicago-f', name: 'Chicago F', timeZone: 'America/Chicago', ...feeder },
     { key: 'phoenix-a', name: 'Phoenix A', timeZone: 'America/Phoenix', ...feeder },
   ]);
 });
@@ -34,8 +38,8 @@ function localFile(day: string, hours: number[], base = 500): string {
   return `local time,kW\n${hours.map((h, i) => `${day} ${String(h).padStart(2, '0')}:00,${base + i}`).join('\n')}\n`;
 }
 
-/** Uploads a local-time file for one series and returns the stored rows and the findings. */
-async function importLocal(
+/** Uploads a local-time file for one series, confirms it and waits for the import to end or to ask. */
+async function uploadLocal(
   key: string,
   timeZone: string,
   content: string,
@@ -53,16 +57,19 @@ async function importLocal(
     estimateShortGaps: true,
   } as const;
   expect((await confirm(server.url, steward, posted.body.upload.id, { mapping, settings })).status).toBe(200);
-  const done = await waitForImport(server.url, steward, posted.body.upload.id);
+  return waitForImport(server.url, steward, posted.body.upload.id);
+}
+
+/** The rows stored for a series from an upload, and the upload's findings. */
+async function storedAndFound(key: string, uploadId: number) {
   const stored = await server.pool.query(
     `select o.ts, o.value, o.estimated, o.quality from observations o join series s on s.id = o.series_id where s.key = $1 and o.upload_id = $2 order by o.ts`,
-    [key, posted.body.upload.id],
+    [key, uploadId],
   );
   const found = await server.pool.query(`select rule, ts, source_row, detail from upload_findings where upload_id = $1 order by id`, [
-    posted.body.upload.id,
+    uploadId,
   ]);
   return {
-    upload: done.upload,
     rows: stored.rows.map((r) => ({ ts: (r.ts as Date).toISOString(), value: r.value, estimated: r.estimated, quality: r.quality })),
     findings: found.rows.map((r) => ({
       rule: r.rule,
@@ -71,6 +78,26 @@ async function importLocal(
       resolution: r.detail.resolution,
     })),
   };
+}
+
+/** Uploads a local-time file for one series and returns the stored rows and the findings. */
+async function importLocal(
+  key: string,
+  timeZone: string,
+  content: string,
+  repeatedHourPolicy: 'reject' | 'first-is-daylight' | 'by-order',
+) {
+  const done = await uploadLocal(key, timeZone, content, repeatedHourPolicy);
+  return { upload: done.upload, ...(await storedAndFound(key, done.upload.id)) };
+}
+
+/** Answers the repeated hours an upload asks about. */
+function choose(uploadId: number, choices: Array<{ seriesKey: string; local: string; choice: string }>) {
+  return request(server.url)
+    .post(`/api/uploads/${uploadId}/repeated-hours`)
+    .set('Cookie', steward.cookie)
+    .set('X-CSRF-Token', steward.csrf)
+    .send({ choices });
 }
 
 const allHours = Array.from({ length: 24 }, (_, h) => h);
@@ -122,34 +149,144 @@ describe('America/Chicago (daylight saving)', () => {
     expect(report.rows[0].n).toBe(0);
   });
 
-  it('fall back, by-order: one 01:00 alone cannot be placed, so it is dropped with the reason and the hours around it estimated', async () => {
+  it('fall back, by-order: one 01:00 alone cannot be placed, so the import stores nothing and asks; "standard time" places it at 07:00Z', async () => {
     // 00:00 CDT (05:00Z) = 900, 01:00 (which one?) = 901, 02:00 CST (08:00Z) = 902 …
-    const result = await importLocal('chicago-d', 'America/Chicago', localFile('2026-11-01', allHours, 900), 'by-order');
-    expect(result.upload).toMatchObject({ status: 'done', rowsTotal: 24, rowsRejected: 1 });
+    const asked = await uploadLocal('chicago-d', 'America/Chicago', localFile('2026-11-01', allHours, 900), 'by-order');
+    expect(asked.upload).toMatchObject({ status: 'awaiting_choice', rowsTotal: 24, rowsImported: 0 });
+    expect(asked.repeatedHours).toEqual([
+      {
+        seriesKey: 'chicago-d',
+        local: '2026-11-01 01:00',
+        timeZone: 'America/Chicago',
+        reason: 'single-reading',
+        // 01:00 CDT = 06:00Z, 01:00 CST = 07:00Z.
+        daylightStart: '2026-11-01T06:00:00.000Z',
+        standardStart: '2026-11-01T07:00:00.000Z',
+        readings: [{ sourceRow: 3, value: 901 }],
+        unit: 'kW',
+      },
+    ]);
+    const id = asked.upload.id;
+    expect(await storedAndFound('chicago-d', id)).toEqual({ rows: [], findings: [] });
+
+    const chosen = await choose(id, [{ seriesKey: 'chicago-d', local: '2026-11-01 01:00', choice: 'second-is-daylight' }]);
+    expect(chosen.status, JSON.stringify(chosen.body)).toBe(200);
+    expect(chosen.body.status).toBe('queued');
+    const done = await waitForImport(server.url, steward, id);
+    expect(done.upload).toMatchObject({ status: 'done', rowsTotal: 24, rowsRejected: 0 });
+    expect(done.repeatedHours).toEqual([]);
+    const result = await storedAndFound('chicago-d', id);
     expect(result.rows.slice(0, 4)).toEqual([
       { ts: '2026-11-01T05:00:00.000Z', value: 900, estimated: null, quality: 0 },
-      // Linear between 900 at 05:00Z and 902 at 08:00Z: 900 + 2/3 and 900 + 4/3, rounded to 6 decimals.
-      { ts: '2026-11-01T06:00:00.000Z', value: null, estimated: 900.666667, quality: 3 },
-      { ts: '2026-11-01T07:00:00.000Z', value: null, estimated: 901.333333, quality: 3 },
+      // One hour missing between 900 at 05:00Z and 901 at 07:00Z: linear, 900.5.
+      { ts: '2026-11-01T06:00:00.000Z', value: null, estimated: 900.5, quality: 3 },
+      { ts: '2026-11-01T07:00:00.000Z', value: 901, estimated: null, quality: 128 },
       { ts: '2026-11-01T08:00:00.000Z', value: 902, estimated: null, quality: 0 },
     ]);
-    expect(result.findings.find((f) => f.rule === 'dst_repeated_hour')).toEqual({
-      rule: 'dst_repeated_hour',
-      ts: null,
+    expect(result.findings.find((f) => f.rule === 'dst_resolved')).toEqual({
+      rule: 'dst_resolved',
+      ts: '2026-11-01T07:00:00.000Z',
       row: 3,
-      resolution:
-        'dropped: the file holds one reading at a time that occurs twice, so it cannot tell daylight from standard time; give times with a UTC offset',
+      resolution: 'standard time (as the steward chose)',
     });
+    const audit = await server.pool.query(`select detail from audit_log where action = 'upload.repeated-hours-chosen' and target_id = $1`, [
+      String(id),
+    ]);
+    expect(audit.rows).toEqual([{ detail: { choices: ['chicago-d 2026-11-01 01:00: second-is-daylight'] } }]);
   });
 
-  it('fall back, by-order: rows in reverse time order say nothing about which 01:00 is which, so both are dropped with the reason', async () => {
+  it('fall back, by-order: rows in reverse time order cannot say which 01:00 is which; the steward says the first is daylight time', async () => {
     const hours = [0, 1, 1, ...allHours.slice(2)].reverse();
-    const result = await importLocal('chicago-e', 'America/Chicago', localFile('2026-11-01', hours, 1000), 'by-order');
-    expect(result.upload).toMatchObject({ status: 'done', rowsTotal: 25, rowsRejected: 2 });
-    const dropped = result.findings.filter((f) => f.rule === 'dst_repeated_hour');
-    expect(dropped.map((f) => f.row)).toEqual([24, 25]);
-    expect(dropped[0]!.resolution).toMatch(/^dropped: the rows are not in time order/);
-    expect(result.rows.filter((r) => r.value !== null)).toHaveLength(23);
+    const asked = await uploadLocal('chicago-e', 'America/Chicago', localFile('2026-11-01', hours, 1000), 'by-order');
+    expect(asked.upload.status).toBe('awaiting_choice');
+    // Reversed: row 2 is 23:00 (1000) … rows 24 and 25 are the two 01:00 readings (1022, 1023), row 26 is 00:00.
+    expect(asked.repeatedHours).toEqual([
+      expect.objectContaining({
+        local: '2026-11-01 01:00',
+        reason: 'rows-out-of-order',
+        readings: [
+          { sourceRow: 24, value: 1022 },
+          { sourceRow: 25, value: 1023 },
+        ],
+      }),
+    ]);
+    const chosen = await choose(asked.upload.id, [{ seriesKey: 'CHICAGO-E', local: '2026-11-01 01:00', choice: 'first-is-daylight' }]);
+    expect(chosen.status, JSON.stringify(chosen.body)).toBe(200);
+    const done = await waitForImport(server.url, steward, asked.upload.id);
+    expect(done.upload).toMatchObject({ status: 'done', rowsTotal: 25, rowsImported: 25, rowsRejected: 0 });
+    const result = await storedAndFound('chicago-e', asked.upload.id);
+    expect(result.rows.map((r) => r.ts)).toEqual(utcHours('2026-11-01T05:00:00Z', 25));
+    expect(result.rows.slice(0, 4).map((r) => [r.ts, r.value, r.quality])).toEqual([
+      ['2026-11-01T05:00:00.000Z', 1024, 0],
+      ['2026-11-01T06:00:00.000Z', 1022, 128],
+      ['2026-11-01T07:00:00.000Z', 1023, 128],
+      ['2026-11-01T08:00:00.000Z', 1021, 0],
+    ]);
+    expect(result.findings.filter((f) => f.rule === 'dst_resolved').map((f) => f.resolution)).toEqual([
+      'daylight time (first in the file, as the steward chose)',
+      'standard time (second in the file, as the steward chose)',
+    ]);
+  });
+
+  it('asks again for nothing it did not list, refuses a missing or unknown hour and changes nothing; "drop" drops both with the reason', async () => {
+    const hours = [0, 1, 1, ...allHours.slice(2)].reverse();
+    const asked = await uploadLocal('chicago-f', 'America/Chicago', localFile('2026-11-01', hours, 1100), 'by-order');
+    const id = asked.upload.id;
+    expect(asked.upload.status).toBe('awaiting_choice');
+    const unknown = await choose(id, [{ seriesKey: 'chicago-f', local: '2026-11-01 02:00', choice: 'drop' }]);
+    expect(unknown.status).toBe(400);
+    expect(unknown.body.detail).toBe(
+      'Series "chicago-f" has no repeated hour at 2026-11-01 02:00 to choose for; choose only for the hours the upload lists.',
+    );
+    const twice = await choose(id, [
+      { seriesKey: 'chicago-f', local: '2026-11-01 01:00', choice: 'drop' },
+      { seriesKey: 'chicago-f', local: '2026-11-01 01:00', choice: 'first-is-daylight' },
+    ]);
+    expect(twice.status).toBe(400);
+    expect(twice.body.detail).toBe('2026-11-01 01:00 of series "chicago-f" is chosen twice; choose once for each hour.');
+    const empty = await choose(id, []);
+    expect(empty.status).toBe(400);
+    const still = await request(server.url).get(`/api/uploads/${id}`).set('Cookie', steward.cookie);
+    expect(still.body.upload.status).toBe('awaiting_choice');
+    expect(still.body.repeatedHours).toHaveLength(1);
+
+    expect((await choose(id, [{ seriesKey: 'chicago-f', local: '2026-11-01 01:00', choice: 'drop' }])).status).toBe(200);
+    const done = await waitForImport(server.url, steward, id);
+    expect(done.upload).toMatchObject({ status: 'done', rowsTotal: 25, rowsRejected: 2 });
+    const result = await storedAndFound('chicago-f', id);
+    expect(result.findings.filter((f) => f.rule === 'dst_repeated_hour')).toEqual([
+      { rule: 'dst_repeated_hour', ts: null, row: 24, resolution: 'dropped, as the steward chose' },
+      { rule: 'dst_repeated_hour', ts: null, row: 25, resolution: 'dropped, as the steward chose' },
+    ]);
+    // Both 01:00 hours are a two-hour hole between 00:00 CDT (1124) and 02:00 CST (1121), estimated.
+    expect(result.rows.slice(1, 3).map((r) => [r.ts, r.value, r.estimated])).toEqual([
+      ['2026-11-01T06:00:00.000Z', null, 1123],
+      ['2026-11-01T07:00:00.000Z', null, 1122],
+    ]);
+    const again = await choose(id, [{ seriesKey: 'chicago-f', local: '2026-11-01 01:00', choice: 'drop' }]);
+    expect(again.status).toBe(409);
+    expect(again.body.detail).toBe(`Upload ${id} is done; only an upload awaiting a choice takes one.`);
+  });
+
+  it('a steward may cancel an upload awaiting a choice: its file goes and nothing is stored', async () => {
+    const asked = await uploadLocal('chicago-d', 'America/Chicago', localFile('2026-11-01', allHours, 1300), 'by-order');
+    const id = asked.upload.id;
+    expect(asked.upload.status).toBe('awaiting_choice');
+    const path = (await server.pool.query('select storage_path from uploads where id = $1', [id])).rows[0].storage_path as string;
+    expect(existsSync(path)).toBe(true);
+    const cancelled = await request(server.url)
+      .post(`/api/uploads/${id}/cancel`)
+      .set('Cookie', steward.cookie)
+      .set('X-CSRF-Token', steward.csrf);
+    expect(cancelled.status).toBe(200);
+    expect(cancelled.body).toMatchObject({
+      status: 'cancelled',
+      error: expect.stringMatching(/^Cancelled by .+ while awaiting a choice for its repeated hours; nothing from this file was stored\.$/),
+    });
+    expect(existsSync(path)).toBe(false);
+    expect((await storedAndFound('chicago-d', id)).rows).toEqual([]);
+    const late = await choose(id, [{ seriesKey: 'chicago-d', local: '2026-11-01 01:00', choice: 'drop' }]);
+    expect(late.status).toBe(409);
   });
 
   it('fall back, reject: both 01:00 readings are dropped with findings and the two-hour hole is estimated and reported', async () => {

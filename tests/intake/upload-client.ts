@@ -17,13 +17,13 @@ export function confirm(url: string, session: SignedIn, id: number, body: Confir
   return request(url).post(`/api/uploads/${id}/mapping`).set('Cookie', session.cookie).set('X-CSRF-Token', session.csrf).send(body);
 }
 
-/** Polls an upload until it is done or failed (or the time runs out). */
+/** Polls an upload until it is done, failed or cancelled, or awaits a choice (or the time runs out). */
 export async function waitForImport(url: string, session: SignedIn, id: number, timeoutMs = 60_000): Promise<UploadDetail> {
   const until = Date.now() + timeoutMs;
   for (;;) {
     const response = await request(url).get(`/api/uploads/${id}`).set('Cookie', session.cookie);
     const detail = response.body as UploadDetail;
-    if (detail.upload.status === 'done' || detail.upload.status === 'failed') return detail;
+    if (['done', 'failed', 'cancelled', 'awaiting_choice'].includes(detail.upload.status)) return detail;
     if (Date.now() > until) throw new Error(`upload ${id} still ${detail.upload.status} after ${timeoutMs} ms`);
     await new Promise((resolve) => setTimeout(resolve, 200));
   }

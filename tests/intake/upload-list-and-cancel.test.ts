@@ -94,7 +94,7 @@ describe('upload names and pages', () => {
 });
 
 describe('cancelling an import', () => {
-  it('cancels a queued import: it ends failed with who cancelled it, its file goes, and the job stores nothing', async () => {
+  it('cancels a queued import: it ends cancelled with who cancelled it, its file goes, and the job stores nothing', async () => {
     const posted = await postFile(server.url, steward, 'queued.csv', hourly(48, 5000));
     const id = posted.body.upload.id as number;
     const path = (await server.pool.query('select storage_path from uploads where id = $1', [id])).rows[0].storage_path as string;
@@ -106,7 +106,7 @@ describe('cancelling an import', () => {
       .set('X-CSRF-Token', steward.csrf);
     expect(cancelled.status).toBe(200);
     expect(cancelled.body).toMatchObject({
-      status: 'failed',
+      status: 'cancelled',
       error: expect.stringMatching(/^Cancelled by .+ while waiting to be imported; nothing from this file was stored\.$/),
     });
     expect(existsSync(path)).toBe(false);
@@ -115,7 +115,9 @@ describe('cancelling an import', () => {
       .set('Cookie', steward.cookie)
       .set('X-CSRF-Token', steward.csrf);
     expect(again.status).toBe(409);
-    expect(again.body.detail).toBe(`Upload ${id} is failed; only a queued or running import can be cancelled.`);
+    expect(again.body.detail).toBe(
+      `Upload ${id} is cancelled; only an import that is queued, running or awaiting a choice can be cancelled.`,
+    );
 
     // A worker now takes the job, finds the upload cancelled and leaves it so.
     await registerQueues(boss, { logger: pino({ level: 'silent' }), concurrency: 1, databaseUrl: server.databaseUrl });
@@ -129,7 +131,7 @@ describe('cancelling an import', () => {
     const until = Date.now() + 30_000;
     while ((await jobState()) !== 'completed' && Date.now() < until) await new Promise((resolve) => setTimeout(resolve, 100));
     expect(await jobState()).toBe('completed');
-    expect((await waitForImport(server.url, steward, id)).upload.status).toBe('failed');
+    expect((await waitForImport(server.url, steward, id)).upload.status).toBe('cancelled');
     expect(await storedFor(id)).toBe(0);
   });
 
@@ -152,7 +154,7 @@ describe('cancelling an import', () => {
     while (existsSync(path) && Date.now() < until) await new Promise((resolve) => setTimeout(resolve, 100));
     expect(existsSync(path)).toBe(false);
     const detail = await waitForImport(server.url, steward, id);
-    expect(detail.upload).toMatchObject({ status: 'failed', error: cancelled.body.error });
+    expect(detail.upload).toMatchObject({ status: 'cancelled', error: cancelled.body.error });
     expect(await storedFor(id)).toBe(0);
   });
 

@@ -7,6 +7,7 @@ import { forecastRoutes } from './forecasts/forecast-routes';
 import { hierarchyRoutes } from './forecasts/hierarchy-routes';
 import { temperatureScenarioRoutes } from './forecasts/temperature-scenario-routes';
 import { healthRoutes } from './health/health-routes';
+import { repeatedHourRoutes } from './intake/repeated-hour-routes';
 import { uploadRoutes } from './intake/upload-routes';
 import { buildOpenApiDocument } from './http/openapi';
 import { defineRoute, type RouteDefinition } from './http/route-table';
@@ -39,7 +40,7 @@ export function apiRoutes(context: AppContext): RouteDefinition[] {
   routes.push(...modelRoutes(context), ...refitRoutes(context));
   routes.push(...seriesRoutes(context), ...readingsRoutes(context));
   routes.push(...temperatureForecastRoutes(context));
-  routes.push(...uploadRoutes(context));
+  routes.push(...uploadRoutes(context), ...repeatedHourRoutes(context));
   routes.push(...organisationRoutes(context));
   routes.push(...missesRoutes(context));
   routes.push(...accuracyRoutes(context));

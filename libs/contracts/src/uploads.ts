@@ -9,9 +9,13 @@
  *   2. POST /api/uploads/:id/mapping with `ConfirmUploadRequest` → the upload, now `queued`; a 400
  *      problem names the column when the mapping does not fit the file.
  *   3. Poll GET /api/uploads/:id → `UploadDetail` (status, `progress` 0–100, counts, report) until
- *      `status` is `done` or `failed`; `failed` carries one message naming the row and column.
+ *      `status` is `done`, `failed`, `cancelled` or `awaiting_choice`; `failed` carries one message
+ *      naming the row and column. `awaiting_choice` lists in `repeatedHours` the repeated
+ *      daylight-saving hours the file's order cannot place, with their readings; the steward answers
+ *      with POST /api/uploads/:id/repeated-hours (`RepeatedHourChoicesRequest`) and the import resumes.
  *   4. GET /api/uploads/:id/report.csv downloads every finding (spreadsheet-safe).
- *   DELETE /api/uploads/:id discards an upload still awaiting its mapping (204).
+ *   DELETE /api/uploads/:id discards an upload still awaiting its mapping (204); POST
+ *   /api/uploads/:id/cancel stops one that is queued, importing or awaiting a choice (`cancelled`).
  */
 import { z } from 'zod';
 import { digitsSchema, int4Max } from './input';
@@ -20,9 +24,11 @@ import { timeZoneSchema, timestampsMarks } from './series';
 /**
  * Where an upload stands: `received` (stored and previewed, awaiting its mapping), `queued` (mapping
  * confirmed, import job waiting), `importing`, `done` (every usable row landed), `failed` (nothing
- * landed; `error` says why, naming the row and column).
+ * landed; `error` says why, naming the row and column), `cancelled` (a steward stopped it; nothing
+ * landed; `error` says who), `awaiting_choice` (the import stopped before storing anything to ask how
+ * to read repeated daylight-saving hours its file's order cannot place).
  */
-export const uploadStatuses = ['received', 'queued', 'importing', 'done', 'failed'] as const;
+export const uploadStatuses = ['received', 'queued', 'importing', 'done', 'failed', 'cancelled', 'awaiting_choice'] as const;
 export type UploadStatus = (typeof uploadStatuses)[number];
 
 /**
@@ -35,12 +41,57 @@ export type UploadUnit = (typeof uploadUnits)[number];
 /**
  * What to do with a local time that occurs twice (the repeated hour when clocks fall back):
  * `by-order` (proposed) places the two readings of a repeated time by their order in the file when the
- * series' rows are in time order (the first is daylight time, the second standard time) and drops
- * the readings it cannot place, saying why (a single reading at a repeated time, or rows out of
- * order); `first-is-daylight` takes the first occurrence as daylight time and any later one as
+ * series' rows are in time order (the first is daylight time, the second standard time); when order
+ * cannot decide (a single reading at a repeated time, or rows out of order) the import stops before
+ * storing anything and asks the steward (status `awaiting_choice`); `first-is-daylight` takes the first occurrence as daylight time and any later one as
  * standard time whatever the order; `reject` drops every reading at a repeated time.
  */
 export const repeatedHourPolicies = ['by-order', 'first-is-daylight', 'reject'] as const;
+
+/**
+ * The steward's answer for one repeated hour the file's order cannot place: the reading first in the
+ * file is daylight time (and a second one standard time), the second is daylight time (the first is
+ * standard time; a lone reading is standard time), or drop the hour's readings.
+ */
+export const repeatedHourChoiceKinds = ['first-is-daylight', 'second-is-daylight', 'drop'] as const;
+export type RepeatedHourChoiceKind = (typeof repeatedHourChoiceKinds)[number];
+
+/** A repeated local time of one series, as findings and questions write it: 2026-11-01 01:00. */
+const localWallClockSchema = z.string().regex(/^\d{4}-\d{2}-\d{2} \d{2}:\d{2}$/, 'Give the local time as YYYY-MM-DD HH:MM');
+
+/** One answered repeated hour. */
+export const repeatedHourChoiceSchema = z.object({
+  seriesKey: z.string().min(1).max(200),
+  local: localWallClockSchema,
+  choice: z.enum(repeatedHourChoiceKinds),
+});
+export type RepeatedHourChoice = z.infer<typeof repeatedHourChoiceSchema>;
+
+/** Most repeated hours one upload may ask about (a file with more should be sorted or carry UTC offsets). */
+export const maxRepeatedHourQuestions = 500;
+
+/** A repeated hour the import could not place by order, with the readings the file holds at that time. */
+export const repeatedHourQuestionSchema = z.object({
+  seriesKey: z.string(),
+  /** Local wall-clock time that occurs twice, and its zone. */
+  local: z.string(),
+  timeZone: z.string(),
+  /** Why order cannot decide: the series' rows are not in time order, or the file holds one reading at that time. */
+  reason: z.enum(['rows-out-of-order', 'single-reading']),
+  /** Interval starts (UTC) of the reading as daylight time and as standard time. */
+  daylightStart: z.iso.datetime(),
+  standardStart: z.iso.datetime(),
+  /** The readings at that time in file order (values in the series' unit). */
+  readings: z.array(z.object({ sourceRow: z.number().int(), value: z.number() })),
+  unit: z.string(),
+});
+export type RepeatedHourQuestion = z.infer<typeof repeatedHourQuestionSchema>;
+
+/** POST /api/uploads/:id/repeated-hours: one choice for every repeated hour the upload asks about. */
+export const repeatedHourChoicesRequestSchema = z.object({
+  choices: z.array(repeatedHourChoiceSchema).min(1, 'Choose for each repeated hour').max(maxRepeatedHourQuestions),
+});
+export type RepeatedHourChoicesRequest = z.infer<typeof repeatedHourChoicesRequestSchema>;
 
 /** How to read a slashed date such as 3/9/2026: month first (US) or day first. */
 export const slashDateOrders = ['month-first', 'day-first'] as const;
@@ -65,6 +116,7 @@ export const validationRules = [
   'estimated',
   'dst_resolved',
   'partial_interval',
+  'mixed_interval',
 ] as const;
 export type ValidationRule = (typeof validationRules)[number];
 
@@ -81,14 +133,18 @@ export const validationRuleDescriptions: Record<ValidationRule, string> = {
   duplicate_conflict: 'The same instant twice with different values (the first kept, the other dropped)',
   off_grid: "Timestamp off the series' interval grid (dropped)",
   future: 'Reading after the time of the import (dropped)',
-  dst_repeated_hour: 'Local time in the repeated daylight-saving hour that could not be placed (dropped; the detail says why)',
+  dst_repeated_hour:
+    'Local time in the repeated daylight-saving hour that was not stored (the upload rejects repeated hours, or the steward chose to drop it; the detail says which)',
   dst_missing_hour: 'Local time that does not exist (skipped by the spring-forward change; dropped)',
   unparseable: 'A cell that holds no reading (a marker such as NaN or NA): no reading stored for it',
   unknown_series: 'Series key not in the catalogue (row dropped)',
   estimated: 'An estimate was stored (method in the detail)',
-  dst_resolved: 'A reading in the repeated daylight-saving hour placed by its order in the file (daylight time first, then standard time)',
+  dst_resolved:
+    "A reading in the repeated daylight-saving hour placed by its order in the file (daylight time first, then standard time) or by the steward's choice",
   partial_interval:
     "Readings of a series interval the file covers only in part (the file's finer readings are combined only when every one is there; dropped)",
+  mixed_interval:
+    "Steps between a series' readings at another interval than the file's (shorter, or no whole multiple of it): the file mixes intervals, and readings off the series' grid are dropped; one finding per series, with the steps seen",
 };
 
 /**
@@ -112,6 +168,7 @@ export const validationRuleSeverity: Record<ValidationRule, 'defect' | 'informat
   estimated: 'information',
   dst_resolved: 'information',
   partial_interval: 'defect',
+  mixed_interval: 'defect',
 };
 
 /** Field separators Loadwright detects. */
@@ -139,8 +196,13 @@ export const uploadLayoutSchema = z.object({
   slashDateOrder: z.enum(slashDateOrders).nullable().optional(),
   /** Whether the first rows write midnight as 24:00 of the day before, as files stamped at interval ends do. */
   endOfDayStamps: z.boolean().optional(),
-  /** Minutes between consecutive timestamps in the first rows (the most common step); null when undecided. */
+  /** Minutes between consecutive timestamps (the most common step in windows spread through the file); null when undecided. */
   intervalMinutes: z.number().int().positive().nullable().optional(),
+  /**
+   * Other intervals the file's steps show beside `intervalMinutes` (shorter steps, or steps that are no
+   * whole multiple of it), with their share of the sampled steps; empty unless they make up 5 % or more.
+   */
+  mixedIntervals: z.array(z.object({ minutes: z.number().int().positive(), share: z.number().min(0).max(1) })).optional(),
 });
 export type UploadLayout = z.infer<typeof uploadLayoutSchema>;
 
@@ -204,6 +266,8 @@ export const uploadSettingsSchema = z.object({
    * their mean. Null or absent: the step seen in the file's first rows, else the series' interval.
    */
   fileIntervalMinutes: z.number().int().min(1).max(1440).nullable().optional(),
+  /** The steward's answers for repeated hours the file's order cannot place (policy `by-order`). */
+  repeatedHourChoices: z.array(repeatedHourChoiceSchema).max(maxRepeatedHourQuestions).optional(),
 });
 export type UploadSettings = z.infer<typeof uploadSettingsSchema>;
 
@@ -288,6 +352,8 @@ export const uploadDetailSchema = z.object({
   layout: uploadLayoutSchema.nullable(),
   preview: uploadPreviewSchema.nullable(),
   proposal: uploadProposalSchema.nullable(),
+  /** While `awaiting_choice`: the repeated hours to choose for; empty otherwise. */
+  repeatedHours: z.array(repeatedHourQuestionSchema),
 });
 export type UploadDetail = z.infer<typeof uploadDetailSchema>;
 

@@ -12,3 +12,5 @@ export * from './time-zone-offset';
 export * from './upload-store';
 export * from './temperature-forecast-file';
 export { UploadRejection } from './upload-rejection';
+export * from './repeated-hour-choices';
+export * from './import-stages';

@@ -122,6 +122,13 @@ export function proposeMapping(
         : `The file holds one reading every ${every(fileMinutes)} and series "${entry.key}" one every ${every(entry.intervalMinutes)}: each of its intervals is stored as the mean demand of the file's readings in it, and an interval the file covers only in part is left out and reported.`,
     );
   }
+  const mixed = layout.mixedIntervals ?? [];
+  if (fileMinutes !== null && mixed.length > 0) {
+    const others = mixed.map((other) => `every ${every(other.minutes)} in ${percent(other.share)}`).join(', ');
+    notes.push(
+      `The file mixes intervals: most readings come one every ${every(fileMinutes)}, but ${others} of the steps between them. Loadwright reads it as one reading every ${every(fileMinutes)}, and the import reports each series' steps at other intervals; check the file's interval.`,
+    );
+  }
   return {
     mapping,
     settings: {
@@ -150,4 +157,9 @@ export function unitFromName(name: string): UploadUnit | null {
   if (/°c|\bdegc\b|celsius|_c\b/.test(lower)) return 'degC';
   if (/\bw\b|_w\b|watts?\b/.test(lower)) return 'W';
   return null;
+}
+
+/** A share as a whole percent, never "0 %" for a share above zero. */
+function percent(share: number): string {
+  return `${Math.max(1, Math.round(share * 100))} %`;
 }

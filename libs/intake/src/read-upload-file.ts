@@ -8,7 +8,8 @@
  * Local times: a spring-forward time that does not exist drops its reading with a finding. A time
  * that occurs twice when clocks fall back is placed by the repeated-hour policy; under `by-order`
  * the two readings of a series at that time are placed by their order in the file (daylight time
- * first) when the series' rows are in time order, and dropped with the reason otherwise. A day with
+ * first) when the series' rows are in time order; otherwise the steward's choice for that hour is
+ * applied, and without one the hour becomes a question the import stops to ask. A day with
  * an hour's readings too many in a zone that never changes its clocks refuses the file: its times
  * were written in another zone.
  *
@@ -19,7 +20,7 @@
  */
 import { stat } from 'node:fs/promises';
 import { qualityFlag } from '@loadwright/db';
-import type { UploadLayout, UploadUnit } from '@loadwright/contracts';
+import type { RepeatedHourChoiceKind, RepeatedHourQuestion, UploadLayout, UploadUnit } from '@loadwright/contracts';
 import type { CatalogueEntry } from './catalogue-entry';
 import { combineIntervals } from './combine-intervals';
 import { csvRecords } from './csv/record-source';
@@ -55,6 +56,8 @@ export interface FileReadings {
   rows: number;
   /** Readings dropped while reading. */
   rejected: number;
+  /** Repeated hours neither file order nor a choice of the steward places (policy `by-order`): nothing may be stored until answered. */
+  questions: RepeatedHourQuestion[];
 }
 
 /** A reading in a repeated local hour, held until the whole file is read (policy `by-order`). */
@@ -80,6 +83,10 @@ interface SeriesRoute {
   held: HeldReading[];
   /** Local-time readings per local day, kept only in zones that never change their clocks. */
   perDay: Map<number, { count: number; line: number }> | null;
+  /** Instant of the series' previous reading, and the steps since seen at other intervals than the file's. */
+  lastMs: number;
+  otherSteps: Map<number, number>;
+  firstOtherLine: number;
 }
 
 /** Reads the file at `path` following the plan; `onProgress` hears the fraction of bytes read. */
@@ -121,6 +128,9 @@ export async function readUploadFile(
       outOfOrder: false,
       held: [],
       perDay: zoneKeepsOneOffset ? new Map() : null,
+      lastMs: Number.NaN,
+      otherSteps: new Map(),
+      firstOtherLine: 0,
     };
     routes.set(series.id, route);
     return route;
@@ -297,6 +307,10 @@ export async function readUploadFile(
       rejected++;
       return;
     }
+    if (at.ms !== route.lastMs) {
+      noteStep(route, Math.abs(at.ms - route.lastMs), line);
+      route.lastMs = at.ms;
+    }
     route.intake.readings.push(at.ms, value, line, at.flags);
   };
 
@@ -346,9 +360,14 @@ export async function readUploadFile(
     await onProgress?.(bytes / size, rows);
   }
 
+  const choices = new Map<string, RepeatedHourChoiceKind>();
+  for (const { seriesKey, local, choice } of settings.repeatedHourChoices ?? [])
+    choices.set(choiceKey(plan.seriesByKey.find(seriesKey)?.key ?? seriesKey, local), choice);
+  const questions: RepeatedHourQuestion[] = [];
   for (const route of routes.values()) {
+    reportOtherSteps(route, findings);
     refuseLongDays(route, settings.timeZone);
-    rejected += placeHeld(route, settings.timeZone, findings, startOf);
+    rejected += placeHeld(route, settings.timeZone, { findings, choices, questions }, startOf);
     if (route.readingMinutes < route.grid.intervalMinutes) {
       const combined = combineIntervals(route.intake.readings, route.intake.series.id, route.grid, route.readingMinutes);
       route.intake.readings = combined.readings;
@@ -357,19 +376,37 @@ export async function readUploadFile(
     }
   }
   await onProgress?.(1, rows);
-  return { bySeries, findings, rows, rejected };
+  return { bySeries, findings, rows, rejected, questions };
+}
+
+/** How a choice is looked up: the catalogue's series key and the local time. */
+function choiceKey(seriesKey: string, local: string): string {
+  return `${seriesKey}\u0000${local}`;
+}
+
+/** Where placing the held readings reports to: findings, the steward's choices, and the questions still open. */
+interface Placement {
+  findings: Finding[];
+  choices: ReadonlyMap<string, RepeatedHourChoiceKind>;
+  questions: RepeatedHourQuestion[];
 }
 
 /**
- * Places the held readings of repeated local hours by their order in the file (policy `by-order`):
- * of two readings at one repeated time the first is daylight time and the second standard time;
- * a third is kept as a repeat of the second (and collapsed as a duplicate later). A time held only
- * once, or any held time when the series' rows are out of time order, is dropped with the reason.
- * Returns the readings dropped.
+ * Places the held readings of repeated local hours (policy `by-order`): of two readings at one
+ * repeated time the first in the file is daylight time and the second standard time; a third is kept
+ * as a repeat of the second (and collapsed as a duplicate later). When order cannot decide (a time
+ * held only once, or the series' rows out of time order) the steward's choice for that hour places or
+ * drops it; without a choice the hour becomes a question and its readings wait. Returns the readings
+ * dropped.
  */
-function placeHeld(route: SeriesRoute, timeZone: string, findings: Finding[], startOf: (route: SeriesRoute, ms: number) => number): number {
+function placeHeld(
+  route: SeriesRoute,
+  timeZone: string,
+  { findings, choices, questions }: Placement,
+  startOf: (route: SeriesRoute, ms: number) => number,
+): number {
   if (route.held.length === 0) return 0;
-  const seriesId = route.intake.series.id;
+  const { id: seriesId, key: seriesKey, unit } = route.intake.series;
   const byWall = new Map<number, HeldReading[]>();
   for (const reading of route.held) {
     const group = byWall.get(reading.wallMs);
@@ -380,7 +417,23 @@ function placeHeld(route: SeriesRoute, timeZone: string, findings: Finding[], st
   const placed: Array<{ ms: number; reading: HeldReading }> = [];
   for (const [wallMs, group] of byWall) {
     const local = localText(wallMs);
-    if (route.outOfOrder || group.length === 1) {
+    const [daylight, standard] = instantsForWallClock(timeZone, wallMs) as [number, number];
+    const decidedByOrder = !route.outOfOrder && group.length > 1;
+    const choice = decidedByOrder ? 'first-is-daylight' : choices.get(choiceKey(seriesKey, local));
+    if (choice === undefined) {
+      questions.push({
+        seriesKey,
+        local,
+        timeZone,
+        reason: route.outOfOrder ? 'rows-out-of-order' : 'single-reading',
+        daylightStart: new Date(startOf(route, daylight)).toISOString(),
+        standardStart: new Date(startOf(route, standard)).toISOString(),
+        readings: group.map((reading) => ({ sourceRow: reading.line, value: reading.value })),
+        unit,
+      });
+      continue;
+    }
+    if (choice === 'drop') {
       for (const reading of group) {
         dropped++;
         findings.push({
@@ -389,20 +442,18 @@ function placeHeld(route: SeriesRoute, timeZone: string, findings: Finding[], st
           tsMs: null,
           value: reading.value,
           sourceRow: reading.line,
-          detail: {
-            local,
-            timeZone,
-            resolution: route.outOfOrder
-              ? 'dropped: the rows are not in time order, so their order cannot tell daylight from standard time; sort the file or give times with a UTC offset'
-              : 'dropped: the file holds one reading at a time that occurs twice, so it cannot tell daylight from standard time; give times with a UTC offset',
-          },
+          detail: { local, timeZone, resolution: 'dropped, as the steward chose' },
         });
       }
       continue;
     }
-    const [daylight, standard] = instantsForWallClock(timeZone, wallMs) as [number, number];
+    // The reading that is daylight time comes first in the file unless the steward said it is the second.
+    const daylightIndex = choice === 'first-is-daylight' ? 0 : 1;
     group.forEach((reading, k) => {
-      const ms = k === 0 ? daylight : standard;
+      const isDaylight = k === daylightIndex;
+      const ms = isDaylight ? daylight : standard;
+      const position = `${k === 0 ? 'first' : 'second'} in the file`;
+      const why = decidedByOrder ? position : group.length === 1 ? 'as the steward chose' : `${position}, as the steward chose`;
       placed.push({ ms, reading });
       findings.push({
         rule: 'dst_resolved',
@@ -410,7 +461,11 @@ function placeHeld(route: SeriesRoute, timeZone: string, findings: Finding[], st
         tsMs: ms,
         value: reading.value,
         sourceRow: reading.line,
-        detail: { local, timeZone, resolution: k === 0 ? 'daylight time (first in the file)' : 'standard time (second in the file)' },
+        detail: {
+          local,
+          timeZone,
+          resolution: `${isDaylight ? 'daylight' : 'standard'} time (${why})`,
+        },
       });
     });
   }
@@ -418,6 +473,36 @@ function placeHeld(route: SeriesRoute, timeZone: string, findings: Finding[], st
   for (const { ms, reading } of placed)
     route.intake.readings.push(startOf(route, ms), reading.value, reading.line, qualityFlag.dstAmbiguous);
   return dropped;
+}
+
+/** Counts a step between two of a series' readings that is shorter than the file's interval or no whole multiple of it (a longer multiple is a gap). */
+function noteStep(route: SeriesRoute, stepMs: number, line: number): void {
+  const intervalMs = route.readingMinutes * 60_000;
+  if (Number.isNaN(stepMs) || (stepMs >= intervalMs && stepMs % intervalMs === 0)) return; // NaN: the series' first reading
+  const minutes = Math.round(stepMs / 60_000);
+  route.otherSteps.set(minutes, (route.otherSteps.get(minutes) ?? 0) + 1);
+  if (route.firstOtherLine === 0) route.firstOtherLine = line;
+}
+
+/** One finding per series whose readings mix intervals: the steps seen, most common first, and the first row. */
+function reportOtherSteps(route: SeriesRoute, findings: Finding[]): void {
+  if (route.otherSteps.size === 0) return;
+  const steps = [...route.otherSteps].sort((a, b) => b[1] - a[1] || a[0] - b[0]);
+  findings.push({
+    rule: 'mixed_interval',
+    seriesId: route.intake.series.id,
+    tsMs: null,
+    value: null,
+    sourceRow: route.firstOtherLine,
+    detail: {
+      fileIntervalMinutes: route.readingMinutes,
+      otherSteps: steps
+        .slice(0, 5)
+        .map(([minutes, count]) => `${minutes} min × ${count}`)
+        .join(', '),
+      count: steps.reduce((sum, [, count]) => sum + count, 0),
+    },
+  });
 }
 
 /**

@@ -1,5 +1,5 @@
 /** Reading uploads and their findings for the API: list, one upload with its report, findings page by page. */
-import { and, count, desc, eq, sql } from 'drizzle-orm';
+import { and, count, desc, eq, notInArray, sql } from 'drizzle-orm';
 import {
   validationRuleDescriptions,
   validationRuleSeverity,
@@ -123,11 +123,11 @@ export async function* allFindings(db: Database, uploadId: number, pageSize = 50
   }
 }
 
-/** The upload that already holds these bytes (any status but failed), if any. */
+/** The upload that already holds these bytes (any status but failed or cancelled), if any. */
 export async function uploadWithContent(db: Database, sha256: string): Promise<number | null> {
   const [row] = await db
     .select({ id: uploads.id })
     .from(uploads)
-    .where(and(eq(uploads.contentSha256, sha256), sql`${uploads.status} <> 'failed'`));
+    .where(and(eq(uploads.contentSha256, sha256), notInArray(uploads.status, ['failed', 'cancelled'])));
   return row?.id ?? null;
 }

@@ -5,7 +5,7 @@
  * upload that already landed, and the answer says so.
  */
 import { createHash } from 'node:crypto';
-import { and, eq, ne } from 'drizzle-orm';
+import { and, eq, notInArray } from 'drizzle-orm';
 import type { ImportResult, SeriesUnit, TimestampsMark, UploadMapping, UploadSettings } from '@loadwright/contracts';
 import { uploads, type Database, type Series, type UploadSource } from '@loadwright/db';
 import type { Actor } from '@loadwright/audit';
@@ -157,12 +157,12 @@ function uploadRecordOf(batch: ReadingBatch): { mapping: UploadMapping; settings
 
 type LandedUpload = Pick<typeof uploads.$inferSelect, 'id' | 'rowsTotal'>;
 
-/** The upload that already holds this content, unless it failed. */
+/** The upload that already holds this content, unless it failed or was cancelled. */
 async function findLanded(db: Database, contentSha256: string): Promise<LandedUpload | undefined> {
   const [row] = await db
     .select({ id: uploads.id, rowsTotal: uploads.rowsTotal })
     .from(uploads)
-    .where(and(eq(uploads.contentSha256, contentSha256), ne(uploads.status, 'failed')));
+    .where(and(eq(uploads.contentSha256, contentSha256), notInArray(uploads.status, ['failed', 'cancelled'])));
   return row;
 }
 

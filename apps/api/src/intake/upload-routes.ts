@@ -16,6 +16,7 @@ import {
   uploadPageSchema,
   uploadReceiptSchema,
   uploadSchema,
+  type RepeatedHourQuestion,
   type UploadDetail,
   type UploadMapping,
   type UploadSettings,
@@ -106,15 +107,20 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
     const upload = await findUpload(db, id);
     if (!upload) throw new HttpProblem('notFound', `No upload with id ${id}.`);
     const report = await uploadReport(db, id);
-    const empty = { layout: null, preview: null, proposal: null };
+    const [row] = await db
+      .select({ path: uploads.storagePath, questions: uploads.repeatedHourQuestions })
+      .from(uploads)
+      .where(eq(uploads.id, id));
+    const repeatedHours = upload.status === 'awaiting_choice' ? ((row?.questions ?? []) as unknown as RepeatedHourQuestion[]) : [];
+    const empty = { layout: null, preview: null, proposal: null, repeatedHours };
     if (upload.status !== 'received') return { upload, report, ...empty };
-    const [row] = await db.select({ path: uploads.storagePath }).from(uploads).where(eq(uploads.id, id));
     const sniffed = row?.path ? await sniffFile(row.path).catch(() => null) : null;
     if (!sniffed?.ok) return { upload, report, ...empty };
     const catalogue = await loadCatalogue(db);
     return {
       upload,
       report,
+      repeatedHours,
       layout: sniffed.layout,
       preview: sniffed.preview,
       proposal: proposeMapping(sniffed.layout, sniffed.preview, catalogue),
@@ -285,7 +291,8 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
       path: '/uploads/:id/cancel',
       access: 'data.upload',
       tag,
-      summary: 'Cancel an import that is queued or running: it ends failed, saying who cancelled it, and stores nothing',
+      summary:
+        'Cancel an import that is queued, running or awaiting a choice: it ends cancelled, saying who cancelled it, and stores nothing',
       params: idParams,
       response: uploadSchema,
       handler: async ({ params, actor, req }) => {
@@ -297,7 +304,7 @@ export function uploadRoutes(context: AppContext): RouteDefinition[] {
             'conflict',
             outcome.status === 'received'
               ? `Upload ${params.id} awaits its mapping; discard it instead.`
-              : `Upload ${params.id} is ${outcome.status}; only a queued or running import can be cancelled.`,
+              : `Upload ${params.id} is ${outcome.status}; only an import that is queued, running or awaiting a choice can be cancelled.`,
           );
         return (await findUpload(db, params.id))!;
       },

@@ -14,9 +14,14 @@ export const uploadContent = pgEnum('upload_content', ['actuals', 'temperature_f
 
 /**
  * Where an upload stands: received (stored, previewed), queued (mapping confirmed), importing (job
- * running), done (all rows landed), failed (nothing landed; the error says why).
+ * running), done (all rows landed), failed (nothing landed; the error says why), cancelled (a steward
+ * stopped it; nothing landed), awaiting_choice (the import stopped before writing to ask the steward
+ * how to read repeated daylight-saving hours its file order cannot decide).
  */
-export const uploadStatus = pgEnum('upload_status', ['received', 'queued', 'importing', 'done', 'failed']);
+export const uploadStatus = pgEnum('upload_status', ['received', 'queued', 'importing', 'done', 'failed', 'cancelled', 'awaiting_choice']);
+
+/** A repeated local hour the import could not place, as the steward is asked about it (shape owned by the intake contracts). */
+export type RepeatedHourQuestion = Record<string, unknown>;
 
 /** Column mapping confirmed by the steward (shape owned by the intake contracts). */
 export type UploadMapping = Record<string, unknown>;
@@ -53,15 +58,20 @@ export const uploads = pgTable(
     /** Fraction done, 0 to 1, for the progress bar. */
     progress: doublePrecision('progress').notNull().default(0),
     error: text('error'),
+    /** While awaiting_choice: the repeated hours the steward is asked about, with their readings. */
+    repeatedHourQuestions: jsonb('repeated_hour_questions').$type<RepeatedHourQuestion[]>(),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
     startedAt: instant('started_at'),
     finishedAt: instant('finished_at'),
   },
   (t) => [
+    // The statuses that hold a file's bytes, named among the enum's first values: PostgreSQL refuses a
+    // value added by ALTER TYPE in the migration transaction that adds it. An upload awaiting a choice
+    // came from a received one, so the duplicate check in uploadWithContent covers it.
     uniqueIndex('uploads_content_sha256_key')
       .on(t.contentSha256)
-      .where(sql`${t.status} <> 'failed'`),
+      .where(sql`${t.status} in ('received', 'queued', 'importing', 'done')`),
     index('uploads_created_at_idx').on(t.createdAt.desc()),
     index('uploads_status_idx').on(t.status),
     check('uploads_progress_check', sql`${t.progress} between 0 and 1`),

@@ -19,6 +19,7 @@ describe('sniffBytesOf', () => {
         endOfDayStamps: false,
         // Two rows an hour apart.
         intervalMinutes: 60,
+        mixedIntervals: [],
       },
       preview: {
         columns: ['Zeit', 'Zähler', 'kW'],

@@ -1,11 +1,13 @@
 /**
  * First look at an uploaded file (its first 64 KiB): is it text in an encoding Loadwright reads, which
  * delimiter separates its fields, does it start with a header row, and what do its first rows hold.
+ * The interval between readings is judged from windows spread through the whole file (interval-steps.ts).
  * A file that cannot be read gets one sentence saying why and what to do instead.
  */
 import { open } from 'node:fs/promises';
 import { parse } from 'csv-parse/sync';
 import type { UploadLayout, UploadPreview } from '@loadwright/contracts';
+import { countSteps, judgeInterval, sampleSteps, type StepCounts, type StepSampling } from './interval-steps';
 import { parseTimestamp, slashedDateFields } from './parse-timestamp';
 
 /** Bytes read for the first look. */
@@ -16,6 +18,9 @@ export const previewRows = 20;
 
 /** The outcome of a first look. */
 export type SniffResult = { ok: true; layout: UploadLayout; preview: UploadPreview } | { ok: false; message: string };
+
+/** How to read timestamps further into the file (UTF-8 only), with the steps of its first rows. */
+type StepsSoFar = StepSampling & { steps: StepCounts };
 
 /** Magic numbers of formats people send instead of CSV. */
 const knownBinaries: Array<{ bytes: number[]; name: string }> = [
@@ -36,7 +41,13 @@ export async function sniffFile(path: string): Promise<SniffResult> {
     const buffer = Buffer.alloc(sniffBytes);
     const { bytesRead } = await handle.read(buffer, 0, sniffBytes, 0);
     const stat = await handle.stat();
-    return sniffBytesOf(buffer.subarray(0, bytesRead), bytesRead >= stat.size);
+    const { result, sampling } = firstLook(buffer.subarray(0, bytesRead), bytesRead >= stat.size);
+    if (!result.ok || !sampling || bytesRead >= stat.size) return result;
+    // The first rows may start irregularly: judge the interval by steps seen through the whole file.
+    const { steps, ...how } = sampling;
+    const spread = await sampleSteps(handle, stat.size, bytesRead, how);
+    for (const [minutes, count] of steps) spread.set(minutes, (spread.get(minutes) ?? 0) + count);
+    return { ...result, layout: { ...result.layout, ...intervalFacts(spread) } };
   } finally {
     await handle.close();
   }
@@ -44,6 +55,18 @@ export async function sniffFile(path: string): Promise<SniffResult> {
 
 /** Looks at the first bytes of a file; `whole` says whether they are the entire file. Pure. */
 export function sniffBytesOf(bytes: Buffer, whole: boolean): SniffResult {
+  return firstLook(bytes, whole).result;
+}
+
+/** The first look, and how to sample timestamps further into the file. */
+function firstLook(bytes: Buffer, whole: boolean): { result: SniffResult; sampling: StepsSoFar | null } {
+  const refuse = (result: SniffResult) => ({ result, sampling: null });
+  const looked = readHead(bytes, whole);
+  return 'result' in looked ? looked : refuse(looked);
+}
+
+/** The first look proper: a refusal, or the result with its sampling. */
+function readHead(bytes: Buffer, whole: boolean): SniffResult | { result: SniffResult; sampling: StepsSoFar | null } {
   if (bytes.length === 0) return { ok: false, message: 'The file is empty.' };
   for (const known of knownBinaries) {
     if (known.bytes.every((byte, i) => bytes[i] === byte))
@@ -107,7 +130,8 @@ export function sniffBytesOf(bytes: Buffer, whole: boolean): SniffResult {
   const slashDateOrder = slashOrderOf(sample);
   const dayFirst = slashDateOrder === 'day-first';
   const stamps = rows.flatMap((row) => row.map((cell) => parseTimestamp(cell, dayFirst)).filter((stamp) => stamp !== null));
-  return {
+  const head = headSteps(sample, dayFirst);
+  const result: SniffResult = {
     ok: true,
     layout: {
       encoding,
@@ -120,9 +144,14 @@ export function sniffBytesOf(bytes: Buffer, whole: boolean): SniffResult {
       endOfDayStamps: sample.some((row) =>
         row.some((cell) => /(?:^|[T\s])24:00(?::00)?$/.test(cell.trim()) && parseTimestamp(cell, dayFirst)),
       ),
-      intervalMinutes: intervalOf(sample, dayFirst),
+      ...intervalFacts(head?.steps ?? new Map()),
     },
     preview: { columns, rows },
+  };
+  return {
+    result,
+    sampling:
+      head && encoding === 'utf-8' ? { delimiter: delimiter.value, timestampColumn: head.column, dayFirst, steps: head.steps } : null,
   };
 }
 
@@ -139,10 +168,10 @@ function slashOrderOf(sample: readonly string[][]): UploadLayout['slashDateOrder
 }
 
 /**
- * Minutes between readings in the sampled rows: the most common step between consecutive distinct
- * times of the first column that holds timestamps only (so one stray time or a gap does not decide).
+ * Steps between consecutive distinct times in the first rows, in the first column that holds
+ * timestamps only; null when no column does.
  */
-function intervalOf(sample: readonly string[][], dayFirst: boolean): number | null {
+function headSteps(sample: readonly string[][], dayFirst: boolean): { column: number; steps: StepCounts } | null {
   const width = sample[0]?.length ?? 0;
   for (let column = 0; column < width; column++) {
     const times: number[] = [];
@@ -158,19 +187,15 @@ function intervalOf(sample: readonly string[][], dayFirst: boolean): number | nu
       times.push(stamp.kind === 'instant' ? stamp.ms : stamp.wallMs);
     }
     if (!all || times.length < 2) continue;
-    const distinct = [...new Set(times)].sort((a, b) => a - b);
-    const steps = new Map<number, number>();
-    for (let i = 1; i < distinct.length; i++) {
-      const minutes = (distinct[i]! - distinct[i - 1]!) / 60_000;
-      if (Number.isInteger(minutes)) steps.set(minutes, (steps.get(minutes) ?? 0) + 1);
-    }
-    let best: number | null = null;
-    for (const [minutes, count] of steps)
-      if (best === null || count > steps.get(best)! || (count === steps.get(best)! && minutes < best)) best = minutes;
-    // A step longer than a day is a gap or a stray date, not an interval.
-    return best !== null && best <= 1440 ? best : null;
+    return { column, steps: countSteps(times) };
   }
   return null;
+}
+
+/** The layout's interval facts from step counts. */
+function intervalFacts(steps: StepCounts): Pick<UploadLayout, 'intervalMinutes' | 'mixedIntervals'> {
+  const judged = judgeInterval(steps);
+  return { intervalMinutes: judged.intervalMinutes, mixedIntervals: judged.mixed ? judged.otherIntervals : [] };
 }
 
 /** The refusal for XML or HTML text, naming the Green Button import for ESPI files; null for other text. */

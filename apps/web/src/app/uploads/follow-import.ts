@@ -1,16 +1,16 @@
 import type { UploadDetail, UploadStatus } from '@loadwright/contracts';
 import { type Observable, type SchedulerLike, switchMap, takeWhile, timer } from 'rxjs';
 
-/** Statuses after which an upload no longer changes. */
-const finalStatuses: readonly UploadStatus[] = ['done', 'failed'];
+/** Statuses after which an upload no longer changes by itself (one awaiting a choice waits for the steward). */
+const finalStatuses: readonly UploadStatus[] = ['done', 'failed', 'cancelled', 'awaiting_choice'];
 
-/** True once an upload has finished, well or not. */
+/** True once an upload has finished, well or not, or waits for the steward. */
 export function isFinished(status: UploadStatus): boolean {
   return finalStatuses.includes(status);
 }
 
 /**
- * Polls an upload's detail every `periodMs` (first at once) until its import is done or failed, and
+ * Polls an upload's detail every `periodMs` (first at once) until its import is done, failed or cancelled, or waits for a choice, and
  * emits each answer, the final one included. Unsubscribing (leaving the page) stops the polling; a
  * slow answer is dropped in favour of the next one.
  */

@@ -41,7 +41,7 @@ const unitWords: Record<(typeof uploadUnits)[number], string> = {
 
 /** Words for the repeated-hour policies. */
 const policyWords: Record<(typeof repeatedHourPolicies)[number], string> = {
-  'by-order': 'By file order: first daylight, then standard time',
+  'by-order': 'By file order: first daylight, then standard time; ask me when order cannot tell',
   'first-is-daylight': 'First is daylight, second standard time',
   reject: 'Drop readings in that hour',
 };

@@ -18,6 +18,7 @@ export const ruleNames: Record<ValidationRule, string> = {
   estimated: 'Estimates stored',
   dst_resolved: 'Repeated daylight-saving hour placed by order',
   partial_interval: 'Intervals the file covers only in part',
+  mixed_interval: 'Mixed intervals',
 };
 
 /** Rules that record what Loadwright did rather than something wrong with the file (the contracts' severity). */

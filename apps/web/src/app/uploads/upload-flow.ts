@@ -9,6 +9,7 @@ import type { Subscription } from 'rxjs';
 import { problemMessage } from '../core/problems/api-problem';
 import { followImport, isFinished } from './follow-import';
 import { MappingStep } from './mapping-step';
+import { RepeatedHourChoices } from './repeated-hour-choices';
 import { UploadReport } from './upload-report';
 import { fileSize, statusLooks } from './upload-status';
 import { UploadsClient } from './uploads-client';
@@ -18,12 +19,23 @@ const pollEveryMs = 1000;
 
 /**
  * One upload from mapping to report: the mapping step while it awaits one, a progress bar polled
- * while it imports (polling stops when it finishes or the page is left), then the validation report,
- * or the message of a refused file.
+ * while it imports (polling stops when it finishes or the page is left), the repeated daylight-saving
+ * hours to choose for when the import stopped to ask, then the validation report, or the message of a
+ * refused or cancelled file.
  */
 @Component({
   selector: 'lw-upload-flow',
-  imports: [DatePipe, DecimalPipe, RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule, MappingStep, UploadReport],
+  imports: [
+    DatePipe,
+    DecimalPipe,
+    RouterLink,
+    MatButtonModule,
+    MatIconModule,
+    MatProgressBarModule,
+    MappingStep,
+    RepeatedHourChoices,
+    UploadReport,
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './upload-flow.html',
   styleUrl: './upload-flow.scss',

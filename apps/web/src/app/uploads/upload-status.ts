@@ -7,6 +7,8 @@ export const statusLooks: Record<UploadStatus, { readonly label: string; readonl
   importing: { label: 'Importing', icon: 'sync' },
   done: { label: 'Imported', icon: 'check_circle' },
   failed: { label: 'Refused', icon: 'error' },
+  cancelled: { label: 'Cancelled', icon: 'block' },
+  awaiting_choice: { label: 'Needs your choice', icon: 'warning' },
 };
 
 /** File sizes in B, kB or MB (powers of 1024), to one decimal above a kB. */

@@ -8,7 +8,15 @@ import {
   withXsrfConfiguration,
 } from '@angular/common/http';
 import { EnvironmentInjector, Injectable, createEnvironmentInjector, inject } from '@angular/core';
-import type { ConfirmUploadRequest, GreenButtonImportResult, Upload, UploadDetail, UploadPage, UploadReceipt } from '@loadwright/contracts';
+import type {
+  ConfirmUploadRequest,
+  GreenButtonImportResult,
+  RepeatedHourChoice,
+  Upload,
+  UploadDetail,
+  UploadPage,
+  UploadReceipt,
+} from '@loadwright/contracts';
 import type { Observable } from 'rxjs';
 import { sessionExpiryInterceptor } from '../core/auth/session-expiry-interceptor';
 import { problemInterceptor } from '../core/problems/problem-interceptor';
@@ -45,6 +53,11 @@ export class UploadsClient {
   /** Confirms the mapping and settings; the import job is queued. */
   confirm(id: number, request: ConfirmUploadRequest): Observable<Upload> {
     return this.http.post<Upload>(`/api/uploads/${id}/mapping`, request);
+  }
+
+  /** Answers the repeated daylight-saving hours an import stopped to ask about; the import resumes. */
+  chooseRepeatedHours(id: number, choices: readonly RepeatedHourChoice[]): Observable<Upload> {
+    return this.http.post<Upload>(`/api/uploads/${id}/repeated-hours`, { choices });
   }
 
   /** Imports a Green Button (ESPI) XML file into one series, validated and stored like an upload. */
