@@ -169,8 +169,8 @@ describe('a settings trial on a demo feeder', () => {
       expect(side.weekAhead).toMatchObject({ hours: 14 * 168, peakDays: 98 });
       expect(side.temperature.used).toBe(true);
     }
-    expect(trial.results!.current.fitted).toEqual({ 'AR by conditional maximum likelihood': 14 });
-    expect(trial.results!.proposed.fitted).toEqual({ 'AR by Yule-Walker': 14 });
+    expect(trial.results!.current.fitted).toEqual({ 'hour-of-week profile + AR by conditional maximum likelihood': 14 });
+    expect(trial.results!.proposed.fitted).toEqual({ 'daily difference + AR by Yule-Walker': 14 });
     // The benchmark is the same for both sides: same origins, same hours.
     expect(trial.results!.proposed.weekAhead.naive).toEqual(trial.results!.current.weekAhead.naive);
 

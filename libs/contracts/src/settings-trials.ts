@@ -4,7 +4,7 @@
  * models.edit.
  */
 import { z } from 'zod';
-import { modelSettingsFieldsSchema } from './models';
+import { modelSettingsFieldsSchema, type ModelSettingsRequest } from './models';
 
 /** Daily forecast origins of every trial (two weeks, so each weekday is scored twice). */
 export const TRIAL_ORIGINS = 14;
@@ -110,3 +110,18 @@ export const applySettingsTrialResultSchema = z.object({
 });
 /** See applySettingsTrialResultSchema. */
 export type ApplySettingsTrialResult = z.infer<typeof applySettingsTrialResultSchema>;
+
+/** True when two sets of model settings are the same, whatever order their keys come in (stored JSON reorders them). */
+export function sameModelSettings(a: ModelSettingsRequest, b: ModelSettingsRequest): boolean {
+  return canonicalJson(a) === canonicalJson(b);
+}
+
+/** JSON with object keys sorted at every level. */
+function canonicalJson(value: unknown): string {
+  if (Array.isArray(value)) return `[${value.map(canonicalJson).join(',')}]`;
+  if (value !== null && typeof value === 'object') {
+    const entries = Object.entries(value as Record<string, unknown>).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0));
+    return `{${entries.map(([key, item]) => `${JSON.stringify(key)}:${canonicalJson(item)}`).join(',')}}`;
+  }
+  return JSON.stringify(value);
+}

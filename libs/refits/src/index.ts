@@ -15,6 +15,5 @@ export type { RefitInputs } from './series-window';
 export * from './trials/settings-trial-queue';
 export * from './trials/settings-trial-store';
 export { runSettingsTrial, type SettingsTrialOutcome } from './trials/run-settings-trial';
-export { sameSettings } from './trials/same-settings';
 export { readTrialHistory, TRIAL_MIN_HISTORY_HOURS, type TrialHistory } from './trials/trial-history';
 export { inputsAtOrigin, trialOrigins, TRIAL_SEASON } from './trials/trial-backtest';

@@ -8,6 +8,7 @@ import {
   applySettingsTrialResultSchema,
   idParamsSchema,
   modelSettingsRequestSchema,
+  sameModelSettings,
   settingsTrialListSchema,
   settingsTrialSchema,
   type ModelSettings,
@@ -24,7 +25,6 @@ import {
   readSettingsTrial,
   refitQueueReady,
   RefitScopeError,
-  sameSettings,
   SettingsTrialError,
   settingsTrialQueueReady,
   startRefitRun,
@@ -159,7 +159,7 @@ export function settingsTrialRoutes({ db, pool }: AppContext): RouteDefinition[]
                 `Trial ${trial.id} was applied already, by ${trial.appliedBy ?? 'someone no longer listed'}.`,
               );
             const before = editable(await readModelSettings(db, pool, trial.seriesId));
-            if (!sameSettings(before, trial.currentSettings))
+            if (!sameModelSettings(before, trial.currentSettings))
               throw new HttpProblem(
                 'conflict',
                 `The series' settings changed after trial ${trial.id} started, so it no longer compares the proposal with the settings in force. Start a new trial.`,

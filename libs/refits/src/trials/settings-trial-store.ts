@@ -4,6 +4,7 @@
  * SettingsTrialError with the problem kind and a sentence for the planner.
  */
 import {
+  sameModelSettings,
   TRIAL_ORIGINS,
   trialResultsSchema,
   type ModelSettingsRequest,
@@ -13,7 +14,6 @@ import {
 import type pg from 'pg';
 import type { JobInserter } from '../refit-queues';
 import type { Queryable } from '../series-window';
-import { sameSettings } from './same-settings';
 import { settingsTrialQueue, type SettingsTrialJob } from './settings-trial-queue';
 import { TRIAL_MIN_HISTORY_HOURS } from './trial-history';
 
@@ -71,7 +71,7 @@ export interface StartTrialRequest {
 
 /** Creates the trial and its job on `client`, inside the caller's open transaction; returns the trial's id. */
 export async function startSettingsTrial(client: pg.PoolClient, insertJobs: JobInserter, request: StartTrialRequest): Promise<number> {
-  if (sameSettings(request.current, request.proposed)) {
+  if (sameModelSettings(request.current, request.proposed)) {
     throw new SettingsTrialError('invalidInput', 'The proposed settings are the ones in force; change at least one setting to compare.');
   }
   // The check and the insert are one step per series, so two clicks cannot both pass the check.

@@ -28,7 +28,8 @@ import {
   type TrialSide,
 } from '@loadwright/contracts';
 import { rollingOriginBacktest, type BacktestForecast, type BacktestResult, type HolidaySpec } from '@loadwright/forecasting';
-import { fitSeriesModel } from '../fit-series-model';
+import { describeDesign } from '../auto-select';
+import { fitSeriesModel, type SeriesModelOutcome } from '../fit-series-model';
 import type { RefitInputs } from '../series-window';
 import type { TrialHistory } from './trial-history';
 
@@ -63,7 +64,7 @@ export async function forecastFromOrigins(
     const outcome = fitSeriesModel(inputsAtOrigin(history, settings, origin), holidays);
     const levels = [80, 95].map((level) => outcome.forecast.intervals.find((interval) => interval.level === level)!);
     byOrigin.set(origin, { mean: outcome.forecast.mean, intervals: levels });
-    fitted.push(outcome.selection?.candidates.find((c) => c.chosen)?.label ?? modelMethodLabels[outcome.method]);
+    fitted.push(fittedLabel(outcome));
     await afterFit(origin);
   }
   return { byOrigin, fitted, temperature };
@@ -139,9 +140,20 @@ function scores(result: BacktestResult): TrialScores {
   };
 }
 
+/** What was fitted, as the model card says it: `auto`'s winning candidate, or the design and the fixed method. */
+function fittedLabel(outcome: SeriesModelOutcome): string {
+  const chosen = outcome.selection?.candidates.find((c) => c.chosen)?.label;
+  if (chosen) return chosen;
+  const method = modelMethodLabels[outcome.method];
+  return outcome.method === 'seasonal-naive' ? method : `${describeDesign(outcome.model.spec)} + ${method}`;
+}
+
 /** Whether a side uses temperatures, and why not. */
 function sideTemperature(history: TrialHistory, settings: ModelSettingsRequest): TrialSide['temperature'] {
   if (!settings.temperature.enabled) return { used: false, reason: 'temperature regressors are switched off in these settings' };
   if (!history.temperature.usable) return { used: false, reason: history.temperature.reason };
-  return { used: true, reason: `observed degree-hours from ${history.temperature.station.name} (the forecast hours' actual weather)` };
+  return {
+    used: true,
+    reason: `degree-hours from the observed temperatures of ${history.temperature.station.name}, forecast hours included`,
+  };
 }
