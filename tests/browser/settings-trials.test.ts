@@ -129,6 +129,9 @@ describe('a planner tries other settings on a feeder and applies them', () => {
     await comparison.waitFor();
     const day = comparison.locator('table[data-horizon="day"]');
     const week = comparison.locator('table[data-horizon="week"]');
+    expect(await day.locator('caption').textContent()).toMatch(
+      /Day-ahead \(the first 24 hours from each origin\): proposed better on \d of 8 measures, worse on \d/,
+    );
     const cells = async (table: typeof day, measure: string) =>
       (await table.locator(`tr[data-measure="${measure}"] td`).allTextContents()).map((text) => text.trim());
     const kw = (value: number) => `${value.toLocaleString('en-GB', { minimumFractionDigits: 2, maximumFractionDigits: 2 })} kW`;

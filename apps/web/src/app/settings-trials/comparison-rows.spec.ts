@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { TrialResults, TrialScores, TrialSide } from '@loadwright/contracts';
-import { comparisonRows, trialHeadline } from './comparison-rows';
+import { comparisonRows, trialHeadline, verdictSummary } from './comparison-rows';
 
 const scores = (overrides: Partial<TrialScores>): TrialScores => ({
   hours: 336,
@@ -36,6 +36,8 @@ describe('comparisonRows', () => {
     expect(rows['80 % band coverage']!.verdict).toBe('better');
     expect(rows['95 % band coverage']!.verdict).toBe('worse');
     expect(rows['RMSE']).toMatchObject({ verdict: 'same', verdictText: 'Same' });
+    // Better: MAE, 80 % band; worse: MAPE, 95 % band; the same: the other four.
+    expect(verdictSummary(Object.values(rows))).toBe('proposed better on 2 of 8 measures, worse on 2');
   });
 
   it('leaves a measure without a value unjudged and heads with MAE when MAPE is undefined', () => {

@@ -114,3 +114,11 @@ export function trialHeadline(results: TrialResults, unit: string): string {
   );
   return `Day-ahead ${row!.measure} ${row!.current} → ${row!.proposed}`;
 }
+
+/** How the proposal fared over a table's measures, e.g. "proposed better on 5 of 8 measures, worse on 2". */
+export function verdictSummary(rows: readonly ComparisonRow[]): string {
+  const judged = rows.filter((row) => row.verdict !== 'none');
+  const count = (verdict: ComparisonRow['verdict']) => judged.filter((row) => row.verdict === verdict).length;
+  const [better, worse] = [count('better'), count('worse')];
+  return `proposed better on ${better} of ${judged.length} measures, worse on ${worse}`;
+}

@@ -3,7 +3,7 @@ import { MatIconModule } from '@angular/material/icon';
 import type { SettingsTrial, TrialSide } from '@loadwright/contracts';
 import { withUnit } from '../series-page/chart-theme';
 import { zonedClock } from '../series-page/zoned-time';
-import { comparisonRows } from './comparison-rows';
+import { comparisonRows, verdictSummary } from './comparison-rows';
 import { settingChanges } from './settings-changes';
 
 /** One finished trial side by side: what changed, both sides' errors, coverage and peaks at both horizons, and what was fitted. */
@@ -30,7 +30,7 @@ export class TrialComparison {
     return [
       { key: 'day', title: 'Day-ahead (the first 24 hours from each origin)', rows: comparisonRows(results, 'dayAhead', this.unit()) },
       { key: 'week', title: 'Week-ahead (all 168 hours from each origin)', rows: comparisonRows(results, 'weekAhead', this.unit()) },
-    ];
+    ].map((horizon) => ({ ...horizon, summary: verdictSummary(horizon.rows) }));
   });
   /** The origins in the series' time zone. */
   protected readonly originSpan = computed(() => {
