@@ -213,6 +213,10 @@ describe('a settings trial on a demo feeder', () => {
       [String(feeder)],
     );
     expect(audit.rows[0].detail).toMatchObject({ trialId: trial.id, before: { method: 'cmle' }, after: { method: 'yule-walker' } });
+    const started = await server.pool.query(`select 1 from audit_log where action = 'refit.started' and target_id = $1`, [
+      String(applied.body.refitRunId),
+    ]);
+    expect(started.rows).toHaveLength(1);
     const run = await waitForRun(server.pool, applied.body.refitRunId, 120_000);
     expect(run.series_done).toBe(1);
     const fit = await server.pool.query(`select method from fits where series_id = $1 order by id desc limit 1`, [feeder]);

@@ -178,21 +178,14 @@ export function settingsTrialRoutes({ db, pool }: AppContext): RouteDefinition[]
           });
           let refitRunId: number | null = null;
           if (body.refit && (await refitQueueReady(pool))) {
+            // The run and its audit entry are committed together (startRefitRun writes both).
             const started = await startRefitRun(pool, insertJobs, {
               trigger: 'manual',
               scope: { kind: 'series', seriesIds: [seriesId] },
               requestedById: userId,
+              caller: { actor, ip: clientAddress(req) },
             });
             refitRunId = started?.runId ?? null;
-            if (started)
-              await recordAudit(db, {
-                actor,
-                action: 'refit.started',
-                targetType: 'refit_run',
-                targetId: started.runId,
-                detail: { scope: { kind: 'series', seriesIds: [seriesId] }, series: 1, trialId: params.id },
-                ip: clientAddress(req),
-              });
           }
           return { trial: (await readSettingsTrial(pool, params.id))!, refitRunId };
         }),
