@@ -7,8 +7,10 @@ import type PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
 import { registerImportQueue } from './import.worker';
 import { sweepOrphanedImports } from './import-sweeper';
+import { sweepOrphanedTrials } from './settings-trial-sweeper';
 import { registerRefitQueues } from './refit-queues';
 import { registerMailQueue } from './send-mail.worker';
+import { registerSettingsTrialQueue } from './settings-trial.worker';
 import { registerDetectionQueues } from './detect-misses.worker';
 import { registerScoringQueues } from './score-accuracy.worker';
 import { startWorkerPresence, type WorkerPresence } from './worker-presence';
@@ -45,12 +47,15 @@ export async function registerQueues(boss: PgBoss, context: WorkerContext): Prom
     afterReap: async (pool) => {
       const failed = await sweepOrphanedImports(pool);
       if (failed.length) context.logger.warn({ uploads: failed }, 'uploads whose import job is gone marked failed');
+      const trials = await sweepOrphanedTrials(pool);
+      if (trials.length) context.logger.warn({ trials }, 'settings trials whose job is gone marked failed');
     },
   });
   boss.once('stopped', () => void presence.stop());
   const withPresence = { ...context, presence };
   await registerImportQueue(boss, withPresence);
   await registerRefitQueues(boss, withPresence);
+  await registerSettingsTrialQueue(boss, withPresence);
   await registerMailQueue(boss, { ...withPresence, mailFrom: context.mailFrom ?? 'Loadwright <loadwright@localhost>' });
   await registerDetectionQueues(boss, { ...withPresence, publicUrl: context.publicUrl ?? 'http://127.0.0.1:4280' });
   await registerScoringQueues(boss, withPresence);

@@ -18,11 +18,11 @@ import pg from 'pg';
 import type PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
 import { importQueue } from '@loadwright/intake';
-import { refitNightlyQueue, refitSeriesQueue } from '@loadwright/refits';
+import { refitNightlyQueue, refitSeriesQueue, settingsTrialQueue } from '@loadwright/refits';
 import { scoreAccuracyQueue } from '@loadwright/accuracy';
 
 /** Queues whose active jobs are held by a worker's heartbeat and reaped when that worker dies. */
-export const leasedQueues = [importQueue, refitSeriesQueue, refitNightlyQueue, scoreAccuracyQueue];
+export const leasedQueues = [importQueue, refitSeriesQueue, refitNightlyQueue, scoreAccuracyQueue, settingsTrialQueue];
 
 /** Default seconds between heartbeats (WORKER_HEARTBEAT_SECONDS). */
 export const defaultBeatSeconds = 10;

@@ -19,6 +19,7 @@ import { seriesRoutes } from './series/series-routes';
 import { tokenRoutes } from './tokens/token-routes';
 import { modelRoutes } from './models/model-routes';
 import { refitRoutes } from './refits/refit-routes';
+import { settingsTrialRoutes } from './models/settings-trial-routes';
 import { organisationRoutes } from './organisation/organisation-routes';
 import { missesRoutes } from './misses/misses-routes';
 import { accuracyRoutes } from './accuracy/accuracy-routes';
@@ -37,7 +38,7 @@ export function apiRoutes(context: AppContext): RouteDefinition[] {
   ];
   routes.push(...forecastRoutes(context));
   routes.push(...hierarchyRoutes(context), ...temperatureScenarioRoutes(context));
-  routes.push(...modelRoutes(context), ...refitRoutes(context));
+  routes.push(...modelRoutes(context), ...refitRoutes(context), ...settingsTrialRoutes(context));
   routes.push(...seriesRoutes(context), ...readingsRoutes(context));
   routes.push(...temperatureForecastRoutes(context));
   routes.push(...uploadRoutes(context), ...repeatedHourRoutes(context));

@@ -21,3 +21,4 @@ export * from './validation-messages';
 export * from './organisation';
 export * from './misses';
 export * from './accuracy';
+export * from './settings-trials';

@@ -11,3 +11,9 @@ export { fitSeriesModel, type SeriesModelOutcome } from './fit-series-model';
 export { defaultModelSettings } from './model-settings';
 export { defaultBalancePoints } from './model-plan';
 export type { RefitInputs } from './series-window';
+// Settings trials: proposed settings backtested against the current ones, stored, then applied or not.
+export * from './trials/settings-trial-queue';
+export * from './trials/settings-trial-store';
+export { runSettingsTrial, type SettingsTrialOutcome } from './trials/run-settings-trial';
+export { readTrialHistory, TRIAL_MIN_HISTORY_HOURS, type TrialHistory } from './trials/trial-history';
+export { inputsAtOrigin, trialOrigins, TRIAL_SEASON } from './trials/trial-backtest';

@@ -104,7 +104,7 @@ export async function readRefitInputs(db: Queryable, seriesId: number, asOf: Dat
 }
 
 /** The series row; refuses unknown, archived or temperature series. */
-async function readSeries(db: Queryable, seriesId: number): Promise<RefitSeries> {
+export async function readSeries(db: Queryable, seriesId: number): Promise<RefitSeries> {
   const { rows } = await db.query({
     text: 'select id, key, name, kind, unit, interval_minutes, time_zone, temperature_series_id, archived_at from series where id = $1',
     values: [seriesId],
@@ -129,7 +129,7 @@ async function readSeries(db: Queryable, seriesId: number): Promise<RefitSeries>
  * chosen in SQL (two columns to parse instead of four): the estimate where validation set one, else a
  * raw value that no defect flag marks; excluded hours give nothing.
  */
-async function readHourly(db: Queryable, seriesId: number, fromMs: number, toMs: number): Promise<Float64Array> {
+export async function readHourly(db: Queryable, seriesId: number, fromMs: number, toMs: number): Promise<Float64Array> {
   const hours = Math.round((toMs - fromMs) / HOUR_MS);
   const out = new Float64Array(hours).fill(Number.NaN);
   const { rows } = await db.query({

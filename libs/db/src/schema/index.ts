@@ -17,3 +17,4 @@ export * from './workers';
 export * from './reconciliations';
 export * from './mail';
 export * from './accuracy';
+export * from './settings-trials';

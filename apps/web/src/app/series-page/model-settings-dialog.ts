@@ -16,6 +16,7 @@ import {
   modelMethods,
   modelSettingsRequestSchema,
 } from '@loadwright/contracts';
+import type { Observable } from 'rxjs';
 import { ApiProblem, problemMessage } from '../core/problems/api-problem';
 import { applyFieldErrors, serverError } from '../core/problems/field-errors';
 import { SeriesPageClient } from './series-page-client';
@@ -44,6 +45,16 @@ function seasonalKey(value: SeasonalTreatment): string {
 export interface ModelSettingsDialogData {
   readonly seriesId: number;
   readonly settings: ModelSettings;
+  /** What the form does with the checked settings instead of saving them (e.g. start a trial of them); closes with its answer. */
+  readonly submit?: ModelSettingsSubmit;
+}
+
+/** Another use of the settings form: its words and where the checked settings go. */
+export interface ModelSettingsSubmit {
+  readonly title: string;
+  readonly hint: string;
+  readonly label: string;
+  readonly send: (settings: ModelSettingsRequest) => Observable<unknown>;
 }
 
 /** Reads an optional whole number from a text field: empty means "let the method choose" (null). */
@@ -51,7 +62,10 @@ function optionalInteger(value: string | number | null): number | null {
   return value === null || value === '' ? null : Number(value);
 }
 
-/** A series' model settings (planners, admins), checked with the shared schema before sending; server errors land on their fields. */
+/**
+ * A series' model settings (planners, admins), checked with the shared schema before sending; server errors land on
+ * their fields. The same form proposes settings for a trial.
+ */
 @Component({
   selector: 'lw-model-settings-dialog',
   imports: [
@@ -70,7 +84,7 @@ function optionalInteger(value: string | number | null): number | null {
 })
 export class ModelSettingsDialog {
   private readonly client = inject(SeriesPageClient);
-  private readonly dialogRef = inject<MatDialogRef<ModelSettingsDialog, ModelSettings>>(MatDialogRef);
+  private readonly dialogRef = inject<MatDialogRef<ModelSettingsDialog, unknown>>(MatDialogRef);
   /** The series and its current settings. */
   protected readonly data = inject<ModelSettingsDialogData>(MAT_DIALOG_DATA);
 
@@ -130,7 +144,9 @@ export class ModelSettingsDialog {
     }
     this.saving.set(true);
     this.problem.set(null);
-    this.client.saveModelSettings(this.data.seriesId, checked.data).subscribe({
+    const send =
+      this.data.submit?.send ?? ((settings: ModelSettingsRequest) => this.client.saveModelSettings(this.data.seriesId, settings));
+    send(checked.data).subscribe({
       next: (saved) => this.dialogRef.close(saved),
       error: (error: unknown) => {
         this.saving.set(false);

@@ -23,6 +23,7 @@ import {
 import { provideCharts, withDefaultRegisterables } from 'ng2-charts';
 import { type Observable, Subject, catchError, combineLatest, filter, forkJoin, map, of, startWith, switchMap } from 'rxjs';
 import { SessionStore } from '../core/auth/session-store';
+import { SettingsTrialsPanel } from '../settings-trials/settings-trials-panel';
 import { problemMessage } from '../core/problems/api-problem';
 import { confirmAction } from '../shared/confirm-dialog/confirm-dialog';
 import { AdjustmentsPanel } from './adjustments-panel';
@@ -74,6 +75,7 @@ import { SeriesAccuracy } from '../series-accuracy/series-accuracy';
     HistoryChart,
     ModelCard,
     SeriesAccuracy,
+    SettingsTrialsPanel,
     StationForecasts,
     WeatherScenarios,
   ],
@@ -238,6 +240,11 @@ export class SeriesPage {
         this.outcome.set(`Model settings saved: ${modelMethodLabels[saved.method]}. They apply from the next refit.`);
         this.reload();
       });
+  }
+
+  /** A settings trial's proposal became the series' settings: the model settings and the refit follow. */
+  protected settingsTrialApplied(): void {
+    this.reload();
   }
 
   /** The group's drafts were approved. */
