@@ -149,6 +149,17 @@ describe('a planner overrides a rule for one series', () => {
     await page.getByText('Override removed: Outside the band follows the group override or the default again.').waitFor();
     await row.getByText('Default (Settings)').waitFor();
   });
+
+  it("reaches a series' rules from its page", async () => {
+    const feeder = demoScenario.feeders[0];
+    const seriesId = (await api<{ items: { id: number; key: string }[] }>(`/api/series?q=${feeder!.key}`)).items.find(
+      (s) => s.key === feeder!.key,
+    )!.id;
+    await page.goto(`${server.url}/series/${seriesId}`);
+    await page.getByRole('link', { name: 'Miss rules for this series' }).click();
+    await page.getByRole('heading', { level: 2, name: `Rules in force for ${feeder!.name}` }).waitFor();
+    expect(new URL(page.url()).searchParams.get('series')).toBe(String(seriesId));
+  });
 });
 
 describe('an admin changes settings', () => {
