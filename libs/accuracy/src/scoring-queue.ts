@@ -4,7 +4,7 @@
  * fans out one 'score-accuracy' job per load series, so versions written since and adjusted hours are
  * scored without new actuals.
  */
-import { insertJobs, type Database } from '@loadwright/db';
+import { enqueuePerSeries, ensurePerSeriesQueues, type Database } from '@loadwright/db';
 import type PgBoss from 'pg-boss';
 
 /** One series per job: data ScoreAccuracyJob. */
@@ -19,28 +19,12 @@ export interface ScoreAccuracyJob {
   seriesId: number;
 }
 
-/** The 'short' policy keeps one waiting job per series key, so a burst of pushes is scored once; two retries. */
-export const scoringQueueOptions = {
-  policy: 'short',
-  retryLimit: 2,
-  retryDelay: 30,
-  retryBackoff: true,
-  expireInSeconds: 300,
-} satisfies Omit<PgBoss.Queue, 'name'>;
-
 /** Creates both queues, or brings their settings up to date. */
 export async function createScoringQueues(boss: PgBoss): Promise<void> {
-  for (const name of [scoreAccuracyQueue, scoreAccuracyHourlyQueue]) {
-    const options = name === scoreAccuracyQueue ? scoringQueueOptions : { retryLimit: 1, retryDelay: 60, expireInSeconds: 300 };
-    if (await boss.getQueue(name)) await boss.updateQueue(name, { name, ...options });
-    else await boss.createQueue(name, { name, ...options });
-  }
+  await ensurePerSeriesQueues(boss, scoreAccuracyQueue, scoreAccuracyHourlyQueue);
 }
 
 /** Adds a scoring job per series on `db` (inside the caller's transaction when it is one). */
 export async function enqueueScoring(db: Pick<Database, 'execute'>, seriesIds: readonly number[]): Promise<void> {
-  await insertJobs(
-    db,
-    [...new Set(seriesIds)].map((seriesId) => ({ name: scoreAccuracyQueue, data: { seriesId }, singletonKey: `series-${seriesId}` })),
-  );
+  await enqueuePerSeries(db, scoreAccuracyQueue, seriesIds);
 }

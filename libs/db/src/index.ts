@@ -6,3 +6,4 @@ export { createDb, schema, type CreateDbOptions, type Database, type DbHandle } 
 export { migrate, migrationsFolder } from './migrate';
 export { isDatabaseUnavailable } from './connection-errors';
 export { insertJobs } from './job-insert';
+export { ensurePerSeriesQueues, ensureQueue, enqueuePerSeries, perSeriesQueueOptions, type QueueOptions } from './job-queues';

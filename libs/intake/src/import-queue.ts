@@ -2,6 +2,7 @@
  * The import job queue ('import-upload'): its settings, its creation (by workers), and adding a job
  * on the caller's own connection, so the job and the upload's status change commit together.
  */
+import { ensureQueue } from '@loadwright/db';
 import PgBoss from 'pg-boss';
 
 /** Queue of upload imports: data ImportUploadJob. */
@@ -26,8 +27,7 @@ export const importQueueOptions = { retryLimit: 2, retryDelay: 20, retryBackoff:
 
 /** Creates the queue, or brings its settings up to date. */
 export async function createImportQueue(boss: PgBoss): Promise<void> {
-  if (await boss.getQueue(importQueue)) await boss.updateQueue(importQueue, { name: importQueue, ...importQueueOptions });
-  else await boss.createQueue(importQueue, { name: importQueue, ...importQueueOptions });
+  await ensureQueue(boss, importQueue, importQueueOptions);
 }
 
 /** Something that runs SQL: a pg Pool or PoolClient. */

@@ -3,7 +3,7 @@
  * is written to the sent-mail log and given one job in the transaction of whatever caused it, so a
  * mail server that is down delays a message, never loses it and never fails the action that sent it.
  */
-import { insertJobs, mailMessages, type Database } from '@loadwright/db';
+import { ensureQueue, insertJobs, mailMessages, type Database } from '@loadwright/db';
 import type PgBoss from 'pg-boss';
 import type { MailMessage } from './mailer';
 
@@ -37,9 +37,7 @@ export function mailQueueOptions(env: NodeJS.ProcessEnv = process.env): Omit<PgB
 
 /** Creates the queue, or brings its settings up to date. */
 export async function createMailQueue(boss: PgBoss): Promise<void> {
-  const options = mailQueueOptions();
-  if (await boss.getQueue(sendMailQueue)) await boss.updateQueue(sendMailQueue, { name: sendMailQueue, ...options });
-  else await boss.createQueue(sendMailQueue, { name: sendMailQueue, ...options });
+  await ensureQueue(boss, sendMailQueue, mailQueueOptions());
 }
 
 /** A database or a transaction: anything that can insert and run SQL. */

@@ -2,6 +2,7 @@
  * The refit's job queues: names, retry settings, and a way to add jobs inside one's own transaction
  * (pg-boss's insert on the caller's connection), shared by the API and the worker.
  */
+import { ensureQueue } from '@loadwright/db';
 import PgBoss from 'pg-boss';
 import type { Queryable } from './series-window';
 
@@ -48,9 +49,7 @@ export function refitSeriesKey(seriesId: number): string {
 export async function createRefitQueues(boss: PgBoss): Promise<void> {
   const options = refitQueueOptions();
   for (const name of [refitSeriesQueue, refitNightlyQueue]) {
-    const queue = { name, ...options, ...(name === refitSeriesQueue && { policy: refitSeriesPolicy }) };
-    if (await boss.getQueue(name)) await boss.updateQueue(name, queue);
-    else await boss.createQueue(name, queue);
+    await ensureQueue(boss, name, { ...options, ...(name === refitSeriesQueue && { policy: refitSeriesPolicy }) });
   }
 }
 

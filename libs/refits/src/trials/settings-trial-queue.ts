@@ -1,4 +1,5 @@
 /** The settings-trial job queue: its name, its job's data and its retry settings, shared by the API and the worker. */
+import { ensureQueue } from '@loadwright/db';
 import type PgBoss from 'pg-boss';
 
 /** One job per trial: data SettingsTrialJob. */
@@ -23,9 +24,7 @@ export const settingsTrialQueueOptions: Omit<PgBoss.Queue, 'name'> = {
 
 /** Creates the queue (or brings its settings up to date). */
 export async function createSettingsTrialQueue(boss: PgBoss): Promise<void> {
-  const queue = { name: settingsTrialQueue, ...settingsTrialQueueOptions };
-  if (await boss.getQueue(settingsTrialQueue)) await boss.updateQueue(settingsTrialQueue, queue);
-  else await boss.createQueue(settingsTrialQueue, queue);
+  await ensureQueue(boss, settingsTrialQueue, settingsTrialQueueOptions);
 }
 
 /** True when the queue exists (a worker has started at least once against this database). */
