@@ -112,8 +112,11 @@ describe('a steward reads the catalogue', () => {
     await page.getByRole('combobox', { name: 'Kind' }).click();
     await page.getByRole('option', { name: 'Temperature' }).click();
     await expectRows(demoScenario.stations.map((s) => s.key));
+    // The chosen option's panel closes with an animation; reopening before it is gone can catch its leaving options.
+    await page.getByRole('listbox').waitFor({ state: 'detached' });
     await page.getByRole('combobox', { name: 'Kind' }).click();
     await page.getByRole('option', { name: 'Any kind' }).click();
+    await page.getByRole('listbox').waitFor({ state: 'detached' });
     await page.getByRole('combobox', { name: 'Level' }).click();
     await page.getByRole('option', { name: 'zone', exact: true }).click();
     await expectRows(demoScenario.zones.map((z) => z.key));
