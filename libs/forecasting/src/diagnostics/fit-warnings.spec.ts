@@ -4,7 +4,7 @@ import { cmleAr } from '../ar/cmle';
 import { nlsArma } from '../arma/nls';
 import { normalGenerator } from '../core/random';
 import type { FitResult } from '../core/types';
-import { estimatorWarnings, largestReciprocalRoot } from './fit-warnings';
+import { estimatorWarnings, largestReciprocalRoot, nearUnitRoot } from './fit-warnings';
 
 /** A fit with the given coefficients (the warnings read only these fields). */
 function fitOf(ar: number[], ma: number[], mean = 0, converged: boolean | null = true): FitResult {
@@ -33,6 +33,34 @@ describe('largestReciprocalRoot', () => {
     expect(largestReciprocalRoot([1.5, -0.5])).toBeCloseTo(1, 10);
     expect(largestReciprocalRoot([0.5])).toBeCloseTo(0.5, 12);
     expect(largestReciprocalRoot([])).toBe(0);
+  });
+});
+
+describe('nearUnitRoot', () => {
+  /** A sparse AR polynomial on lags 1, 2, 24, 25 and 168, as the regularised weekly-lag fits give. */
+  const weekly = (phi1: number, phi168: number): Float64Array => {
+    const c = new Float64Array(168);
+    c[0] = phi1;
+    c[1] = -0.12;
+    c[23] = 0.1;
+    c[24] = -0.05;
+    c[167] = phi168;
+    return c;
+  };
+
+  it('finds by bisection the modulus the root finder finds, for roots beyond 0.99 (degree 2: (1 − 0.995z)(1 − 0.98z); degree 168, up to a unit root)', () => {
+    for (const c of [[1.5, -0.5], [1.975, -0.9751], weekly(0.9, 0.1), weekly(0.6, 0.1), weekly(0.95, 0.12)]) {
+      const roots = largestReciprocalRoot(c);
+      expect(roots).toBeGreaterThanOrEqual(0.99);
+      expect(Math.abs(nearUnitRoot(c) - roots)).toBeLessThan(1e-9 * roots);
+    }
+  });
+
+  it('is 0 when every reciprocal root lies below 0.99', () => {
+    expect(nearUnitRoot([0.5, 0.3])).toBe(0);
+    const c = weekly(0.6, 0.001);
+    expect(largestReciprocalRoot(c)).toBeLessThan(0.99);
+    expect(nearUnitRoot(c)).toBe(0);
   });
 });
 
