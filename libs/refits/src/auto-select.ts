@@ -145,7 +145,7 @@ export function autoSelect(design: ModelDesign, data: LoadSeriesData, options: A
     const at = clock();
     let designModel: FittedLoadModel;
     try {
-      designModel = fitLoadModel({ ...designSpec, method: 'cmle', p: 2, q: 0 }, estimation);
+      designModel = fitDesign(designSpec, estimation);
     } catch (error) {
       for (const part of parts) candidates.push({ ...blank(`${name} + ${part.method}`, part.method), error: describeRefitError(error) });
       return;
@@ -407,6 +407,21 @@ function failsBadly(c: Candidate): boolean {
 /** |c80 − 80| + |c95 − 95| in percentage points. */
 function coverageGap(c: Candidate): number {
   return Math.abs(c.coverage80! - 80) + Math.abs(c.coverage95! - 95);
+}
+
+/** The design estimated as `auto` estimates every candidate's: regressors and profile by GLS with AR(2) errors. */
+function fitDesign(design: ModelDesign, data: LoadSeriesData): FittedLoadModel {
+  return fitLoadModel({ ...design, method: 'cmle', p: 2, q: 0 }, data);
+}
+
+/**
+ * A candidate's configuration (`spec`: design, estimator, lags and penalty) estimated on `data` the way `auto`
+ * estimated it: the design by fitDesign, then the ARMA part once on its remainder (with the spec's λ, if any).
+ */
+export function fitAsCandidate(spec: LoadModelSpec, data: LoadSeriesData): FittedLoadModel {
+  const { method: _method, p: _p, q: _q, lags: _lags, lambda: _lambda, select: _select, ...design } = spec;
+  const designModel = fitDesign(design, data);
+  return withArma(designModel, fitArmaPart(spec, designModel.remainder));
 }
 
 /** The design model with another ARMA part fitted to the same remainder. */

@@ -20,6 +20,7 @@ import {
   type BandScore,
   type FittedLoadModel,
   type LoadForecast,
+  type LoadModelSpec,
   type LoadSeriesData,
 } from '@loadwright/forecasting';
 import { originForecaster } from './origin-forecast';
@@ -90,8 +91,17 @@ export function calibrateForecast(
   };
 }
 
-/** The configuration of `model` estimated without the last CALIBRATION_DAYS days of `data`, extended over them; null when too short or it fails. */
-export function heldOutModel(model: FittedLoadModel, data: LoadSeriesData): ExtendedModel | null {
+/**
+ * The configuration of `model` estimated without the last CALIBRATION_DAYS days of `data`, extended over them;
+ * null when too short or it fails. `estimate` estimates a spec as the model itself was estimated: for `auto`'s
+ * choice the design with AR(2) errors and the ARMA part once on its remainder (fitAsCandidate), for a fixed
+ * method the joint GLS of fitLoadModel.
+ */
+export function heldOutModel(
+  model: FittedLoadModel,
+  data: LoadSeriesData,
+  estimate: (spec: LoadModelSpec, data: LoadSeriesData) => FittedLoadModel = fitLoadModel,
+): ExtendedModel | null {
   const n = data.values.length;
   const days = Math.min(CALIBRATION_DAYS, Math.floor(n / 48));
   const m = n - days * 24;
@@ -102,7 +112,7 @@ export function heldOutModel(model: FittedLoadModel, data: LoadSeriesData): Exte
       values: data.values.subarray(0, m),
       temperature: data.temperature?.subarray(0, m),
     };
-    return extendModel(fitLoadModel(model.spec, sliced), data);
+    return extendModel(estimate(model.spec, sliced), data);
   } catch {
     return null;
   }

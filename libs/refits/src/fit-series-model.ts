@@ -18,7 +18,7 @@ import {
   type LoadModelSpec,
   type LoadSeriesData,
 } from '@loadwright/forecasting';
-import { autoSelect, cpuMilliseconds, yuleWalkerOrderByAic, type AutoOptions } from './auto-select';
+import { autoSelect, cpuMilliseconds, fitAsCandidate, yuleWalkerOrderByAic, type AutoOptions } from './auto-select';
 import { calibrateForecast, heldOutModel } from './calibrate-bands';
 import { modelDesign, regularisedLags, seasonalNaiveSpec, type ModelDesign } from './model-plan';
 import type { RefitInputs } from './series-window';
@@ -101,7 +101,7 @@ export function fitSeriesModel(inputs: RefitInputs, holidays: HolidaySpec | null
     settings.horizonHours,
     levels,
   );
-  const heldOut = heldOutModel(chosen.model, data);
+  const heldOut = heldOutModel(chosen.model, data, settings.method === 'auto' ? fitAsCandidate : undefined);
   const { forecast, bands } = calibrateForecast(chosen.model, heldOut, data, gaussian);
   const forecastMs = performance.now() - at;
   return {
