@@ -44,15 +44,57 @@ export function householderLeastSquares(
   y: ArrayLike<number>,
   withResiduals = true,
 ): LeastSquaresSolution {
-  if (design.length !== m * k || y.length !== m || m < k || k < 1) {
+  checkSizes(fn, design, m, k, y.length);
+  const qty = Float64Array.from(y);
+  const r = triangularise(fn, design, m, k, [qty]);
+  const coefficients = backSolve(r, k, qty);
+  // Residuals from the original columns, so they are exactly y − Xβ̂ as reported (skipped when the caller needs
+  // only β̂ and (XᵀX)⁻¹: for the few columns of a GLS step they cost as much as the factorisation).
+  const residuals = withResiduals ? Float64Array.from(y) : new Float64Array(0);
+  let rss = Number.NaN;
+  if (withResiduals) {
+    for (let l = 0; l < k; l++) {
+      const b = coefficients[l];
+      const col = l * m;
+      for (let i = 0; i < m; i++) residuals[i] -= b * design[col + i];
+    }
+    rss = 0;
+    for (let i = 0; i < m; i++) rss += residuals[i] * residuals[i];
+  }
+  return { coefficients, residuals, rss, unscaledCovariance: covarianceFromR(r, k) };
+}
+
+/**
+ * β̂ for several right-hand sides of the same X from one factorisation (each Qᵀy costs O(mk), the
+ * factorisation O(mk²)), and (XᵀX)⁻¹. Each β̂ is what householderLeastSquares gives for that y alone.
+ */
+export function householderLeastSquaresMany(
+  fn: string,
+  design: Float64Array,
+  m: number,
+  k: number,
+  ys: ReadonlyArray<ArrayLike<number>>,
+): { coefficients: Float64Array[]; unscaledCovariance: Float64Array } {
+  for (const y of ys) checkSizes(fn, design, m, k, y.length);
+  const qtys = ys.map((y) => Float64Array.from(y));
+  const r = triangularise(fn, design, m, k, qtys);
+  return { coefficients: qtys.map((qty) => backSolve(r, k, qty)), unscaledCovariance: covarianceFromR(r, k) };
+}
+
+/** Throws unless X is m×k with m ≥ k ≥ 1 and y has m rows. */
+function checkSizes(fn: string, design: Float64Array, m: number, k: number, rows: number): void {
+  if (design.length !== m * k || rows !== m || m < k || k < 1) {
     throw new ForecastingError(
       'invalid-argument',
       fn,
       `least squares needs an m×k design with m ≥ k ≥ 1 and m responses (m = ${m}, k = ${k})`,
     );
   }
+}
+
+/** Householder triangularisation of X (not modified), applying each reflection to every `rhs` in place; returns R (k×k row-major). */
+function triangularise(fn: string, design: Float64Array, m: number, k: number, rhs: Float64Array[]): Float64Array {
   const a = design.slice();
-  const qty = Float64Array.from(y);
   const r = new Float64Array(k * k);
   for (let j = 0; j < k; j++) {
     const col = j * m;
@@ -76,34 +118,30 @@ export function householderLeastSquares(
       for (let i = j; i < m; i++) a[other + i] -= f * a[col + i];
       r[j * k + l] = a[other + j];
     }
-    let s = 0;
-    for (let i = j; i < m; i++) s += a[col + i] * qty[i];
-    const f = (2 * s) / vNorm2;
-    for (let i = j; i < m; i++) qty[i] -= f * a[col + i];
+    for (const qty of rhs) {
+      let s = 0;
+      for (let i = j; i < m; i++) s += a[col + i] * qty[i];
+      const f = (2 * s) / vNorm2;
+      for (let i = j; i < m; i++) qty[i] -= f * a[col + i];
+    }
     r[j * k + j] = alpha;
   }
+  return r;
+}
 
+/** Solves Rβ = (Qᵀy)_{1..k} by back substitution. */
+function backSolve(r: Float64Array, k: number, qty: Float64Array): Float64Array {
   const coefficients = new Float64Array(k);
   for (let i = k - 1; i >= 0; i--) {
     let sum = qty[i];
     for (let l = i + 1; l < k; l++) sum -= r[i * k + l] * coefficients[l];
     coefficients[i] = sum / r[i * k + i];
   }
-  // Residuals from the original columns, so they are exactly y − Xβ̂ as reported (skipped when the caller needs
-  // only β̂ and (XᵀX)⁻¹: for the few columns of a GLS step they cost as much as the factorisation).
-  const residuals = withResiduals ? Float64Array.from(y) : new Float64Array(0);
-  let rss = Number.NaN;
-  if (withResiduals) {
-    for (let l = 0; l < k; l++) {
-      const b = coefficients[l];
-      const col = l * m;
-      for (let i = 0; i < m; i++) residuals[i] -= b * design[col + i];
-    }
-    rss = 0;
-    for (let i = 0; i < m; i++) rss += residuals[i] * residuals[i];
-  }
+  return coefficients;
+}
 
-  // R⁻¹ by back substitution, then R⁻¹R⁻ᵀ.
+/** (XᵀX)⁻¹ = R⁻¹R⁻ᵀ, k×k row-major: R⁻¹ by back substitution, then the product. */
+function covarianceFromR(r: Float64Array, k: number): Float64Array {
   const rInverse = new Float64Array(k * k);
   for (let j = 0; j < k; j++) {
     rInverse[j * k + j] = 1 / r[j * k + j];
@@ -122,5 +160,5 @@ export function householderLeastSquares(
       unscaledCovariance[j * k + i] = sum;
     }
   }
-  return { coefficients, residuals, rss, unscaledCovariance };
+  return unscaledCovariance;
 }

@@ -1,5 +1,5 @@
 import { ForecastingError } from '../core/errors';
-import { householderLeastSquares } from '../core/householder-least-squares';
+import { householderLeastSquares, householderLeastSquaresMany } from '../core/householder-least-squares';
 
 /** Least-squares coefficients of y on the given columns (no intercept) and (XᵀX)⁻¹ for standard errors. */
 export interface LeastSquaresSolution {
@@ -19,12 +19,28 @@ export interface LeastSquaresSolution {
 export function leastSquares(fn: string, columns: readonly Float64Array[], y: ArrayLike<number>): LeastSquaresSolution {
   const m = y.length;
   const k = columns.length;
-  const design = new Float64Array(m * k);
+  return withPlainSingularMessage(fn, () => {
+    const solution = householderLeastSquares(fn, pack(columns, m), m, k, y, false);
+    return { beta: solution.coefficients, unscaledCovariance: rows(solution.unscaledCovariance, k) };
+  });
+}
+
+/** The first m rows of the columns, column-major in one array. */
+function pack(columns: readonly Float64Array[], m: number): Float64Array {
+  const design = new Float64Array(m * columns.length);
   columns.forEach((column, j) => design.set(column.subarray(0, m), j * m));
+  return design;
+}
+
+/** A k×k row-major matrix as rows. */
+function rows(matrix: Float64Array, k: number): number[][] {
+  return Array.from({ length: k }, (_, i) => Array.from(matrix.subarray(i * k, (i + 1) * k)));
+}
+
+/** Runs `solve`, restating a singular design in the load model's terms. */
+function withPlainSingularMessage<T>(fn: string, solve: () => T): T {
   try {
-    const solution = householderLeastSquares(fn, design, m, k, y, false);
-    const unscaledCovariance = Array.from({ length: k }, (_, i) => Array.from(solution.unscaledCovariance.subarray(i * k, (i + 1) * k)));
-    return { beta: solution.coefficients, unscaledCovariance };
+    return solve();
   } catch (error) {
     if (error instanceof ForecastingError && error.code === 'singular-matrix') {
       throw new ForecastingError(
@@ -35,4 +51,18 @@ export function leastSquares(fn: string, columns: readonly Float64Array[], y: Ar
     }
     throw error;
   }
+}
+
+/** β̂ of several responses on the same columns from one factorisation, and (XᵀX)⁻¹ as rows (see leastSquares). */
+export function leastSquaresMany(
+  fn: string,
+  columns: readonly Float64Array[],
+  ys: ReadonlyArray<ArrayLike<number>>,
+): { betas: Float64Array[]; unscaledCovariance: number[][] } {
+  const m = ys[0].length;
+  const k = columns.length;
+  return withPlainSingularMessage(fn, () => {
+    const solution = householderLeastSquaresMany(fn, pack(columns, m), m, k, ys);
+    return { betas: solution.coefficients, unscaledCovariance: rows(solution.unscaledCovariance, k) };
+  });
 }

@@ -12,8 +12,9 @@
  * estimator; (3) prewhiten y − s and every z_j with the fitted ARMA filter (the CSS recursion: condition on
  * the first p values, pre-sample errors zero) and regress the prewhitened y on the prewhitened Z. With slot
  * effects, steps (1) and (3) are solved together for fixed ARMA parameters: β ↦ GLS(y − s(y − Zβ)) is
- * affine, β ↦ c + Aβ, so its fixed point β = (I − A)⁻¹c is found from k + 1 evaluations instead of a slow
- * alternation. For CSS (nls) errors, step (3) minimises the same conditional sum of squares as step (2),
+ * affine, β ↦ c + Aβ (the centred slot means s are linear: y − s(y − Zβ) = (y − s(y)) + Σ β_j s(z_j)), so its
+ * fixed point β = (I − A)⁻¹c comes from one GLS factorisation with k + 1 right-hand sides instead of a slow
+ * alternation; s(y) and s(z_j) do not depend on the ARMA part and are computed once. For CSS (nls) errors, step (3) minimises the same conditional sum of squares as step (2),
  * so the scheme is block-coordinate descent on the joint CSS. Stops when max |Δβ| ≤ 1e-8·(1 + max |β|),
  * at most 50 passes.
  *
@@ -33,7 +34,7 @@ import { armaResiduals } from '../core/arma-filter';
 import { ForecastingError } from '../core/errors';
 import type { FitResult } from '../core/types';
 import { estimateSeasonalProfile, type ProfileSlot, type SeasonalProfile } from '../seasonal/seasonal-profile';
-import { leastSquares } from './least-squares';
+import { leastSquares, leastSquaresMany } from './least-squares';
 
 const FN = 'fitRegressionArmaErrors';
 const TOLERANCE = 1e-8;
@@ -68,6 +69,7 @@ export function fitRegressionArmaErrors(
   slotEffects: SlotEffects | null = null,
 ): RegressionArmaFit {
   const k = columns.length;
+  const targets = slotEffects && k > 0 ? glsTargets(y, columns, slotEffects) : [y];
   let beta: Float64Array = k > 0 ? initialOls(y, columns, slotEffects) : new Float64Array(0);
   let passes = 0;
   let converged = k === 0;
@@ -76,10 +78,10 @@ export function fitRegressionArmaErrors(
     const { profile, remainder } = splitRemainder(y, columns, beta, slotEffects);
     const errors = fitErrors(remainder);
     if (k === 0 || converged || passes > MAX_PASSES) {
-      const betaStderr = k > 0 ? glsSolve(y, columns, beta, slotEffects, errors).stderr : new Float64Array(0);
+      const betaStderr = k > 0 ? glsStep(columns, targets, errors).stderr : new Float64Array(0);
       return { beta, betaStderr, profile, errors, remainder, iterations: passes, converged };
     }
-    const next = glsFixedPoint(y, columns, slotEffects, errors);
+    const next = glsStep(columns, targets, errors).beta;
     let change = 0;
     let size = 0;
     for (let j = 0; j < k; j++) {
@@ -119,26 +121,39 @@ function initialOls(y: Float64Array, columns: readonly Float64Array[], slotEffec
   return leastSquares(FN, columns.map(sweep), sweep(y)).beta;
 }
 
+/** The GLS responses with slot effects: y − s(y), then s(z_j) for each column (s = the centred slot means, per hour). */
+function glsTargets(y: Float64Array, columns: readonly Float64Array[], slotEffects: SlotEffects): Float64Array[] {
+  const slotPart = (v: Float64Array): Float64Array => {
+    const profile = estimateSeasonalProfile(v, slotEffects.slots, slotEffects.slot, 'additive');
+    return Float64Array.from(v, (_, t) => profile.effect[slotEffects.slots[t]]);
+  };
+  const ySlots = slotPart(y);
+  return [y.map((v, t) => v - ySlots[t]), ...columns.map(slotPart)];
+}
+
 /**
- * One GLS step at the slot effects implied by `beta`: prewhiten y − s(y − Zβ) and the columns with the
- * ARMA filter and regress.
+ * One GLS step for fixed ARMA parameters: prewhiten the columns (with a constant) and every target, solve them
+ * all from one factorisation. Without slot effects β is the GLS solution for y; with them the fixed point of
+ * β ↦ c + Aβ (c from y − s(y), column j of A from s(z_j)). Standard errors: σ² times the β block of (Z̃ᵀZ̃)⁻¹.
  */
-function glsSolve(
-  y: Float64Array,
+function glsStep(
   columns: readonly Float64Array[],
-  beta: ArrayLike<number>,
-  slotEffects: SlotEffects | null,
+  targets: readonly Float64Array[],
   errors: FitResult,
-  whiteColumns?: Float64Array[],
 ): { beta: Float64Array; stderr: Float64Array } {
-  const { profile } = splitRemainder(y, columns, beta, slotEffects);
-  const target = profile && slotEffects ? y.map((v, t) => v - profile.effect[slotEffects.slots[t]]) : y;
-  const whiteTarget = armaResiduals(target, 0, errors.ar, errors.ma);
-  const white = whiteColumns ?? prewhitenColumns(columns, errors);
-  const solution = leastSquares(FN, white, whiteTarget);
   const k = columns.length;
+  const white = prewhitenColumns(columns, errors);
+  const solution = leastSquaresMany(
+    FN,
+    white,
+    targets.map((target) => armaResiduals(target, 0, errors.ar, errors.ma)),
+  );
   const stderr = Float64Array.from({ length: k }, (_, j) => Math.sqrt(errors.sigma2 * solution.unscaledCovariance[j][j]));
-  return { beta: solution.beta.subarray(0, k), stderr };
+  const c = solution.betas[0].subarray(0, k);
+  if (targets.length === 1) return { beta: Float64Array.from(c), stderr };
+  // (I − A) with column j of A the GLS coefficients of s(z_j).
+  const system = Array.from({ length: k }, (_, i) => Float64Array.from({ length: k }, (_, j) => (i === j ? 1 : 0) - solution.betas[j + 1][i]));
+  return { beta: solveSmall(system, c), stderr };
 }
 
 /**
@@ -151,28 +166,6 @@ function prewhitenColumns(columns: readonly Float64Array[], errors: FitResult): 
   const white = columns.map((z) => armaResiduals(z, 0, errors.ar, errors.ma));
   white.push(armaResiduals(new Float64Array(n).fill(1), 0, errors.ar, errors.ma));
   return white;
-}
-
-/** The fixed point of the affine map β ↦ GLS(y − s(y − Zβ)) for fixed ARMA parameters (see the file comment). */
-function glsFixedPoint(
-  y: Float64Array,
-  columns: readonly Float64Array[],
-  slotEffects: SlotEffects | null,
-  errors: FitResult,
-): Float64Array {
-  const k = columns.length;
-  const white = prewhitenColumns(columns, errors);
-  const c = glsSolve(y, columns, new Float64Array(k), slotEffects, errors, white).beta;
-  if (!slotEffects) return c;
-  // (I − A) with A e_j = map(e_j) − c.
-  const system = Array.from({ length: k }, () => new Float64Array(k));
-  for (let j = 0; j < k; j++) {
-    const unit = new Float64Array(k);
-    unit[j] = 1;
-    const image = glsSolve(y, columns, unit, slotEffects, errors, white).beta;
-    for (let i = 0; i < k; i++) system[i][j] = (i === j ? 1 : 0) - (image[i] - c[i]);
-  }
-  return solveSmall(system, c);
 }
 
 /** Solves a small dense system by Gaussian elimination with partial pivoting. */
