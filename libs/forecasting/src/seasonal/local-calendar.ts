@@ -58,17 +58,22 @@ export function localCalendar(timestamps: ArrayLike<number>, timeZone: string): 
   const hourOfWeek = new Uint16Array(n);
   const localDate = new Array<string>(n);
   const dates = new Map<number, string>();
+  // Hourly series pass through each local day 24 hours in a row: the last day's date string is kept at hand.
+  let lastDays = Number.NaN;
+  let lastDate = '';
   for (let i = 0; i < n; i++) {
     const local = timestamps[i] + offsetAt(timestamps[i]);
     const days = Math.floor(local / dayMs);
     const hour = Math.floor((local - days * dayMs) / hourMs);
     // 1970-01-01 was a Thursday, ISO weekday 3 with Monday = 0.
     const weekday = (((days + 3) % 7) + 7) % 7;
-    let date = dates.get(days);
+    let date = days === lastDays ? lastDate : dates.get(days);
     if (date === undefined) {
       date = new Date(days * dayMs).toISOString().slice(0, 10);
       dates.set(days, date);
     }
+    lastDays = days;
+    lastDate = date;
     hourOfDay[i] = hour;
     dayOfWeek[i] = weekday;
     hourOfWeek[i] = weekday * 24 + hour;
@@ -118,14 +123,21 @@ function offsetFinder(timeZone: string): (t: number) => number {
     steadyOffsets.set(timeZone, steadyByDay);
   }
   const days = steadyByDay;
+  // Consecutive instants mostly share a UTC day: its offset is kept at hand before asking the map.
+  let lastDay = Number.NaN;
+  let lastSteady: number | null = null;
   return (t) => {
     const utcDay = Math.floor(t / dayMs);
-    let steady = days.get(utcDay);
-    if (steady === undefined) {
-      const first = exact(utcDay * dayMs);
-      steady = first === exact(utcDay * dayMs + dayMs - minuteMs) ? first : null;
-      days.set(utcDay, steady);
+    if (utcDay !== lastDay) {
+      let steady = days.get(utcDay);
+      if (steady === undefined) {
+        const first = exact(utcDay * dayMs);
+        steady = first === exact(utcDay * dayMs + dayMs - minuteMs) ? first : null;
+        days.set(utcDay, steady);
+      }
+      lastDay = utcDay;
+      lastSteady = steady;
     }
-    return steady ?? exact(t);
+    return lastSteady ?? exact(t);
   };
 }
