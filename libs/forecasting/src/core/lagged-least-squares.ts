@@ -70,12 +70,13 @@ export function laggedLeastSquares(fn: string, x: ArrayLike<number>, p: number):
     for (let j = 1; j <= p; j++) gram[i * k + j] = lag[i * k + j];
   }
   const r = cholesky(gram, k);
-  if (!r || pivotRatio(r, k) > conditionLimit) return denseFallback(fn, x, p);
+  const ratio = r ? pivotRatio(r, k, gram) : Infinity;
+  if (!r || ratio > conditionLimit) return denseFallback(fn, x, p);
 
   const beta = solveNormal(r, k, rhs);
   const residuals = new Float64Array(m);
   computeResiduals(z, p, beta, residuals);
-  if (pivotRatio(r, k) > refineAbove) {
+  if (ratio > refineAbove) {
     const correction = solveNormal(r, k, transposeTimes(z, p, residuals));
     for (let i = 0; i < k; i++) beta[i] += correction[i];
     computeResiduals(z, p, beta, residuals);
@@ -126,12 +127,18 @@ function cholesky(a: Float64Array, k: number): Float64Array | null {
   return r;
 }
 
-/** Ratio of the largest to the smallest diagonal entry of R: a cheap lower bound on cond(X). */
-function pivotRatio(r: Float64Array, k: number): number {
+/**
+ * Ratio of the largest to the smallest diagonal entry of R after scaling each column of X to unit length
+ * (R_jj/√G_jj): a cheap lower bound on the condition number of the equilibrated design. Column scaling leaves
+ * the Cholesky solution's accuracy unchanged (van der Sluis 1969; Higham 2002, Accuracy and Stability of
+ * Numerical Algorithms, 2nd ed., §10.1), so the load's units (an intercept of 1 beside lags in MW or kW)
+ * must not count as ill-conditioning.
+ */
+function pivotRatio(r: Float64Array, k: number, gram: Float64Array): number {
   let largest = 0;
   let smallest = Infinity;
   for (let i = 0; i < k; i++) {
-    const d = Math.abs(r[i * k + i]);
+    const d = Math.abs(r[i * k + i]) / Math.sqrt(gram[i * k + i]);
     largest = Math.max(largest, d);
     smallest = Math.min(smallest, d);
   }
