@@ -73,18 +73,30 @@ export function buildLaggedDesign(fn: string, x: ArrayLike<number>, lagSet: read
   }
   if (!(responseSs > 0)) throw new ForecastingError('constant-series', fn, 'the series is constant after the first maxLag values');
 
+  // Each column is a window of x: its mean and sum of squares come from prefix sums of x centred on its own
+  // mean (so no window's sum of squares cancels badly), one pass in all instead of two per lag. A window whose
+  // spread is lost in rounding is measured again directly, which also tells a constant column exactly.
   const columnMeans = new Float64Array(k);
   const columnScales = new Float64Array(k);
+  const n = x.length;
+  let centre = 0;
+  for (let t = 0; t < n; t++) centre += x[t];
+  centre /= n;
+  const sums = new Float64Array(n + 1);
+  const squares = new Float64Array(n + 1);
+  for (let t = 0; t < n; t++) {
+    const z = x[t] - centre;
+    sums[t + 1] = sums[t] + z;
+    squares[t + 1] = squares[t] + z * z;
+  }
   for (let j = 0; j < k; j++) {
     const lag = lags[j];
-    let mean = 0;
-    for (let r = 0; r < rows; r++) mean += x[maxLag + r - lag];
-    mean /= rows;
-    let ss = 0;
-    for (let r = 0; r < rows; r++) {
-      const d = x[maxLag + r - lag] - mean;
-      ss += d * d;
-    }
+    const from = maxLag - lag;
+    const windowMean = (sums[from + rows] - sums[from]) / rows;
+    const windowSquares = squares[from + rows] - squares[from];
+    let mean = centre + windowMean;
+    let ss = windowSquares - rows * windowMean * windowMean;
+    if (!(ss > 1e-9 * windowSquares)) ({ mean, ss } = windowSpread(x, from, rows));
     const scale = Math.sqrt(ss / rows);
     if (!(scale > 0)) throw new ForecastingError('constant-series', fn, `the column at lag ${lag} is constant`);
     columnMeans[j] = mean;
@@ -105,4 +117,17 @@ export function buildLaggedDesign(fn: string, x: ArrayLike<number>, lagSet: read
       })),
   });
   return design;
+}
+
+/** Mean and sum of squared deviations of x[from … from + rows) by two passes. */
+function windowSpread(x: ArrayLike<number>, from: number, rows: number): { mean: number; ss: number } {
+  let mean = 0;
+  for (let r = 0; r < rows; r++) mean += x[from + r];
+  mean /= rows;
+  let ss = 0;
+  for (let r = 0; r < rows; r++) {
+    const d = x[from + r] - mean;
+    ss += d * d;
+  }
+  return { mean, ss };
 }

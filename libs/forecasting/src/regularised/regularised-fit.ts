@@ -136,9 +136,11 @@ export function assembleFit(
 
   const residuals = new Float64Array(x.length);
   let rss = 0;
+  // Only the kept lags: a benched lag adds an exact zero.
+  const terms = design.lags.filter((lag) => ar[lag - 1] !== 0);
   for (let t = design.maxLag; t < x.length; t++) {
     let fitted = intercept;
-    for (const lag of design.lags) fitted += ar[lag - 1] * x[t - lag];
+    for (const lag of terms) fitted += ar[lag - 1] * x[t - lag];
     const e = x[t] - fitted;
     residuals[t] = e;
     rss += e * e;
