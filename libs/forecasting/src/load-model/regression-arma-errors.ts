@@ -152,7 +152,9 @@ function glsStep(
   const c = solution.betas[0].subarray(0, k);
   if (targets.length === 1) return { beta: Float64Array.from(c), stderr };
   // (I − A) with column j of A the GLS coefficients of s(z_j).
-  const system = Array.from({ length: k }, (_, i) => Float64Array.from({ length: k }, (_, j) => (i === j ? 1 : 0) - solution.betas[j + 1][i]));
+  const system = Array.from({ length: k }, (_, i) =>
+    Float64Array.from({ length: k }, (_, j) => (i === j ? 1 : 0) - solution.betas[j + 1][i]),
+  );
   return { beta: solveSmall(system, c), stderr };
 }
 

@@ -9,7 +9,9 @@
  *   forecasts from the observed lags), as in Bergmeir, Hyndman & Koo (2018), Comput. Stat. Data Anal. 120,
  *   and Tashman (2000), Int. J. Forecasting 16(4).
  * Conventions: only λ whose full-series fit is stationary can be chosen; ties go to the larger λ (the sparser
- *   or more shrunk model), which the decreasing grid makes the first one met.
+ *   or more shrunk model), the earlier one on the decreasing grid. Stationarity (an O(p²) test, p = 168 with a
+ *   weekly lag) is checked from the best score up until a stationary fit is met, so the path marks the fits
+ *   scoring better than the chosen one non-stationary, the chosen one stationary and the rest unchecked (null).
  * @throws ForecastingError 'non-stationary' when no λ on the grid gives a stationary fit; 'too-few-observations'
  *   when the first validation block leaves too little to fit; 'invalid-argument' for bad fold settings.
  * References: Zou, Hastie & Tibshirani (2007); Bergmeir, Hyndman & Koo (2018); Tashman (2000).
@@ -47,22 +49,29 @@ export function selectPenalty(
   const selection = options.select ?? 'bic';
   const validationMse = selection === 'validation' ? rollingOriginMse(fn, x, design, grid, solvePath, options) : null;
   const solutions = solvePath(design, grid);
-  const path: PenaltyPathPoint[] = [];
-  let best = -1;
-  let bestScore = Infinity;
-  solutions.forEach((solution, i) => {
-    const { ar } = backTransform(design, solution.beta);
-    const stationary = isCausalAr(ar);
+  const bics = solutions.map((solution) => {
     const rss = solution.rss ?? residualSumOfSquares(design, solution.beta);
-    const bic = stationary && rss > 0 ? criteria(rss, design.rows, solution.df).bic : null;
-    const mse = validationMse ? validationMse[i] : null;
-    path.push({ lambda: solution.lambda, df: solution.df, bic, validationMse: mse, stationary });
-    const score = selection === 'validation' ? mse : bic;
-    if (stationary && score !== null && score < bestScore) {
-      bestScore = score;
-      best = i;
-    }
+    return rss > 0 ? criteria(rss, design.rows, solution.df).bic : null;
   });
+  const scores = selection === 'validation' ? validationMse! : bics;
+  const ranked = solutions.map((_, i) => i).filter((i) => scores[i] !== null);
+  ranked.sort((a, b) => scores[a]! - scores[b]! || a - b);
+  const stationary: Array<boolean | null> = solutions.map(() => null);
+  let best = -1;
+  for (const i of ranked) {
+    stationary[i] = isCausalAr(backTransform(design, solutions[i].beta).ar);
+    if (stationary[i]) {
+      best = i;
+      break;
+    }
+  }
+  const path: PenaltyPathPoint[] = solutions.map((solution, i) => ({
+    lambda: solution.lambda,
+    df: solution.df,
+    bic: stationary[i] === false ? null : bics[i],
+    validationMse: validationMse ? validationMse[i] : null,
+    stationary: stationary[i],
+  }));
   if (best < 0) {
     throw new ForecastingError(
       'non-stationary',

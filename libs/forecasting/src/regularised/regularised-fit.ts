@@ -41,12 +41,12 @@ export interface PenaltyPathPoint {
   lambda: number;
   /** Degrees of freedom of the penalised coefficients at this λ. */
   df: number;
-  /** BIC (k = df + 2) at this λ on the full series, or null when the fit is non-stationary. */
+  /** BIC (k = df + 2) at this λ on the full series, or null when the fit is non-stationary (or its RSS is 0). */
   bic: number | null;
   /** Mean squared one-step validation error, when selecting by validation. */
   validationMse: number | null;
-  /** Whether the fit on the full series is stationary. */
-  stationary: boolean;
+  /** Whether the fit on the full series is stationary; null when not checked (a better-scoring fit was stationary). */
+  stationary: boolean | null;
 }
 
 /** A ridge or lasso AR fit (engine.md's agreed shape plus what the penalty search saw). */
