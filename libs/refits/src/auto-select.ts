@@ -6,7 +6,8 @@
  *
  * Candidates, each estimated on all but the last `origins` × 24 hours:
  * - on the settings' own design (by default the hour-of-week profile with calendar regressors, AR(2)
- *   errors for the GLS step): AR by least squares (conditional MLE) with the order by AIC up to 6;
+ *   errors for the GLS step): AR by least squares (conditional MLE) with the order by AIC (Yule-Walker
+ *   likelihood, as R's `ar()`) up to 6;
  *   ridge AR over the daily and weekly lags 1–3, 24, 25, 168; lasso AR over lags 1–48 and 168 (the
  *   regularised wide-lag AR);
  * - on the weekly (168 h) and the daily (24 h) difference of the series and its regressors: AR by
@@ -32,7 +33,6 @@ import {
   levinsonDurbin,
   ljungBox,
   normalQuantile,
-  selectOrder,
   yuleWalker,
   type FitResult,
   type FittedLoadModel,
@@ -173,7 +173,7 @@ export function autoSelect(design: ModelDesign, data: LoadSeriesData, options: A
       key: 'profile-ls',
       label: (fit) => `AR(${fit.p}) by least squares`,
       method: 'cmle',
-      run: (u) => cmleAr(u, selectOrder(u, { method: 'yule-walker', maxP, criterion: 'aic' }).best.p),
+      run: (u) => cmleAr(u, yuleWalkerOrderByAic(u, maxP)),
     },
     {
       key: 'profile-ridge',
