@@ -23,8 +23,9 @@ export function dayTypeIndicators(
   const n = calendar.localDate.length;
   const saturday = new Float64Array(n);
   const sundayHoliday = new Float64Array(n);
+  const isHoliday = holidays ? holidayTest(holidays) : () => false;
   for (let i = 0; i < n; i++) {
-    if (calendar.dayOfWeek[i] === 6 || holidays?.has(calendar.localDate[i])) sundayHoliday[i] = 1;
+    if (calendar.dayOfWeek[i] === 6 || isHoliday(calendar.localDate[i])) sundayHoliday[i] = 1;
     else if (calendar.dayOfWeek[i] === 5) saturday[i] = 1;
   }
   return { saturday, sundayHoliday };
@@ -32,5 +33,19 @@ export function dayTypeIndicators(
 
 /** 0/1 regressor column: the observation's local date is a holiday. */
 export function holidayIndicator(calendar: LocalCalendar, holidays: ReadonlySet<string>): Float64Array {
-  return Float64Array.from(calendar.localDate, (date) => (holidays.has(date) ? 1 : 0));
+  const isHoliday = holidayTest(holidays);
+  return Float64Array.from(calendar.localDate, (date) => (isHoliday(date) ? 1 : 0));
+}
+
+/** holidays.has, remembering the last date asked: hourly dates come 24 in a row, so the set is asked once a day. */
+function holidayTest(holidays: ReadonlySet<string>): (date: string) => boolean {
+  let last: string | null = null;
+  let answer = false;
+  return (date) => {
+    if (date !== last) {
+      last = date;
+      answer = holidays.has(date);
+    }
+    return answer;
+  };
 }
