@@ -15,8 +15,10 @@
  * affine, β ↦ c + Aβ (the centred slot means s are linear: y − s(y − Zβ) = (y − s(y)) + Σ β_j s(z_j)), so its
  * fixed point β = (I − A)⁻¹c comes from one GLS factorisation with k + 1 right-hand sides instead of a slow
  * alternation; s(y) and s(z_j) do not depend on the ARMA part and are computed once. For CSS (nls) errors, step (3) minimises the same conditional sum of squares as step (2),
- * so the scheme is block-coordinate descent on the joint CSS. Stops when max |Δβ| ≤ 1e-8·(1 + max |β|),
- * at most 50 passes.
+ * so the scheme is block-coordinate descent on the joint CSS. Stops when the distance to the fixed point is
+ * at most 1e-8·(1 + max |β|): when max |Δβ| is, or when the a-posteriori bound of a contraction,
+ * q/(1 − q)·max |Δβ| with q the ratio of the last two steps (Banach fixed-point theorem; Ortega & Rheinboldt 1970,
+ * Iterative Solution of Nonlinear Equations in Several Variables, §12.1), is, once q < 0.5; at most 50 passes.
  *
  * Conventions: no intercept column in Z (μ carries the level; the GLS step estimates a constant beside β and
  * drops it, see prewhitenColumns); the slot effects are re-estimated by plain slot
@@ -73,6 +75,7 @@ export function fitRegressionArmaErrors(
   let beta: Float64Array = k > 0 ? initialOls(y, columns, slotEffects) : new Float64Array(0);
   let passes = 0;
   let converged = k === 0;
+  let previousChange = Number.NaN;
   for (;;) {
     passes++;
     const { profile, remainder } = splitRemainder(y, columns, beta, slotEffects);
@@ -89,7 +92,10 @@ export function fitRegressionArmaErrors(
       size = Math.max(size, Math.abs(next[j]));
     }
     beta = next;
-    converged = change <= TOLERANCE * (1 + size);
+    const tolerance = TOLERANCE * (1 + size);
+    const ratio = change / previousChange;
+    converged = change <= tolerance || (ratio < 0.5 && (change * ratio) / (1 - ratio) <= tolerance);
+    previousChange = change;
   }
 }
 
