@@ -7,7 +7,8 @@
  * pjm-east-2002.json names the source): 8 windows of 8,592 hours (358 days; the nightly default is 365
  * days, which this one-year fixture cannot give 8 times) ending at the last 8 midnights of 2002. Each
  * version runs in a process of its own (bench/support/refit-cpu-child.ts) from a checkout of its commit,
- * after two untimed warm-up fits, since a worker fits thousands of series in one warm process. The
+ * after eight untimed warm-up fits (one of each window), since a worker fits thousands of series in one warm
+ * process: what the nightly run pays is the steady state, and two warm-ups left the larger code half-compiled. The
  * versions take turns, round after round, so machine load falls on all of them alike; ratios are of
  * medians over rounds. CPU time (process.cpuUsage) is used, not wall time: other work on the shared
  * cores inflates wall time, far less CPU time.
@@ -34,6 +35,8 @@ const ENDS = Array.from({ length: 8 }, (_, k) => NIGHTLY_HOURS - 24 * (7 - k));
 const GOAL_SERIES = 10_000;
 const GOAL_MINUTES = 15;
 const CORES = 2;
+/** Untimed fits before the timed ones: one of each window. */
+const WARMUP_FITS = 8;
 
 /** A version of the refit to time. */
 interface Version {
@@ -61,7 +64,7 @@ function checkout(commit: string): string {
 function timePass(version: Version): Promise<WindowTiming[]> {
   const child = spawn(
     process.execPath,
-    ['--import', 'tsx', join(repoRoot, 'bench/support/refit-cpu-child.ts'), String(WINDOW_HOURS), ENDS.join(','), '2'],
+    ['--import', 'tsx', join(repoRoot, 'bench/support/refit-cpu-child.ts'), String(WINDOW_HOURS), ENDS.join(','), String(WARMUP_FITS)],
     { cwd: version.tree, stdio: ['ignore', 'pipe', 'inherit'] },
   );
   let out = '';

@@ -42,7 +42,7 @@ import {
 } from '@loadwright/forecasting';
 import { regularisedLags, seasonalNaiveSpec, type ModelDesign } from './model-plan';
 import { originForecaster, type OriginForecast } from './origin-forecast';
-import { extendModel, modelAtOrigin, type ExtendedModel } from './reanchor';
+import { extendModel, modelAtOrigin, sliceData, type ExtendedModel } from './reanchor';
 import { describeRefitError } from './refit-errors';
 
 /** Settings of the candidate comparison. */
@@ -435,11 +435,6 @@ function withArma(model: FittedLoadModel, fit: FitResult): FittedLoadModel {
     ...(regularised.lags ? { lags: regularised.lags, lambda: regularised.lambda } : {}),
   };
   return { ...model, spec, arma: fit, residuals: fit.residuals };
-}
-
-/** The first m hours of the data. */
-function sliceData(data: LoadSeriesData, m: number): LoadSeriesData {
-  return { timestamps: data.timestamps.subarray(0, m), values: data.values.subarray(0, m), temperature: data.temperature?.subarray(0, m) };
 }
 
 /** Mean absolute value. */

@@ -24,7 +24,7 @@ import {
   type LoadSeriesData,
 } from '@loadwright/forecasting';
 import { originForecaster } from './origin-forecast';
-import { extendModel, type ExtendedModel } from './reanchor';
+import { extendModel, sliceData, type ExtendedModel } from './reanchor';
 
 /** Fewest daily origins worth calibrating on (two weeks); below that the Gaussian band stays. */
 const MIN_ORIGINS = 14;
@@ -107,12 +107,7 @@ export function heldOutModel(
   const m = n - days * 24;
   if (model.seasonalNaive || m < 840) return null;
   try {
-    const sliced = {
-      timestamps: data.timestamps.subarray(0, m),
-      values: data.values.subarray(0, m),
-      temperature: data.temperature?.subarray(0, m),
-    };
-    return extendModel(estimate(model.spec, sliced), data);
+    return extendModel(estimate(model.spec, sliceData(data, m)), data);
   } catch {
     return null;
   }

@@ -10,6 +10,7 @@ import {
   fitLoadModel,
   forecastLoadModel,
   ljungBox,
+  localCalendar,
   yuleWalker,
   type FitResult,
   type FittedLoadModel,
@@ -50,6 +51,8 @@ export function fitSeriesModel(inputs: RefitInputs, holidays: HolidaySpec | null
     timestamps: window.timestamps,
     values: window.values,
     temperature: useTemperature ? temperature.training : undefined,
+    // Made once: every candidate, the backtests and the band calibration read the same hours' calendar.
+    calendar: localCalendar(window.timestamps, series.timeZone),
   };
 
   let at = performance.now();

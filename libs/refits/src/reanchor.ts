@@ -6,6 +6,7 @@
 import {
   armaResiduals,
   localCalendar,
+  sliceCalendar,
   logTransform,
   profileSlots,
   regressorColumns,
@@ -50,7 +51,10 @@ export function extendModel(fitted: FittedLoadModel, data: LoadSeriesData): Exte
   if (extra > 0) {
     const tail = spec.log ? logTransform(data.values.subarray(m)) : data.values.subarray(m);
     transformed.set(tail, m);
-    const calendar = localCalendar(data.timestamps.subarray(m), spec.timeZone);
+    const calendar =
+      data.calendar?.timeZone === spec.timeZone && data.calendar.hourOfDay.length === n
+        ? sliceCalendar(data.calendar, m, n)
+        : localCalendar(data.timestamps.subarray(m), spec.timeZone);
     const tailColumns = regressorColumns(spec, calendar, data.temperature?.subarray(m)).columns;
     regressors = fitted.regressors.map((column, j) => {
       const joined = new Float64Array(n);
@@ -98,5 +102,15 @@ export function modelAtOrigin(extended: ExtendedModel, origin: number): FittedLo
     transformed: extended.transformed.slice(0, origin),
     regressors: extended.regressors.map((column) => column.slice(0, origin)),
     remainder: extended.remainder.slice(0, cut),
+  };
+}
+
+/** The first m hours of the data (with its calendar, when it carries one). */
+export function sliceData(data: LoadSeriesData, m: number): LoadSeriesData {
+  return {
+    timestamps: data.timestamps.subarray(0, m),
+    values: data.values.subarray(0, m),
+    temperature: data.temperature?.subarray(0, m),
+    calendar: data.calendar && sliceCalendar(data.calendar, 0, m),
   };
 }

@@ -1,7 +1,7 @@
 import { ForecastingError, assertFinite } from '../core/errors';
 import type { FitResult } from '../core/types';
 import type { RegularisedFit } from '../regularised/regularised-fit';
-import { localCalendar } from '../seasonal/local-calendar';
+import { calendarOf } from '../seasonal/local-calendar';
 import { logTransform } from '../seasonal/log-transform';
 import { seasonalDifference } from '../seasonal/seasonal-difference';
 import {
@@ -39,7 +39,7 @@ export function fitLoadModel(spec: LoadModelSpec, data: LoadSeriesData): FittedL
   const lastTimestamp = data.timestamps[data.timestamps.length - 1];
   if (spec.method === 'seasonal-naive') return fitSeasonalNaiveModel(spec, transformed, lastTimestamp);
 
-  const calendar = localCalendar(data.timestamps, spec.timeZone);
+  const calendar = calendarOf(data, spec.timeZone);
   const regressors = regressorColumns(spec, calendar, data.temperature);
   let target: Float64Array = transformed;
   let columns = regressors.columns;

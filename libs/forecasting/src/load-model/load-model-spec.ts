@@ -1,3 +1,4 @@
+import type { LocalCalendar } from '../seasonal/local-calendar';
 import type { FitMethod, FitResult } from '../core/types';
 import type { PredictionInterval } from '../forecast/intervals';
 import type { HolidaySpec } from '../seasonal/holiday-calendar';
@@ -44,6 +45,8 @@ export interface LoadSeriesData {
   timestamps: Float64Array;
   values: Float64Array;
   temperature?: Float64Array;
+  /** The local calendar of `timestamps`, when the caller has it already; used only if made in the spec's zone (calendarOf). */
+  calendar?: LocalCalendar;
 }
 
 /** Inputs known (or forecast) for the forecast hours. */

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { ForecastingError } from '../core/errors';
-import { localCalendar } from './local-calendar';
+import { calendarOf, localCalendar, sliceCalendar } from './local-calendar';
 
 const HOUR = 3_600_000;
 /** Hourly UTC timestamps from an ISO instant. */
@@ -47,5 +47,25 @@ describe('localCalendar', () => {
 
   it('refuses an unknown zone', () => {
     expect(() => localCalendar([0], 'Mars/Olympus')).toThrow(ForecastingError);
+  });
+});
+
+describe('calendarOf', () => {
+  const start = Date.UTC(2026, 2, 7, 0); // the week of the spring-forward night in America/Chicago
+  const timestamps = Float64Array.from({ length: 48 * 4 }, (_, i) => start + i * 3_600_000);
+
+  it('uses a carried calendar only when it was made in the same zone for the same hours', () => {
+    const chicago = localCalendar(timestamps, 'America/Chicago');
+    expect(calendarOf({ timestamps, calendar: chicago }, 'America/Chicago')).toBe(chicago);
+    const elsewhere = calendarOf({ timestamps, calendar: chicago }, 'Europe/Berlin');
+    expect(elsewhere).not.toBe(chicago);
+    expect(elsewhere).toEqual(localCalendar(timestamps, 'Europe/Berlin'));
+    const shorter = calendarOf({ timestamps: timestamps.subarray(0, 24), calendar: chicago }, 'America/Chicago');
+    expect(shorter).toEqual(localCalendar(timestamps.subarray(0, 24), 'America/Chicago'));
+  });
+
+  it('slices to the calendar of the sliced hours', () => {
+    const whole = localCalendar(timestamps, 'America/Chicago');
+    expect(sliceCalendar(whole, 30, 90)).toEqual(localCalendar(timestamps.subarray(30, 90), 'America/Chicago'));
   });
 });

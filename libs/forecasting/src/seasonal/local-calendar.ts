@@ -10,6 +10,8 @@ export interface LocalCalendar {
   hourOfWeek: Uint16Array;
   /** Local calendar date as YYYY-MM-DD (for day types and holidays). */
   localDate: string[];
+  /** The IANA zone it was made in. */
+  timeZone: string;
 }
 
 const formatters = new Map<string, Intl.DateTimeFormat>();
@@ -79,7 +81,29 @@ export function localCalendar(timestamps: ArrayLike<number>, timeZone: string): 
     hourOfWeek[i] = weekday * 24 + hour;
     localDate[i] = date;
   }
-  return { hourOfDay, dayOfWeek, hourOfWeek, localDate };
+  return { hourOfDay, dayOfWeek, hourOfWeek, localDate, timeZone };
+}
+
+/**
+ * The calendar of `data`'s timestamps in `timeZone`: the one it carries when that is for this zone and length (a
+ * refit fits, extends and forecasts from the same hours many times, and computing the calendar is not free),
+ * else computed.
+ */
+export function calendarOf(data: { timestamps: ArrayLike<number>; calendar?: LocalCalendar }, timeZone: string): LocalCalendar {
+  const carried = data.calendar;
+  if (carried && carried.timeZone === timeZone && carried.hourOfDay.length === data.timestamps.length) return carried;
+  return localCalendar(data.timestamps, timeZone);
+}
+
+/** Hours start … end − 1 of a calendar (typed arrays shared, not copied). */
+export function sliceCalendar(calendar: LocalCalendar, start: number, end: number): LocalCalendar {
+  return {
+    hourOfDay: calendar.hourOfDay.subarray(start, end),
+    dayOfWeek: calendar.dayOfWeek.subarray(start, end),
+    hourOfWeek: calendar.hourOfWeek.subarray(start, end),
+    localDate: calendar.localDate.slice(start, end),
+    timeZone: calendar.timeZone,
+  };
 }
 
 const minuteMs = 60_000;
