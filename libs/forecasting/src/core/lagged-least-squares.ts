@@ -28,6 +28,8 @@ import { householderLeastSquares, type LeastSquaresSolution } from './householde
 const conditionLimit = 1e5;
 /** Below this ratio of pivots the centred semi-normal solution is already within ~1e-10 of QR (cond² · u ≲ 1e-10), so the refinement pass is skipped. */
 const refineAbove = 1e3;
+/** Leading zeros before the centred series, so every four-lag group reads inside the array. */
+const PAD = 3;
 
 /** Fits x_t on [1, x_{t−1}, …, x_{t−p}] for t = p+1..n. `fn` names the caller in errors. */
 export function laggedLeastSquares(fn: string, x: ArrayLike<number>, p: number): LeastSquaresSolution {
@@ -37,16 +39,31 @@ export function laggedLeastSquares(fn: string, x: ArrayLike<number>, p: number):
   let mean = 0;
   for (let t = 0; t < n; t++) mean += x[t];
   mean /= n;
-  const z = new Float64Array(n);
+  // z after PAD leading zeros: the four-lane loops below then need no case for a last, partial group of lags.
+  const padded = new Float64Array(n + PAD);
+  const z = padded.subarray(PAD);
   for (let t = 0; t < n; t++) z[t] = x[t] - mean;
 
-  // lag[a*(p+1)+b] = Σ_{r<m} z[r+p−a] z[r+p−b] for a, b = 0..p (a = 0 is the response).
+  // lag[a*(p+1)+b] = Σ_{r<m} z[r+p−a] z[r+p−b] for a, b = 0..p (a = 0 is the response): four lags per pass
+  // over the rows, each z_u loaded once for four products (the same sums, in the same order, as one lag a pass).
   const lag = new Float64Array(k * k);
-  for (let b = 0; b <= p; b++) {
-    let s = 0;
-    for (let r = 0, u = p, v = p - b; r < m; r++, u++, v++) s += z[u] * z[v];
-    lag[b] = s;
-    lag[b * k] = s;
+  for (let b = 0; b <= p; b += 4) {
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
+    for (let u = p + PAD, v = p - b + PAD, end = n + PAD; u < end; u++, v++) {
+      const a = padded[u];
+      s0 += a * padded[v];
+      s1 += a * padded[v - 1];
+      s2 += a * padded[v - 2];
+      s3 += a * padded[v - 3];
+    }
+    const lanes = [s0, s1, s2, s3];
+    for (let j = 0; j < 4 && b + j <= p; j++) {
+      lag[b + j] = lanes[j];
+      lag[(b + j) * k] = lanes[j];
+    }
   }
   for (let a = 0; a < p; a++) {
     for (let b = a; b < p; b++) {
@@ -75,11 +92,11 @@ export function laggedLeastSquares(fn: string, x: ArrayLike<number>, p: number):
 
   const beta = solveNormal(r, k, rhs);
   const residuals = new Float64Array(m);
-  computeResiduals(z, p, beta, residuals);
+  computeResiduals(padded, p, beta, residuals);
   if (ratio > refineAbove) {
     const correction = solveNormal(r, k, transposeTimes(z, p, residuals));
     for (let i = 0; i < k; i++) beta[i] += correction[i];
-    computeResiduals(z, p, beta, residuals);
+    computeResiduals(padded, p, beta, residuals);
   }
   let rss = 0;
   for (let i = 0; i < m; i++) rss += residuals[i] * residuals[i];
@@ -161,13 +178,21 @@ function solveNormal(r: Float64Array, k: number, b: Float64Array): Float64Array 
   return w;
 }
 
-/** residuals[r] = z[r+p] − β₀ − Σ β_i z[r+p−i]. */
-function computeResiduals(z: Float64Array, p: number, beta: Float64Array, residuals: Float64Array): void {
+/**
+ * residuals[r] = z[r+p] − β₀ − Σ β_i z[r+p−i], with z after PAD leading zeros in `padded`: four lags per pass,
+ * subtracted in order of i as one lag a pass would (lanes beyond p carry β = 0).
+ */
+function computeResiduals(padded: Float64Array, p: number, beta: Float64Array, residuals: Float64Array): void {
   const m = residuals.length;
-  for (let r = 0; r < m; r++) residuals[r] = z[r + p] - beta[0];
-  for (let i = 1; i <= p; i++) {
-    const b = beta[i];
-    for (let r = 0, v = p - i; r < m; r++, v++) residuals[r] -= b * z[v];
+  for (let r = 0; r < m; r++) residuals[r] = padded[r + p + PAD] - beta[0];
+  for (let i = 1; i <= p; i += 4) {
+    const b0 = beta[i];
+    const b1 = i + 1 <= p ? beta[i + 1] : 0;
+    const b2 = i + 2 <= p ? beta[i + 2] : 0;
+    const b3 = i + 3 <= p ? beta[i + 3] : 0;
+    for (let r = 0, v = p - i + PAD; r < m; r++, v++) {
+      residuals[r] = residuals[r] - b0 * padded[v] - b1 * padded[v - 1] - b2 * padded[v - 2] - b3 * padded[v - 3];
+    }
   }
 }
 
