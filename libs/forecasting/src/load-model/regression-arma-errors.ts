@@ -117,24 +117,34 @@ function splitRemainder(
 /** OLS start: with slot effects, regress within-slot demeaned y on within-slot demeaned Z (FWL); else with an intercept. */
 function initialOls(y: Float64Array, columns: readonly Float64Array[], slotEffects: SlotEffects | null): Float64Array {
   const sweep = (v: Float64Array): Float64Array => {
+    const out = new Float64Array(v.length);
     if (!slotEffects) {
-      const mean = v.reduce((a, b) => a + b, 0) / v.length;
-      return v.map((value) => value - mean);
+      let mean = 0;
+      for (let t = 0; t < v.length; t++) mean += v[t];
+      mean /= v.length;
+      for (let t = 0; t < v.length; t++) out[t] = v[t] - mean;
+      return out;
     }
-    const profile = estimateSeasonalProfile(v, slotEffects.slots, slotEffects.slot, 'additive');
-    return v.map((value, t) => value - profile.level - profile.effect[slotEffects.slots[t]]);
+    const { level, effect } = estimateSeasonalProfile(v, slotEffects.slots, slotEffects.slot, 'additive');
+    const slots = slotEffects.slots;
+    for (let t = 0; t < v.length; t++) out[t] = v[t] - level - effect[slots[t]];
+    return out;
   };
   return leastSquares(FN, columns.map(sweep), sweep(y)).beta;
 }
 
 /** The GLS responses with slot effects: y − s(y), then s(z_j) for each column (s = the centred slot means, per hour). */
 function glsTargets(y: Float64Array, columns: readonly Float64Array[], slotEffects: SlotEffects): Float64Array[] {
+  const slots = slotEffects.slots;
   const slotPart = (v: Float64Array): Float64Array => {
-    const profile = estimateSeasonalProfile(v, slotEffects.slots, slotEffects.slot, 'additive');
-    return Float64Array.from(v, (_, t) => profile.effect[slotEffects.slots[t]]);
+    const { effect } = estimateSeasonalProfile(v, slots, slotEffects.slot, 'additive');
+    const out = new Float64Array(v.length);
+    for (let t = 0; t < v.length; t++) out[t] = effect[slots[t]];
+    return out;
   };
-  const ySlots = slotPart(y);
-  return [y.map((v, t) => v - ySlots[t]), ...columns.map(slotPart)];
+  const base = slotPart(y);
+  for (let t = 0; t < y.length; t++) base[t] = y[t] - base[t];
+  return [base, ...columns.map(slotPart)];
 }
 
 /**
