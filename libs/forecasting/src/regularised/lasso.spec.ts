@@ -10,7 +10,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { lassoAr, lassoLambdaMax, softThreshold } from './lasso';
+import { lassoAr, lassoLambdaMax, lassoPath, softThreshold } from './lasso';
 import { buildLaggedDesign } from './lagged-design';
 import { ridgeAr } from './ridge';
 import { simulateSparseAr } from './simulated-ar.testing';
@@ -37,6 +37,22 @@ function kktGradient(x: ArrayLike<number>, lags: number[], ar: number[]): { beta
   const sdY = Math.sqrt(y.reduce((s, v) => s + (v - yMean) ** 2, 0) / m);
   return { beta, gradient, sdY };
 }
+
+describe('lassoPath', () => {
+  it('works from the Gram matrix of lag shifts without making the standardised columns (3 MB for lags 1–48, 168 of a year)', () => {
+    const x = simulateSparseAr({ 1: 0.5, 2: 0.2, 24: 0.2 }, 3000, 5);
+    const design = buildLaggedDesign('test', x, [1, 2, 3, 24, 168]);
+    const guarded = new Proxy(design, {
+      get(target, property, receiver) {
+        if (property === 'columns') throw new Error('the columns were made');
+        return Reflect.get(target, property, receiver);
+      },
+    });
+    const path = lassoPath(guarded, [lassoLambdaMax(design) / 2, lassoLambdaMax(design) / 20], {}, x);
+    expect(path.map((s) => s.df)).toEqual([...path.map((s) => s.df)].sort((a, b) => a - b));
+    expect(path[1].df).toBeGreaterThan(0);
+  });
+});
 
 describe('lassoAr', () => {
   it('at λ = 0 reproduces R lm on lagged lh values (AR(3) least squares) to 1e-8', () => {

@@ -106,7 +106,7 @@ export function lassoPath(
   options: Pick<LassoArOptions, 'tolerance' | 'maxIterations'> = {},
   series?: ArrayLike<number>,
 ): LassoSolution[] {
-  const k = design.columns.length;
+  const k = design.lags.length;
   const m = design.rows;
   const { gram, covariance } = gramCache.get(design) ?? (series ? laggedGram(design, series) : columnGram(design)); // c = Zᵀy/m, the gradient at β = 0
   const gradient = Float64Array.from(covariance);
