@@ -182,7 +182,20 @@ function glsStep(
 function prewhitenColumns(columns: readonly Float64Array[], errors: FitResult): Float64Array[] {
   const n = columns.length > 0 ? columns[0].length : 0;
   const white = columns.map((z) => armaResiduals(z, 0, errors.ar, errors.ma));
-  white.push(armaResiduals(new Float64Array(n).fill(1), 0, errors.ar, errors.ma));
+  white.push(errors.ma.length === 0 ? whiteConstantAr(n, errors.ar) : armaResiduals(new Float64Array(n).fill(1), 0, errors.ar, errors.ma));
+  return white;
+}
+
+/**
+ * The constant prewhitened by a pure AR filter, as armaResiduals makes it without a pass over the hours: 0 for
+ * the first p hours, then 1 − φ_1 − φ_2 − … (subtracted in the same order, so the same bits).
+ */
+function whiteConstantAr(n: number, ar: ArrayLike<number>): Float64Array {
+  const p = ar.length;
+  let value = 1;
+  for (let i = 0; i < p; i++) if (ar[i] !== 0) value -= ar[i];
+  const white = new Float64Array(n);
+  if (p < n) white.fill(value, p);
   return white;
 }
 
