@@ -23,11 +23,24 @@ export function armaResiduals(x: ArrayLike<number>, mean: number, ar: ArrayLike<
   assertFinite('armaResiduals', ar, 'ar coefficients');
   assertFinite('armaResiduals', ma, 'ma coefficients');
   if (!Number.isFinite(mean)) throw new ForecastingError('non-finite-input', 'armaResiduals', `mean is ${mean}`);
-  const n = x.length;
+  const w = new Float64Array(x.length);
+  for (let t = 0; t < x.length; t++) w[t] = x[t] - mean;
+  return filterResiduals(w, ar, ma);
+}
+
+/**
+ * armaResiduals of a series already centred (mean 0) and known to be finite, as the GLS steps prewhiten their own
+ * columns many times per fit: the same recursion without the checks and the centring copy.
+ */
+export function prewhiten(w: Float64Array, ar: ArrayLike<number>, ma: ArrayLike<number>): Float64Array {
+  return filterResiduals(w, ar, ma);
+}
+
+/** The CSS recursion on the centred series w (see armaResiduals). */
+function filterResiduals(w: Float64Array, ar: ArrayLike<number>, ma: ArrayLike<number>): Float64Array {
+  const n = w.length;
   const p = ar.length;
   const q = ma.length;
-  const w = new Float64Array(n);
-  for (let t = 0; t < n; t++) w[t] = x[t] - mean;
   const theta = Float64Array.from(ma);
   const e = new Float64Array(n);
   // Only the non-zero φ_i, in order: a wide-lag AR (lags 1–48 and 168 of 168) is mostly zeros, and skipping an

@@ -32,8 +32,8 @@
  * References: Brockwell & Davis (2016) §6.6; Cochrane & Orcutt (1949); Davidson & MacKinnon (2004),
  * Econometric Theory and Methods, §7.8 (iterated feasible GLS with AR errors).
  */
-import { armaResiduals } from '../core/arma-filter';
-import { ForecastingError } from '../core/errors';
+import { armaResiduals, prewhiten } from '../core/arma-filter';
+import { assertFinite, ForecastingError } from '../core/errors';
 import type { FitResult } from '../core/types';
 import { estimateSeasonalProfile, type ProfileSlot, type SeasonalProfile } from '../seasonal/seasonal-profile';
 import { leastSquares, leastSquaresMany } from './least-squares';
@@ -71,6 +71,9 @@ export function fitRegressionArmaErrors(
   slotEffects: SlotEffects | null = null,
 ): RegressionArmaFit {
   const k = columns.length;
+  // Checked once here: the GLS steps prewhiten these many times without checking again.
+  assertFinite(FN, y);
+  columns.forEach((column, j) => assertFinite(FN, column, `regressor ${j}`));
   const targets = slotEffects && k > 0 ? glsTargets(y, columns, slotEffects) : [y];
   let beta: Float64Array = k > 0 ? initialOls(y, columns, slotEffects) : new Float64Array(0);
   let passes = 0;
@@ -162,7 +165,7 @@ function glsStep(
   const solution = leastSquaresMany(
     FN,
     white,
-    targets.map((target) => armaResiduals(target, 0, errors.ar, errors.ma)),
+    targets.map((target) => prewhiten(target, errors.ar, errors.ma)),
   );
   const stderr = Float64Array.from({ length: k }, (_, j) => Math.sqrt(errors.sigma2 * solution.unscaledCovariance[j][j]));
   const c = solution.betas[0].subarray(0, k);
@@ -181,7 +184,7 @@ function glsStep(
  */
 function prewhitenColumns(columns: readonly Float64Array[], errors: FitResult): Float64Array[] {
   const n = columns.length > 0 ? columns[0].length : 0;
-  const white = columns.map((z) => armaResiduals(z, 0, errors.ar, errors.ma));
+  const white = columns.map((z) => prewhiten(z, errors.ar, errors.ma));
   white.push(errors.ma.length === 0 ? whiteConstantAr(n, errors.ar) : armaResiduals(new Float64Array(n).fill(1), 0, errors.ar, errors.ma));
   return white;
 }
