@@ -14,10 +14,9 @@
 import type { ForecastBands } from '@loadwright/contracts';
 import {
   applyBands,
-  calibrateBands,
+  calibrateBandColumns,
   fitLoadModel,
   localCalendar,
-  type BandScore,
   type FittedLoadModel,
   type LoadForecast,
   type LoadModelSpec,
@@ -61,22 +60,28 @@ export function calibrateForecast(
   if (!heldOut || origins.length < MIN_ORIGINS) {
     return gaussian(`the history is too short to hold out ${MIN_ORIGINS} days for calibration: Gaussian ψ-weight band`);
   }
-  const scores: BandScore[] = [];
-  const forecastFrom = originForecaster(heldOut, horizon);
-  const hourOfDay = localCalendar(data.timestamps, model.spec.timeZone).hourOfDay;
+  // The scores column by column (no object per score), from the one calendar of the data.
+  const calendar = localCalendar(data.timestamps, model.spec.timeZone);
+  const hourOfDay = calendar.hourOfDay;
+  const forecastFrom = originForecaster(heldOut, horizon, calendar);
+  const z = new Float64Array(origins.length * horizon);
+  const ahead = new Int32Array(z.length);
+  const scoreHour = new Uint8Array(z.length);
+  let count = 0;
   for (const origin of origins) {
-    const ahead = Math.min(horizon, n - origin);
-    const past = forecastFrom(origin, ahead);
-    for (let h = 0; h < ahead; h++) {
-      // The held-out model's transformed series is the load (or its log) over all of the data.
-      const actual = heldOut.transformed[origin + h];
+    const steps = Math.min(horizon, n - origin);
+    const past = forecastFrom(origin, steps);
+    for (let h = 0; h < steps; h++) {
       const s = past.se[h];
       if (!(s > 0)) continue;
-      scores.push({ horizon: h + 1, hourOfDay: hourOfDay[origin + h], z: (actual - past.mean[h]) / s });
+      // The held-out model's transformed series is the load (or its log) over all of the data.
+      z[count] = (heldOut.transformed[origin + h] - past.mean[h]) / s;
+      ahead[count] = h + 1;
+      scoreHour[count++] = hourOfDay[origin + h];
     }
   }
-  const calibration = calibrateBands(scores, levels);
-  if (!calibration) return gaussian(`too few out-of-sample errors to calibrate on (${scores.length}): Gaussian ψ-weight band`);
+  const calibration = calibrateBandColumns(z.subarray(0, count), ahead.subarray(0, count), scoreHour.subarray(0, count), levels);
+  if (!calibration) return gaussian(`too few out-of-sample errors to calibrate on (${count}): Gaussian ψ-weight band`);
   const hours = localCalendar(forecast.timestamps, model.spec.timeZone).hourOfDay;
   const intervals = applyBands(calibration, forecast.modelScale.mean, forecast.modelScale.se, hours, model.spec.log ? Math.exp : undefined);
   return {

@@ -10,62 +10,88 @@
  * remainder_t with an additive or no profile, transformed_t / s_t − remainder_t before multiplying by the
  * multiplicative profile s_t, and x_t − x_{t−L} − remainder_t (the differenced regression) under seasonal
  * differencing, which is then integrated from the origin as forecastLoadModel does. The ARMA part is
- * forecastArma on the last values and residuals before the origin; the standard errors come from the
- * ψ-weights (of φ(B)(1 − B^L) with differencing), the same for every origin. Equal to forecastLoadModel
- * to rounding (origin-forecast.spec.ts).
+ * forecastArma's conditional means on the last values and residuals before the origin; the standard errors
+ * come from the ψ-weights (of φ(B)(1 − B^L) with differencing), the same for every origin, so they are computed
+ * once per forecaster (times the slot effect of each hour under a multiplicative profile). Equal to
+ * forecastLoadModel to rounding (origin-forecast.spec.ts).
  */
-import { arWithSeasonalDifference, forecastArma, localCalendar, profileSlots, psiWeights } from '@loadwright/forecasting';
+import {
+  arWithSeasonalDifference,
+  forecastArmaMean,
+  forecastArmaSe,
+  localCalendar,
+  profileSlots,
+  psiWeights,
+  type LocalCalendar,
+} from '@loadwright/forecasting';
 import type { ExtendedModel } from './reanchor';
 
-/** Centre and standard error on the modelling scale (log load for a model on logs) of hours origin … origin + ahead − 1. */
+/**
+ * Centre and standard error on the modelling scale (log load for a model on logs) of hours origin … origin + ahead − 1.
+ * `se` may be a view shared by every origin: read it, never write it.
+ */
 export interface OriginForecast {
   mean: Float64Array;
   se: Float64Array;
 }
 
-/** A function forecasting up to `horizon` hours from any origin of `extended`'s data (origin ≥ its estimation hours, origin + ahead ≤ its length). */
-export function originForecaster(extended: ExtendedModel, horizon: number): (origin: number, ahead: number) => OriginForecast {
+/**
+ * A function forecasting up to `horizon` hours from any origin of `extended`'s data (origin ≥ its estimation hours,
+ * origin + ahead ≤ its length). `calendar`, the local calendar of `extended.data`, saves rebuilding it when the caller has it.
+ */
+export function originForecaster(
+  extended: ExtendedModel,
+  horizon: number,
+  calendar?: LocalCalendar,
+): (origin: number, ahead: number) => OriginForecast {
   const { spec, arma, profile } = extended.fitted;
   if (!arma) throw new Error('originForecaster needs a model with an ARMA part');
   const { transformed, remainder, residuals, remainderOffset } = extended;
   const seasonal = spec.seasonal;
   const lag = seasonal.kind === 'difference' ? seasonal.lag : 0;
-  const slots = profile ? profileSlots(localCalendar(extended.data.timestamps, spec.timeZone), profile.slot) : null;
+  const slots = profile ? profileSlots(calendar ?? localCalendar(extended.data.timestamps, spec.timeZone), profile.slot) : null;
   const multiplicative = profile !== null && profile.form === 'multiplicative';
   // The ARMA recursion needs only the last p values and the last q residuals.
   const reach = Math.max(arma.ar.length, arma.ma.length, 1);
-  let differencedSe: Float64Array | null = null;
+  // The standard errors depend on the horizon only: of the ARMA part, or of φ(B)(1 − B^L) under differencing.
+  let se: Float64Array;
   if (lag > 0) {
     const psi = psiWeights(arWithSeasonalDifference(arma.ar, lag), arma.ma, horizon);
-    differencedSe = new Float64Array(horizon);
+    se = new Float64Array(horizon);
     let sum = 0;
     for (let h = 0; h < horizon; h++) {
       sum += psi[h] * psi[h];
-      differencedSe[h] = Math.sqrt(arma.sigma2 * sum);
+      se[h] = Math.sqrt(arma.sigma2 * sum);
     }
+  } else {
+    se = forecastArmaSe(arma, horizon);
   }
   return (origin, ahead) => {
     const cut = origin - remainderOffset;
     const from = Math.max(0, cut - reach);
-    const part = forecastArma(arma, remainder.subarray(from, cut), ahead, residuals.subarray(from, cut));
+    const part = forecastArmaMean(arma, remainder.subarray(from, cut), ahead, residuals.subarray(from, cut));
     const mean = new Float64Array(ahead);
-    const se = new Float64Array(ahead);
-    for (let h = 0; h < ahead; h++) {
-      const t = origin + h;
-      if (lag > 0) {
+    if (lag > 0) {
+      for (let h = 0; h < ahead; h++) {
+        const t = origin + h;
         const regression = transformed[t] - transformed[t - lag] - remainder[cut + h];
-        mean[h] = (h < lag ? transformed[t - lag] : mean[h - lag]) + regression + part.mean[h];
-        se[h] = differencedSe![h];
-      } else if (multiplicative) {
-        const effect = profile.effect[slots![t]];
-        mean[h] = (transformed[t] / effect - remainder[cut + h] + part.mean[h]) * effect;
-        se[h] = part.se[h] * effect;
-      } else {
-        // No profile, or an additive one: transformed − remainder is the profile plus the regression.
-        mean[h] = transformed[t] - remainder[cut + h] + part.mean[h];
-        se[h] = part.se[h];
+        mean[h] = (h < lag ? transformed[t - lag] : mean[h - lag]) + regression + part[h];
       }
+      return { mean, se: se.subarray(0, ahead) };
     }
-    return { mean, se };
+    if (multiplicative) {
+      // The multiplicative profile scales the centre and the standard error of each hour by its slot effect.
+      const scaled = new Float64Array(ahead);
+      for (let h = 0; h < ahead; h++) {
+        const t = origin + h;
+        const effect = profile.effect[slots![t]];
+        mean[h] = (transformed[t] / effect - remainder[cut + h] + part[h]) * effect;
+        scaled[h] = se[h] * effect;
+      }
+      return { mean, se: scaled };
+    }
+    // No profile, or an additive one: transformed − remainder is the profile plus the regression.
+    for (let h = 0; h < ahead; h++) mean[h] = transformed[origin + h] - remainder[cut + h] + part[h];
+    return { mean, se: se.subarray(0, ahead) };
   };
 }

@@ -20,11 +20,17 @@
  */
 import { ForecastingError } from '../core/errors';
 import type { PredictionInterval } from './intervals';
+import { selectOrderStatistics } from './order-statistics';
 
 /** Upper ends (inclusive, hours ahead) of the horizon bands; the last is open. */
 export const HORIZON_BANDS = [24, 48, 96, 168] as const;
 /** Hours of day per block (six blocks). */
 const BLOCK_HOURS = 4;
+/** Hour-of-day blocks per horizon band, and cells in all. */
+const BLOCKS = 24 / BLOCK_HOURS;
+const CELLS = HORIZON_BANDS.length * BLOCKS;
+/** Cell mark of a non-finite score. */
+const LEFT_OUT = 255;
 /** Fewest scores a cell may be calibrated on. */
 export const MIN_CELL_SCORES = 80;
 
@@ -54,10 +60,11 @@ export interface BandCalibration {
   scores: number;
 }
 
-/** Index of the horizon band of hour h (1-based). */
+/** Index of the horizon band of hour h (1-based); hours past the last upper end (or not a number) fall in the last band. */
 export function horizonBand(h: number): number {
-  const i = HORIZON_BANDS.findIndex((upper) => h <= upper);
-  return i < 0 ? HORIZON_BANDS.length - 1 : i;
+  let band = 0;
+  while (band < HORIZON_BANDS.length - 1 && !(h <= HORIZON_BANDS[band])) band++;
+  return band;
 }
 
 /**
@@ -70,15 +77,20 @@ export function conformalQuantiles(z: ArrayLike<number>, level: number): { lower
   return sortedConformalQuantiles(Float64Array.from(z).sort(), level);
 }
 
-/** conformalQuantiles of scores already sorted in increasing order (one sort serves every level). */
+/** conformalQuantiles of scores already sorted in increasing order. */
 function sortedConformalQuantiles(sorted: Float64Array, level: number): { lower: number; upper: number } | null {
-  const n = sorted.length;
+  const ranks = conformalRanks(sorted.length, level);
+  return ranks && { lower: sorted[ranks.lower], upper: sorted[ranks.upper] };
+}
+
+/** The 0-based ranks of the conformal quantiles among n scores at `level`, or null when n is too small for them. */
+function conformalRanks(n: number, level: number): { lower: number; upper: number } | null {
   // (n + 1)·α/2 with α/2 = (100 − level)/200, guarded against rounding (20 × 0.1 must give 2, not 1.999…).
   const tail = (n + 1) * ((100 - level) / 200);
   const lo = Math.floor(tail + 1e-9);
   const hi = Math.ceil(n + 1 - tail - 1e-9);
   if (lo < 1 || hi > n) return null;
-  return { lower: sorted[lo - 1], upper: sorted[hi - 1] };
+  return { lower: lo - 1, upper: hi - 1 };
 }
 
 /**
@@ -86,50 +98,112 @@ function sortedConformalQuantiles(sorted: Float64Array, level: number): { lower:
  * too few (the caller keeps the Gaussian ψ-weight band).
  */
 export function calibrateBands(scores: readonly BandScore[], levels: readonly number[]): BandCalibration | null {
-  for (const level of levels) {
-    if (!(level > 0 && level < 100))
-      throw new ForecastingError('invalid-argument', 'calibrateBands', `level must lie in (0, 100), got ${level}`);
+  checkLevels('calibrateBands', levels);
+  const z = new Float64Array(scores.length);
+  const horizon = new Float64Array(scores.length);
+  const hourOfDay = new Float64Array(scores.length);
+  for (let i = 0; i < scores.length; i++) {
+    z[i] = scores[i].z;
+    horizon[i] = scores[i].horizon;
+    hourOfDay[i] = scores[i].hourOfDay;
   }
-  const blocks = 24 / BLOCK_HOURS;
-  // One pass sorts the finite scores into their cells; each pool is then sorted once for every level.
-  const all: number[] = [];
-  const byBand: number[][] = HORIZON_BANDS.map(() => []);
-  const byCell: number[][][] = HORIZON_BANDS.map(() => Array.from({ length: blocks }, () => []));
-  for (const s of scores) {
-    if (!Number.isFinite(s.z)) continue;
-    const band = horizonBand(s.horizon);
-    all.push(s.z);
-    byBand[band].push(s.z);
-    byCell[band][Math.floor(s.hourOfDay / BLOCK_HOURS)].push(s.z);
-  }
-  const fit = (z: number[]): BandQuantiles[] | null => {
-    if (z.length < MIN_CELL_SCORES) return null;
-    const sorted = Float64Array.from(z).sort();
-    const out: BandQuantiles[] = [];
-    for (const level of levels) {
-      const q = sortedConformalQuantiles(sorted, level);
-      if (!q) return null;
-      out.push({ level, ...q });
+  return calibrateBandColumns(z, horizon, hourOfDay, levels);
+}
+
+/**
+ * calibrateBands on scores given column by column: score i is z[i] at horizon[i] hours ahead (1-based)
+ * and local hour of day hourOfDay[i]. Non-finite scores are left out.
+ *
+ * Cost: each score is placed once into its cell, and a pool's quantiles are its order statistics at the
+ * levels' ranks, found by selection in place (order-statistics.ts) rather than by sorting it: the cells
+ * always, a horizon band (its cells side by side) or all scores only when a cell has to pool them. Whether
+ * all scores suffice depends on their number alone.
+ */
+export function calibrateBandColumns(
+  z: ArrayLike<number>,
+  horizon: ArrayLike<number>,
+  hourOfDay: ArrayLike<number>,
+  levels: readonly number[],
+): BandCalibration | null {
+  const fn = 'calibrateBandColumns';
+  checkLevels(fn, levels);
+  const n = z.length;
+  if (horizon.length !== n || hourOfDay.length !== n)
+    throw new ForecastingError(
+      'invalid-argument',
+      fn,
+      `needs as many horizons and hours of day as scores (${n}), got ${horizon.length} and ${hourOfDay.length}`,
+    );
+  // Count the finite scores of each cell (cell = band · BLOCKS + block), then place them cell by cell.
+  const cellOf = new Uint8Array(n);
+  const offsets = new Int32Array(CELLS + 1);
+  for (let i = 0; i < n; i++) {
+    if (!Number.isFinite(z[i])) {
+      cellOf[i] = LEFT_OUT;
+      continue;
     }
-    return out;
+    const block = Math.floor(hourOfDay[i] / BLOCK_HOURS);
+    if (!(block >= 0 && block < BLOCKS))
+      throw new ForecastingError('invalid-argument', fn, `hour of day must lie in 0..23, got ${hourOfDay[i]} at index ${i}`);
+    const cell = horizonBand(horizon[i]) * BLOCKS + block;
+    cellOf[i] = cell;
+    offsets[cell + 1]++;
+  }
+  for (let cell = 0; cell < CELLS; cell++) offsets[cell + 1] += offsets[cell];
+  const total = offsets[CELLS];
+  const placed = new Float64Array(total);
+  const next = offsets.slice(0, CELLS);
+  for (let i = 0; i < n; i++) if (cellOf[i] !== LEFT_OUT) placed[next[cellOf[i]]++] = z[i];
+
+  // Quantiles of placed[from..to). Selection reorders inside the range only, so the cells are done first,
+  // then the bands that a cell has to pool (each inside its own range), then all scores if still needed.
+  const fit = (from: number, to: number): BandQuantiles[] | null => {
+    const ranks = poolRanks(to - from, levels);
+    if (!ranks) return null;
+    const wanted = [...new Set(ranks.flatMap((r) => [r.lower, r.upper]))].sort((a, b) => a - b);
+    const values = selectOrderStatistics(placed.subarray(from, to), wanted);
+    const at = (rank: number) => values[wanted.indexOf(rank)];
+    return levels.map((level, li) => ({ level, lower: at(ranks[li].lower), upper: at(ranks[li].upper) }));
   };
-  const overall = fit(all);
-  if (!overall) return null;
+  if (!poolRanks(total, levels)) return null;
+  const own = Array.from({ length: CELLS }, (_, cell) => fit(offsets[cell], offsets[cell + 1]));
+  const bandQuantiles = HORIZON_BANDS.map((_, band) =>
+    own.slice(band * BLOCKS, (band + 1) * BLOCKS).every(Boolean) ? null : fit(offsets[band * BLOCKS], offsets[(band + 1) * BLOCKS]),
+  );
+  let overall: BandQuantiles[] | null = null;
   const cells: BandCalibration['cells'] = [];
   for (let band = 0; band < HORIZON_BANDS.length; band++) {
-    const inBand = byBand[band];
-    const bandQuantiles = fit(inBand);
+    const inBand = offsets[(band + 1) * BLOCKS] - offsets[band * BLOCKS];
     const row: BandCalibration['cells'][number] = [];
-    for (let block = 0; block < blocks; block++) {
-      const inCell = byCell[band][block];
-      const own = fit(inCell);
-      if (own) row.push({ quantiles: own, scores: inCell.length, pooled: 'cell' });
-      else if (bandQuantiles) row.push({ quantiles: bandQuantiles, scores: inBand.length, pooled: 'band' });
-      else row.push({ quantiles: overall, scores: all.length, pooled: 'all' });
+    for (let block = 0; block < BLOCKS; block++) {
+      const cell = band * BLOCKS + block;
+      const quantiles = own[cell];
+      if (quantiles) row.push({ quantiles, scores: offsets[cell + 1] - offsets[cell], pooled: 'cell' });
+      else if (bandQuantiles[band]) row.push({ quantiles: bandQuantiles[band], scores: inBand, pooled: 'band' });
+      else row.push({ quantiles: (overall ??= fit(0, total)!), scores: total, pooled: 'all' });
     }
     cells.push(row);
   }
-  return { levels: [...levels], cells, scores: all.length };
+  return { levels: [...levels], cells, scores: total };
+}
+
+/** The ranks of every level's quantiles in a pool of n scores, or null when the pool is too small for a cell. */
+function poolRanks(n: number, levels: readonly number[]): Array<{ lower: number; upper: number }> | null {
+  if (n < MIN_CELL_SCORES) return null;
+  const ranks: Array<{ lower: number; upper: number }> = [];
+  for (const level of levels) {
+    const r = conformalRanks(n, level);
+    if (!r) return null;
+    ranks.push(r);
+  }
+  return ranks;
+}
+
+/** Throws unless every level lies strictly between 0 and 100 percent. */
+function checkLevels(fn: string, levels: readonly number[]): void {
+  for (const level of levels) {
+    if (!(level > 0 && level < 100)) throw new ForecastingError('invalid-argument', fn, `level must lie in (0, 100), got ${level}`);
+  }
 }
 
 /**

@@ -43,11 +43,61 @@ export function forecastArma(
   residuals?: ArrayLike<number>,
 ): PointForecast {
   const fn = 'forecastArma';
-  const { mean: mu, ar, ma, sigma2 } = model;
+  checkHorizon(fn, horizon);
+  checkVariance(fn, model.sigma2);
+  const mean = conditionalMeans(fn, model, history, horizon, residuals);
+  const se = psiStandardErrors(model, horizon);
+  assertFinite(fn, mean, 'forecasts (the model is far from stationary)');
+  assertFinite(fn, se, 'forecast standard errors (the model is far from stationary)');
+  return { mean, se };
+}
+
+/**
+ * The conditional means of forecastArma alone: for forecasting from many origins with one model, whose
+ * standard errors (forecastArmaSe) do not depend on the origin and are computed once.
+ */
+export function forecastArmaMean(
+  model: ArmaParameters,
+  history: ArrayLike<number>,
+  horizon: number,
+  residuals?: ArrayLike<number>,
+): Float64Array {
+  const fn = 'forecastArmaMean';
+  checkHorizon(fn, horizon);
+  const mean = conditionalMeans(fn, model, history, horizon, residuals);
+  assertFinite(fn, mean, 'forecasts (the model is far from stationary)');
+  return mean;
+}
+
+/** The standard errors of forecastArma, σ·sqrt(Σ_{j<h} ψ_j²) for h = 1..horizon: the same from every origin. */
+export function forecastArmaSe(model: ArmaParameters, horizon: number): Float64Array {
+  const fn = 'forecastArmaSe';
+  checkHorizon(fn, horizon);
+  checkVariance(fn, model.sigma2);
+  const se = psiStandardErrors(model, horizon);
+  assertFinite(fn, se, 'forecast standard errors (the model is far from stationary)');
+  return se;
+}
+
+function checkHorizon(fn: string, horizon: number): void {
   if (!Number.isInteger(horizon) || horizon < 1)
     throw new ForecastingError('invalid-argument', fn, `needs a positive integer horizon, got ${horizon}`);
+}
+
+function checkVariance(fn: string, sigma2: number): void {
   if (!(sigma2 > 0) || !Number.isFinite(sigma2))
     throw new ForecastingError('invalid-argument', fn, `needs a positive finite σ², got ${sigma2}`);
+}
+
+/** μ + ŵ_{n+h} for h = 1..horizon by the difference equation (inputs checked, the result not). */
+function conditionalMeans(
+  fn: string,
+  model: ArmaParameters,
+  history: ArrayLike<number>,
+  horizon: number,
+  residuals: ArrayLike<number> | undefined,
+): Float64Array {
+  const { mean: mu, ar, ma } = model;
   if (!Number.isFinite(mu)) throw new ForecastingError('non-finite-input', fn, `mean is ${mu}`);
   assertFinite(fn, history, 'history');
   assertLength(fn, history, Math.max(ar.length, 1), `the last p = ${ar.length} values start the recursion`);
@@ -75,15 +125,17 @@ export function forecastArma(
     w[p + h - 1] = value;
     mean[h - 1] = mu + value;
   }
+  return mean;
+}
 
-  const psi = psiWeights(ar, ma, horizon);
+/** σ·sqrt(Σ_{j<h} ψ_j²) for h = 1..horizon (the result not checked). */
+function psiStandardErrors(model: ArmaParameters, horizon: number): Float64Array {
+  const psi = psiWeights(model.ar, model.ma, horizon);
   const se = new Float64Array(horizon);
   let cumulative = 0;
   for (let h = 0; h < horizon; h++) {
     cumulative += psi[h] * psi[h];
-    se[h] = Math.sqrt(sigma2 * cumulative);
+    se[h] = Math.sqrt(model.sigma2 * cumulative);
   }
-  assertFinite(fn, mean, 'forecasts (the model is far from stationary)');
-  assertFinite(fn, se, 'forecast standard errors (the model is far from stationary)');
-  return { mean, se };
+  return se;
 }
