@@ -60,8 +60,10 @@ export function calibrateForecast(
   if (!heldOut || origins.length < MIN_ORIGINS) {
     return gaussian(`the history is too short to hold out ${MIN_ORIGINS} days for calibration: Gaussian ψ-weight band`);
   }
-  // The scores column by column (no object per score), from the one calendar of the data.
-  const calendar = localCalendar(data.timestamps, model.spec.timeZone);
+  // The scores column by column (no object per score), with one calendar of the held-out hours, which the
+  // origin forecasts share.
+  const first = heldOut.estimatedOn;
+  const calendar = localCalendar(data.timestamps.subarray(first), model.spec.timeZone);
   const hourOfDay = calendar.hourOfDay;
   const forecastFrom = originForecaster(heldOut, horizon, calendar);
   const z = new Float64Array(origins.length * horizon);
@@ -77,7 +79,7 @@ export function calibrateForecast(
       // The held-out model's transformed series is the load (or its log) over all of the data.
       z[count] = (heldOut.transformed[origin + h] - past.mean[h]) / s;
       ahead[count] = h + 1;
-      scoreHour[count++] = hourOfDay[origin + h];
+      scoreHour[count++] = hourOfDay[origin + h - first];
     }
   }
   const calibration = calibrateBandColumns(z.subarray(0, count), ahead.subarray(0, count), scoreHour.subarray(0, count), levels);

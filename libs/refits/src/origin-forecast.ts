@@ -37,7 +37,8 @@ export interface OriginForecast {
 
 /**
  * A function forecasting up to `horizon` hours from any origin of `extended`'s data (origin ≥ its estimation hours,
- * origin + ahead ≤ its length). `calendar`, the local calendar of `extended.data`, saves rebuilding it when the caller has it.
+ * origin + ahead ≤ its length). `calendar`, the local calendar of `extended.data` from hour `extended.estimatedOn` on
+ * (the hours it can forecast), saves rebuilding it when the caller has it.
  */
 export function originForecaster(
   extended: ExtendedModel,
@@ -49,7 +50,12 @@ export function originForecaster(
   const { transformed, remainder, residuals, remainderOffset } = extended;
   const seasonal = spec.seasonal;
   const lag = seasonal.kind === 'difference' ? seasonal.lag : 0;
-  const slots = profile ? profileSlots(calendar ?? localCalendar(extended.data.timestamps, spec.timeZone), profile.slot) : null;
+  // Slots are read only for the hours it can forecast, so the calendar starts where the estimation ended.
+  const first = extended.estimatedOn;
+  const last = extended.data.timestamps.length;
+  const slots = profile
+    ? profileSlots(calendar ?? localCalendar(extended.data.timestamps.subarray(first), spec.timeZone), profile.slot)
+    : null;
   const multiplicative = profile !== null && profile.form === 'multiplicative';
   // The ARMA recursion needs only the last p values and the last q residuals.
   const reach = Math.max(arma.ar.length, arma.ma.length, 1);
@@ -67,6 +73,8 @@ export function originForecaster(
     se = forecastArmaSe(arma, horizon);
   }
   return (origin, ahead) => {
+    if (!(origin >= first && origin + ahead <= last))
+      throw new RangeError(`origin ${origin} with ${ahead} hours ahead lies outside the hours ${first}..${last} it can forecast`);
     const cut = origin - remainderOffset;
     const from = Math.max(0, cut - reach);
     const part = forecastArmaMean(arma, remainder.subarray(from, cut), ahead, residuals.subarray(from, cut));
@@ -84,7 +92,7 @@ export function originForecaster(
       const scaled = new Float64Array(ahead);
       for (let h = 0; h < ahead; h++) {
         const t = origin + h;
-        const effect = profile.effect[slots![t]];
+        const effect = profile.effect[slots![t - first]];
         mean[h] = (transformed[t] / effect - remainder[cut + h] + part[h]) * effect;
         scaled[h] = se[h] * effect;
       }

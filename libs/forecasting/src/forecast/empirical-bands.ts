@@ -118,6 +118,9 @@ export function calibrateBands(scores: readonly BandScore[], levels: readonly nu
  * levels' ranks, found by selection in place (order-statistics.ts) rather than by sorting it: the cells
  * always, a horizon band (its cells side by side) or all scores only when a cell has to pool them. Whether
  * all scores suffice depends on their number alone.
+ *
+ * @throws ForecastingError 'invalid-argument' for a level outside (0, 100), an hour of day outside 0..23, or
+ *   columns of different lengths.
  */
 export function calibrateBandColumns(
   z: ArrayLike<number>,
@@ -174,12 +177,13 @@ export function calibrateBandColumns(
   const cells: BandCalibration['cells'] = [];
   for (let band = 0; band < HORIZON_BANDS.length; band++) {
     const inBand = offsets[(band + 1) * BLOCKS] - offsets[band * BLOCKS];
+    const pooledBand = bandQuantiles[band];
     const row: BandCalibration['cells'][number] = [];
     for (let block = 0; block < BLOCKS; block++) {
       const cell = band * BLOCKS + block;
       const quantiles = own[cell];
       if (quantiles) row.push({ quantiles, scores: offsets[cell + 1] - offsets[cell], pooled: 'cell' });
-      else if (bandQuantiles[band]) row.push({ quantiles: bandQuantiles[band], scores: inBand, pooled: 'band' });
+      else if (pooledBand) row.push({ quantiles: pooledBand, scores: inBand, pooled: 'band' });
       else row.push({ quantiles: (overall ??= fit(0, total)!), scores: total, pooled: 'all' });
     }
     cells.push(row);

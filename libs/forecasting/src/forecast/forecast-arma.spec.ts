@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { armaResiduals } from '../core/arma-filter';
 import { expectRelative, loadReference, loadSeries, referenceSeries } from '../core/spec-support';
 import type { ArmaParameters } from '../core/types';
-import { forecastArma } from './forecast-arma';
+import { forecastArma, forecastArmaMean, forecastArmaSe } from './forecast-arma';
 import { predictionIntervals } from './intervals';
 
 /** The stored coefficients and sigma2 of an R arima fit as our parameters. */
@@ -85,5 +85,28 @@ describe('forecastArma closed forms', () => {
     );
     // An explosive AR(1) (φ = 10) overflows within 400 steps: refused rather than returning Infinity.
     expect(() => forecastArma({ ...model, ar: [10] }, [1, 2], 400)).toThrow(expect.objectContaining({ code: 'non-finite-input' }));
+  });
+});
+
+describe('forecastArmaMean and forecastArmaSe', () => {
+  it('are the two halves of forecastArma, bit for bit, and the standard errors do not depend on the history', () => {
+    const x = loadSeries('lh');
+    const model = { mean: 2.4, ar: [0.5, 0, -0.2], ma: [0.3, 0.1], sigma2: 0.2 };
+    const full = forecastArma(model, x, 30);
+    expect(Array.from(forecastArmaMean(model, x, 30))).toEqual(Array.from(full.mean));
+    expect(Array.from(forecastArmaSe(model, 30))).toEqual(Array.from(full.se));
+    // From a shorter history and horizon: the same first standard errors, only the means move.
+    const earlier = forecastArma(model, x.slice(0, 20), 12);
+    expect(Array.from(forecastArmaSe(model, 30).subarray(0, 12))).toEqual(Array.from(earlier.se));
+    expect(Array.from(forecastArmaMean(model, x.slice(0, 20), 12))).toEqual(Array.from(earlier.mean));
+  });
+
+  it('refuse what forecastArma refuses', () => {
+    const model = { mean: 0, ar: [0.5], ma: [], sigma2: 1 };
+    expect(() => forecastArmaMean(model, [1, 2], 0)).toThrow(expect.objectContaining({ code: 'invalid-argument' }));
+    expect(() => forecastArmaMean(model, [1, 2], 2, [0])).toThrow(expect.objectContaining({ code: 'invalid-argument' }));
+    expect(() => forecastArmaSe({ ...model, sigma2: 0 }, 2)).toThrow(expect.objectContaining({ code: 'invalid-argument' }));
+    expect(() => forecastArmaMean({ ...model, ar: [10] }, [1, 2], 400)).toThrow(expect.objectContaining({ code: 'non-finite-input' }));
+    expect(() => forecastArmaSe({ ...model, ar: [10] }, 400)).toThrow(expect.objectContaining({ code: 'non-finite-input' }));
   });
 });
