@@ -22,7 +22,7 @@ import {
   type LoadModelSpec,
   type LoadSeriesData,
 } from '@loadwright/forecasting';
-import { originForecaster } from './origin-forecast';
+import { calendarFrom, originForecaster } from './origin-forecast';
 import { extendModel, sliceData, type ExtendedModel } from './reanchor';
 
 /** Fewest daily origins worth calibrating on (two weeks); below that the Gaussian band stays. */
@@ -63,7 +63,7 @@ export function calibrateForecast(
   // The scores column by column (no object per score), with one calendar of the held-out hours, which the
   // origin forecasts share.
   const first = heldOut.estimatedOn;
-  const calendar = localCalendar(data.timestamps.subarray(first), model.spec.timeZone);
+  const calendar = calendarFrom(data, first, model.spec.timeZone);
   const hourOfDay = calendar.hourOfDay;
   const forecastFrom = originForecaster(heldOut, horizon, calendar);
   const z = new Float64Array(origins.length * horizon);
