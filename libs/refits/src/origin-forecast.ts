@@ -17,7 +17,7 @@
  */
 import {
   arWithSeasonalDifference,
-  forecastArmaMean,
+  armaMeanForecaster,
   forecastArmaSe,
   localCalendar,
   profileSlots,
@@ -83,18 +83,20 @@ export function originForecaster(
   } else {
     se = forecastArmaSe(arma, horizon);
   }
+  const armaMean = armaMeanForecaster(arma);
   return (origin, ahead) => {
     if (!(origin >= first && origin + ahead <= last))
       throw new RangeError(`origin ${origin} with ${ahead} hours ahead lies outside the hours ${first}..${last} it can forecast`);
     const cut = origin - remainderOffset;
     const from = Math.max(0, cut - reach);
-    const part = forecastArmaMean(arma, remainder.subarray(from, cut), ahead, residuals.subarray(from, cut));
-    const mean = new Float64Array(ahead);
+    // The ARMA part's means become the centre in place: hour h reads its own part before writing it, and
+    // only earlier, finished hours besides.
+    const mean = armaMean(remainder.subarray(from, cut), ahead, residuals.subarray(from, cut));
     if (lag > 0) {
       for (let h = 0; h < ahead; h++) {
         const t = origin + h;
         const regression = transformed[t] - transformed[t - lag] - remainder[cut + h];
-        mean[h] = (h < lag ? transformed[t - lag] : mean[h - lag]) + regression + part[h];
+        mean[h] = (h < lag ? transformed[t - lag] : mean[h - lag]) + regression + mean[h];
       }
       return { mean, se: se.subarray(0, ahead) };
     }
@@ -104,13 +106,13 @@ export function originForecaster(
       for (let h = 0; h < ahead; h++) {
         const t = origin + h;
         const effect = profile.effect[slots![t - first]];
-        mean[h] = (transformed[t] / effect - remainder[cut + h] + part[h]) * effect;
+        mean[h] = (transformed[t] / effect - remainder[cut + h] + mean[h]) * effect;
         scaled[h] = se[h] * effect;
       }
       return { mean, se: scaled };
     }
     // No profile, or an additive one: transformed − remainder is the profile plus the regression.
-    for (let h = 0; h < ahead; h++) mean[h] = transformed[origin + h] - remainder[cut + h] + part[h];
+    for (let h = 0; h < ahead; h++) mean[h] = transformed[origin + h] - remainder[cut + h] + mean[h];
     return { mean, se: se.subarray(0, ahead) };
   };
 }

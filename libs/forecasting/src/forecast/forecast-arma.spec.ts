@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { armaResiduals } from '../core/arma-filter';
 import { expectRelative, loadReference, loadSeries, referenceSeries } from '../core/spec-support';
 import type { ArmaParameters } from '../core/types';
-import { forecastArma, forecastArmaMean, forecastArmaSe } from './forecast-arma';
+import { armaMeanForecaster, forecastArma, forecastArmaMean, forecastArmaSe } from './forecast-arma';
 import { predictionIntervals } from './intervals';
 
 /** The stored coefficients and sigma2 of an R arima fit as our parameters. */
@@ -99,6 +99,23 @@ describe('forecastArmaMean and forecastArmaSe', () => {
     const earlier = forecastArma(model, x.slice(0, 20), 12);
     expect(Array.from(forecastArmaSe(model, 30).subarray(0, 12))).toEqual(Array.from(earlier.se));
     expect(Array.from(forecastArmaMean(model, x.slice(0, 20), 12))).toEqual(Array.from(earlier.mean));
+  });
+
+  it('armaMeanForecaster reuses its working buffer across origins without carrying anything from one to the next', () => {
+    const x = loadSeries('lh');
+    const model = { mean: 2.4, ar: [0.5, 0, -0.2], ma: [0.3, 0.1], sigma2: 0.2 };
+    const forecastFrom = armaMeanForecaster(model);
+    // Longer and shorter horizons from later and earlier origins, in mixed order.
+    for (const [end, horizon] of [
+      [20, 5],
+      [48, 30],
+      [10, 2],
+      [40, 30],
+      [25, 12],
+    ]) {
+      const history = x.slice(0, end);
+      expect(Array.from(forecastFrom(history, horizon)), `origin ${end}`).toEqual(Array.from(forecastArma(model, history, horizon).mean));
+    }
   });
 
   it('refuse what forecastArma refuses', () => {

@@ -45,7 +45,15 @@ export function forecastArma(
   const fn = 'forecastArma';
   checkHorizon(fn, horizon);
   checkVariance(fn, model.sigma2);
-  const mean = conditionalMeans(fn, model, history, horizon, residuals);
+  const mean = conditionalMeans(
+    fn,
+    model,
+    history,
+    horizon,
+    residuals,
+    nonZeroTerms(model.ar),
+    new Float64Array(model.ar.length + horizon),
+  );
   const se = psiStandardErrors(model, horizon);
   assertFinite(fn, mean, 'forecasts (the model is far from stationary)');
   assertFinite(fn, se, 'forecast standard errors (the model is far from stationary)');
@@ -62,11 +70,28 @@ export function forecastArmaMean(
   horizon: number,
   residuals?: ArrayLike<number>,
 ): Float64Array {
+  return armaMeanForecaster(model)(history, horizon, residuals);
+}
+
+/**
+ * forecastArmaMean for many histories of one model (the rolling origins of a backtest or a band calibration):
+ * the non-zero φ are found once and one working buffer serves every call, so each call allocates only the
+ * means it returns.
+ */
+export function armaMeanForecaster(
+  model: ArmaParameters,
+): (history: ArrayLike<number>, horizon: number, residuals?: ArrayLike<number>) => Float64Array {
   const fn = 'forecastArmaMean';
-  checkHorizon(fn, horizon);
-  const mean = conditionalMeans(fn, model, history, horizon, residuals);
-  assertFinite(fn, mean, 'forecasts (the model is far from stationary)');
-  return mean;
+  const terms = nonZeroTerms(model.ar);
+  let work = new Float64Array(0);
+  return (history, horizon, residuals) => {
+    checkHorizon(fn, horizon);
+    const size = model.ar.length + horizon;
+    if (work.length < size) work = new Float64Array(size);
+    const mean = conditionalMeans(fn, model, history, horizon, residuals, terms, work);
+    assertFinite(fn, mean, 'forecasts (the model is far from stationary)');
+    return mean;
+  };
 }
 
 /** The standard errors of forecastArma, σ·sqrt(Σ_{j<h} ψ_j²) for h = 1..horizon: the same from every origin. */
@@ -89,13 +114,18 @@ function checkVariance(fn: string, sigma2: number): void {
     throw new ForecastingError('invalid-argument', fn, `needs a positive finite σ², got ${sigma2}`);
 }
 
-/** μ + ŵ_{n+h} for h = 1..horizon by the difference equation (inputs checked, the result not). */
+/**
+ * μ + ŵ_{n+h} for h = 1..horizon by the difference equation (inputs checked, the result not), with the model's
+ * non-zero φ (`terms`) and a working buffer `w` of at least p + horizon values.
+ */
 function conditionalMeans(
   fn: string,
   model: ArmaParameters,
   history: ArrayLike<number>,
   horizon: number,
   residuals: ArrayLike<number> | undefined,
+  terms: { lags: Int32Array; coefficients: Float64Array },
+  w: Float64Array,
 ): Float64Array {
   const { mean: mu, ar, ma } = model;
   if (!Number.isFinite(mu)) throw new ForecastingError('non-finite-input', fn, `mean is ${mu}`);
@@ -108,12 +138,10 @@ function conditionalMeans(
   if (e.length !== n) throw new ForecastingError('invalid-argument', fn, `residuals have length ${e.length}, the history ${n}`);
   assertFinite(fn, e, 'residuals');
 
-  // w holds the last p deviations followed by the forecasts.
-  const w = new Float64Array(p + horizon);
+  // w holds the last p deviations followed by the forecasts (each written before it is read).
   for (let i = 0; i < p; i++) w[i] = history[n - p + i] - mu;
   const mean = new Float64Array(horizon);
   // Non-zero φ only (same order, so the same sums): wide-lag AR fits are mostly zeros.
-  const terms = nonZeroTerms(ar);
   for (let h = 1; h <= horizon; h++) {
     let value = 0;
     for (let k = 0; k < terms.lags.length; k++) value += terms.coefficients[k] * w[p + h - 1 - terms.lags[k]];
