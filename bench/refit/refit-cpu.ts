@@ -19,7 +19,7 @@
  * Versions (REFIT_CPU_REFERENCES=<commit>[,<commit>…] replaces the list): c7c65e0, the `auto` before the
  * fixed candidate set (three candidates within a 130 ms CPU budget, 3 backtest origins, Gaussian bands);
  * 362b3aa, the fixed seven-candidate set with calibrated bands as first built; and this tree.
- * REFIT_CPU_ROUNDS sets the rounds (default 3).
+ * REFIT_CPU_ROUNDS sets the rounds (default 3), REFIT_CPU_REPEATS the timed fits of each window per round (default 3).
  */
 import { execFileSync, spawn } from 'node:child_process';
 import { mkdtempSync, rmSync, symlinkSync } from 'node:fs';
@@ -37,6 +37,8 @@ const GOAL_MINUTES = 15;
 const CORES = 2;
 /** Untimed fits before the timed ones: one of each window. */
 const WARMUP_FITS = 8;
+/** Timed fits of each window per round, averaged (REFIT_CPU_REPEATS; default 3): steadier than one. */
+const TIMED_FITS = Math.max(1, Number(process.env['REFIT_CPU_REPEATS'] ?? 3));
 
 /** A version of the refit to time. */
 interface Version {
@@ -64,7 +66,15 @@ function checkout(commit: string): string {
 function timePass(version: Version): Promise<WindowTiming[]> {
   const child = spawn(
     process.execPath,
-    ['--import', 'tsx', join(repoRoot, 'bench/support/refit-cpu-child.ts'), String(WINDOW_HOURS), ENDS.join(','), String(WARMUP_FITS)],
+    [
+      '--import',
+      'tsx',
+      join(repoRoot, 'bench/support/refit-cpu-child.ts'),
+      String(WINDOW_HOURS),
+      ENDS.join(','),
+      String(WARMUP_FITS),
+      String(TIMED_FITS),
+    ],
     { cwd: version.tree, stdio: ['ignore', 'pipe', 'inherit'] },
   );
   let out = '';
@@ -147,7 +157,7 @@ export const bench: Benchmark = {
     const digests = passes.get('this tree')!.map((pass) => pass.map((t) => t.digest).join(','));
     const stable = digests.every((d) => d === digests[0]);
     notes.push(
-      `${ENDS.length} windows of ${WINDOW_HOURS} h of PJM East 2002 ending at hours ${ENDS[0]}–${ENDS.at(-1)}; refit defaults, no temperature, US holidays; ${rounds} rounds; 1-minute load average at each round: ${loads.map((l) => l.toFixed(1)).join(', ')}`,
+      `${ENDS.length} windows of ${WINDOW_HOURS} h of PJM East 2002 ending at hours ${ENDS[0]}–${ENDS.at(-1)}; refit defaults, no temperature, US holidays; ${rounds} rounds of ${TIMED_FITS} timed fits per window after ${WARMUP_FITS} untimed; 1-minute load average at each round: ${loads.map((l) => l.toFixed(1)).join(', ')}`,
       `projection: ${GOAL_SERIES} × CPU ms per series × ${NIGHTLY_HOURS}/${WINDOW_HOURS} / ${CORES} cores; the database and the job's reading and writing are not included (bench/refit/nightly-refit.ts)`,
       'CPU ms/series is the median over rounds of the mean over windows; "this tree ÷ it" is the ratio of those medians',
     );

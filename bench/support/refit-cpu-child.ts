@@ -5,7 +5,9 @@
  * `auto` runs with its own engine and defaults. Prints one JSON line: CPU milliseconds per window and what
  * each window chose.
  *
- * Arguments: <window hours> <comma-separated window ends (hour index, exclusive)> <warm-up fits>.
+ * Arguments: <window hours> <comma-separated window ends (hour index, exclusive)> <warm-up fits> [<timed fits per window>].
+ * Each window is timed that many times (default 1) and its mean reported: one fit is short enough that a
+ * garbage collection landing in it or not moves a window's time by a third.
  */
 import { createHash } from 'node:crypto';
 import { resolve } from 'node:path';
@@ -35,10 +37,11 @@ interface RefitsModule {
   };
 }
 
-const [windowArg, endsArg, warmupArg] = process.argv.slice(2);
+const [windowArg, endsArg, warmupArg, repeatsArg] = process.argv.slice(2);
 const windowHours = Number(windowArg);
 const ends = endsArg!.split(',').map(Number);
 const warmup = Number(warmupArg ?? 2);
+const repeats = Math.max(1, Number(repeatsArg ?? 1));
 const tree = process.cwd();
 const { fitSeriesModel } = (await import(pathToFileURL(resolve(tree, 'libs/refits/src/fit-series-model.ts')).href)) as RefitsModule;
 const { defaultModelSettings } = (await import(pathToFileURL(resolve(tree, 'libs/refits/src/model-settings.ts')).href)) as {
@@ -73,8 +76,9 @@ for (let i = 0; i < warmup; i++) fitSeriesModel(inputsEndingAt(ends[i % ends.len
 const timings: WindowTiming[] = [];
 for (const end of ends) {
   const at = cpu();
-  const outcome = fitSeriesModel(inputsEndingAt(end), holidays);
-  const cpuMs = cpu() - at;
+  let outcome = fitSeriesModel(inputsEndingAt(end), holidays);
+  for (let i = 1; i < repeats; i++) outcome = fitSeriesModel(inputsEndingAt(end), holidays);
+  const cpuMs = (cpu() - at) / repeats;
   const hash = createHash('sha256');
   const bytes = (a: Float64Array) => new Uint8Array(a.buffer, a.byteOffset, a.byteLength);
   hash.update(bytes(outcome.forecast.mean));
