@@ -60,7 +60,9 @@ export function originForecaster(
 ): (origin: number, ahead: number) => OriginForecast {
   const { spec, arma, profile } = extended.fitted;
   if (!arma) throw new Error('originForecaster needs a model with an ARMA part');
-  const { transformed, remainder, residuals, remainderOffset } = extended;
+  const { transformed, remainder, remainderOffset } = extended;
+  // Past shocks matter only to an MA part; a pure AR never asks for the residuals (made on first use).
+  const residuals = arma.ma.length > 0 ? extended.residuals : null;
   const seasonal = spec.seasonal;
   const lag = seasonal.kind === 'difference' ? seasonal.lag : 0;
   // Slots are read only for the hours it can forecast, so the calendar starts where the estimation ended.
@@ -91,7 +93,7 @@ export function originForecaster(
     const from = Math.max(0, cut - reach);
     // The ARMA part's means become the centre in place: hour h reads its own part before writing it, and
     // only earlier, finished hours besides.
-    const mean = armaMean(remainder.subarray(from, cut), ahead, residuals.subarray(from, cut));
+    const mean = armaMean(remainder.subarray(from, cut), ahead, residuals?.subarray(from, cut));
     if (lag > 0) {
       for (let h = 0; h < ahead; h++) {
         const t = origin + h;

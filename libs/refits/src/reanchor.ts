@@ -5,6 +5,7 @@
  */
 import {
   armaResiduals,
+  assertFinite,
   localCalendar,
   sliceCalendar,
   logTransform,
@@ -21,7 +22,7 @@ export interface ExtendedModel {
   /** Hours the parameters were estimated on. */
   estimatedOn: number;
   data: LoadSeriesData;
-  /** Transformed series, regressor columns, remainder and residuals over all of `data`. */
+  /** Transformed series, regressor columns, remainder and residuals over all of `data` (the residuals made on first use). */
   transformed: Float64Array;
   regressors: Float64Array[];
   remainder: Float64Array;
@@ -85,8 +86,16 @@ export function extendModel(fitted: FittedLoadModel, data: LoadSeriesData): Exte
     remainder.set(fitted.remainder);
     remainder.set(tailRemainder, fitted.remainder.length);
   }
-  const residuals = armaResiduals(remainder, arma.mean, arma.ar, arma.ma);
-  return { fitted, estimatedOn: m, data, transformed, regressors, remainder, residuals, remainderOffset };
+  // The extra hours' remainder is checked now, so the residuals, made on first use (a pure AR's backtest never
+  // reads them: only an MA part forecasts from past shocks), cannot fail later.
+  assertFinite('extendModel', remainder.subarray(fitted.remainder.length), 'remainder of the extra hours');
+  let residuals: Float64Array | null = null;
+  const extended = { fitted, estimatedOn: m, data, transformed, regressors, remainder, remainderOffset } as ExtendedModel;
+  Object.defineProperty(extended, 'residuals', {
+    enumerable: true,
+    get: () => (residuals ??= armaResiduals(remainder, arma.mean, arma.ar, arma.ma)),
+  });
+  return extended;
 }
 
 /** The extended model cut at `origin` hours, ready for forecastLoadModel to forecast hours origin+1…. */
