@@ -107,19 +107,17 @@ export function laggedLeastSquares(fn: string, x: ArrayLike<number>, p: number):
   const coefficients = Float64Array.from(beta);
   coefficients[0] = beta[0] + mean * (1 - sumPhi);
   const centred = inverseFromCholesky(r, k);
-  const jacobian = (row: number, col: number) => (row === col ? 1 : row === 0 && col > 0 ? -mean : 0);
+  // J is the identity but for its first row (1, −x̄, …, −x̄), so J C Jᵀ takes O(k²): the same products, summed in
+  // the same order, as the full double sum over J's non-zero entries.
+  const weight = (col: number) => (col === 0 ? 1 : -mean);
   const unscaledCovariance = new Float64Array(k * k);
   for (let i = 0; i < k; i++) {
     for (let j = 0; j < k; j++) {
       let s = 0;
-      for (let a = 0; a < k; a++) {
-        const ja = jacobian(i, a);
-        if (ja === 0) continue;
-        for (let b = 0; b < k; b++) {
-          const jb = jacobian(j, b);
-          if (jb !== 0) s += ja * centred[a * k + b] * jb;
-        }
-      }
+      if (i > 0 && j > 0) s = 1 * centred[i * k + j] * 1;
+      else if (i > 0) for (let b = 0; b < k; b++) s += 1 * centred[i * k + b] * weight(b);
+      else if (j > 0) for (let a = 0; a < k; a++) s += weight(a) * centred[a * k + j] * 1;
+      else for (let a = 0; a < k; a++) for (let b = 0; b < k; b++) s += weight(a) * centred[a * k + b] * weight(b);
       unscaledCovariance[i * k + j] = s;
     }
   }
