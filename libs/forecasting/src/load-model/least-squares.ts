@@ -53,13 +53,13 @@ function withPlainSingularMessage<T>(fn: string, solve: () => T): T {
   }
 }
 
-/** β̂ of several responses on the same columns from one factorisation, and (XᵀX)⁻¹ as rows (see leastSquares). */
+/** β̂ of several responses (possibly none) on the same columns from one factorisation, and (XᵀX)⁻¹ as rows (see leastSquares). */
 export function leastSquaresMany(
   fn: string,
   columns: readonly Float64Array[],
   ys: ReadonlyArray<ArrayLike<number>>,
 ): { betas: Float64Array[]; unscaledCovariance: number[][] } {
-  const m = ys[0].length;
+  const m = ys.length > 0 ? ys[0].length : columns[0].length;
   const k = columns.length;
   return withPlainSingularMessage(fn, () => {
     const solution = householderLeastSquaresMany(fn, pack(columns, m), m, k, ys);

@@ -84,7 +84,8 @@ export function fitRegressionArmaErrors(
     const { profile, remainder } = splitRemainder(y, columns, beta, slotEffects);
     const errors = fitErrors(remainder);
     if (k === 0 || converged || passes > MAX_PASSES) {
-      const betaStderr = k > 0 ? glsStep(columns, targets, errors).stderr : new Float64Array(0);
+      // The standard errors need the prewhitened regressors only, not the targets.
+      const betaStderr = k > 0 ? glsStep(columns, [], errors).stderr : new Float64Array(0);
       return { beta, betaStderr, profile, errors, remainder, iterations: passes, converged };
     }
     const next = glsStep(columns, targets, errors).beta;
@@ -152,7 +153,7 @@ function glsTargets(y: Float64Array, columns: readonly Float64Array[], slotEffec
 
 /**
  * One GLS step for fixed ARMA parameters: prewhiten the columns (with a constant) and every target, solve them
- * all from one factorisation. Without slot effects β is the GLS solution for y; with them the fixed point of
+ * all from one factorisation (with no targets, the standard errors alone). Without slot effects β is the GLS solution for y; with them the fixed point of
  * β ↦ c + Aβ (c from y − s(y), column j of A from s(z_j)). Standard errors: σ² times the β block of (Z̃ᵀZ̃)⁻¹.
  */
 function glsStep(
@@ -168,6 +169,7 @@ function glsStep(
     targets.map((target) => prewhiten(target, errors.ar, errors.ma)),
   );
   const stderr = Float64Array.from({ length: k }, (_, j) => Math.sqrt(errors.sigma2 * solution.unscaledCovariance[j][j]));
+  if (targets.length === 0) return { beta: new Float64Array(0), stderr };
   const c = solution.betas[0].subarray(0, k);
   if (targets.length === 1) return { beta: Float64Array.from(c), stderr };
   // (I − A) with column j of A the GLS coefficients of s(z_j).
