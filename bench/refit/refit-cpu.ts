@@ -177,6 +177,15 @@ export const bench: Benchmark = {
           passed: projected(current) <= GOAL_MINUTES,
           detail: `${current.toFixed(0)} ms per ${WINDOW_HOURS}-hour window: ${projected(current).toFixed(1)} min`,
         },
+        ...(versions.some((v) => v.name === 'c7c65e0')
+          ? [
+              {
+                name: "fit CPU per series no more than the older auto's (c7c65e0), medians over rounds",
+                passed: currentFit <= perSeries('c7c65e0', fitOnly),
+                detail: `${currentFit.toFixed(0)} ms against ${perSeries('c7c65e0', fitOnly).toFixed(0)} ms`,
+              },
+            ]
+          : []),
         {
           name: 'the same forecasts (mean and bounds) in every round',
           passed: stable,
