@@ -3,6 +3,8 @@ import { demoScenario } from '../fixtures/demo/scenario';
 import { createDb } from '@loadwright/db';
 import { seedDemoMisses } from '@loadwright/misses';
 import { scoreAllSeries } from '@loadwright/accuracy';
+import { createJobInserter, refitQueueReady, startRefitRun } from '@loadwright/refits';
+import pg from 'pg';
 import { seedDemo } from '../libs/db/src/seed/seed-demo';
 
 /** Seeds when the database holds no organisation yet, then a few misses in its history; true when it seeded. */
@@ -33,6 +35,26 @@ export async function addDemoMisses(databaseUrl: string): Promise<number> {
     return await seedDemoMisses(handle.db);
   } finally {
     await handle.close();
+  }
+}
+
+/**
+ * Starts the first refit of every demo series once a worker has made the refit queue, so a first start shows
+ * model forecasts with their bands, model cards and a finished run instead of waiting for the nightly hour.
+ * Returns the run's id, or null when no worker made the queue within `waitMs`.
+ */
+export async function startDemoRefit(databaseUrl: string, waitMs = 120_000): Promise<number | null> {
+  const pool = new pg.Pool({ connectionString: databaseUrl, max: 2, application_name: 'loadwright-seed' });
+  try {
+    const deadline = Date.now() + waitMs;
+    while (!(await refitQueueReady(pool))) {
+      if (Date.now() > deadline) return null;
+      await new Promise((done) => setTimeout(done, 500));
+    }
+    const started = await startRefitRun(pool, createJobInserter(), { trigger: 'manual', scope: { kind: 'all' }, requestedById: null });
+    return started?.runId ?? null;
+  } finally {
+    await pool.end();
   }
 }
 

@@ -13,7 +13,7 @@ import { firstExit, startTypeScript, stopAll, supervise, type NamedChild, type S
 import { AlreadyRunningError, acquireInstanceLock } from './instance-lock';
 import { defaultLocation, ensurePostgres, localDataDir, stopPostgres } from './postgres';
 import { buildWeb, isWebBuildStale } from './web-build';
-import { seedDemoIfEmpty, demoAccountsText } from './demo-seed';
+import { seedDemoIfEmpty, demoAccountsText, startDemoRefit } from './demo-seed';
 import { startMailCatcher, type MailCatcher } from '@loadwright/mail';
 import { ensureSessionSecret } from './session-secret';
 
@@ -75,6 +75,17 @@ async function main(): Promise<number> {
       workers.push(supervise(name, start, (line) => console.error(line)));
     }
     console.log(`\nLoadwright is running at ${url}\n\n${demoAccountsText()}\nPress Ctrl-C to stop.\n`);
+    if (seeded) {
+      // Not awaited: the product is usable at once, and the Refits page shows this run's progress.
+      startDemoRefit(database.url).then(
+        (runId) => {
+          if (runId !== null)
+            console.log(`  Started the first refit of every demo series (run ${runId}); the Refits page shows its progress.`);
+          else console.log('  No worker made the refit queue in time: the first refit waits for the nightly hour or "Refit now".');
+        },
+        (error: unknown) => console.error(`  The first refit could not be started: ${(error as Error).message}`),
+      );
+    }
     const exited = await firstExit(children);
     if (!stopping) {
       console.error(`The ${exited.name} process stopped unexpectedly (exit code ${exited.code}); stopping the rest.`);

@@ -83,6 +83,8 @@ describe('npm start', () => {
     await waitFor(async () => (await healthOf(port))?.status === 'ok', 'a healthy API');
     const page = await fetch(`http://127.0.0.1:${port}/`);
     expect(await page.text()).toContain('<title>Loadwright</title>');
+    // The first start refits every demo series once a worker is up, instead of waiting for the nightly hour.
+    await waitFor(() => /Started the first refit of every demo series \(run \d+\)/.test(first.output()), 'the first refit to start');
 
     const second = start();
     expect(await second.exited).toBe(1);
