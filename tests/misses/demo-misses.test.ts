@@ -1,5 +1,6 @@
 /** The demo utility starts with a few realistic misses in its history, in every state, each explained. */
-import { missComments, missEvents } from '@loadwright/db';
+import { fitDiagnosticsSchema } from '@loadwright/contracts';
+import { fits, missComments, missEvents } from '@loadwright/db';
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import { seedDemo } from '../../libs/db/src/seed/seed-demo';
 import { addDemoMisses } from '../../scripts/demo-seed';
@@ -26,4 +27,10 @@ it('adds a few misses judged by the default rules, acknowledged and resolved one
   expect(events.filter((e) => (e.detail as { hours: unknown[] }).hours.length > 0).every((e) => e.cause !== null)).toBe(true);
   expect((await server.db.select().from(missComments)).length).toBeGreaterThanOrEqual(1);
   expect(await addDemoMisses(server.databaseUrl)).toBe(0);
+});
+
+it('gives the fits behind those forecasts the residual checks the model card reads', async () => {
+  const rows = await server.db.select({ diagnostics: fits.diagnostics }).from(fits);
+  expect(rows.length).toBeGreaterThan(0);
+  for (const row of rows) expect(fitDiagnosticsSchema.safeParse(row.diagnostics).success).toBe(true);
 });
