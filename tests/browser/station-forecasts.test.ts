@@ -26,6 +26,8 @@ let server: TestServer;
 let page: Page;
 let stationId: number;
 const pageErrors: string[] = [];
+/** API calls the page made that were refused or not found (the signed-out session check aside). */
+const failedCalls: string[] = [];
 
 /** Two issues (6:00 local on 1 and 2 Dec 2026), 48 hours each from the next local midnight, alternating 20 and 0 °C. */
 function forecastFile(): string {
@@ -46,6 +48,11 @@ beforeAll(async () => {
   browser = await launchBrowser();
   page = await browser.context.newPage();
   page.on('pageerror', (error) => pageErrors.push(error.message));
+  page.on('response', (response) => {
+    const path = new URL(response.url()).pathname;
+    if (response.status() >= 400 && path.startsWith('/api/') && path !== '/api/auth/session')
+      failedCalls.push(`${response.status()} ${path}`);
+  });
   await signInThroughPage(page, server.url, account('steward').email, password, `/series/${stationId}`);
 }, 120_000);
 
@@ -70,6 +77,8 @@ describe('the station page as a steward', () => {
     await section.evaluate((element) => element.scrollIntoView({ block: 'start' }));
     await page.screenshot({ path: resolve(artifacts, 'station-forecasts.png') });
     expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
+    // A station has no model, fit or assumed temperatures: the page does not ask for them.
+    expect(failedCalls).toEqual([]);
   });
 
   it('checks an uploaded forecast file before storing anything, then stores both issues converted to °F', async () => {

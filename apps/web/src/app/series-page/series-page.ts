@@ -100,15 +100,18 @@ export class SeriesPage {
     combineLatest([toObservable(this.id), this.reloads.pipe(startWith(undefined))]).pipe(
       switchMap(([id]) => {
         const seriesId = Number(id);
-        return forkJoin({
-          series: this.client.series(seriesId),
-          review: optional(this.client.forecast(seriesId)),
-          versions: optional(this.client.versions(seriesId)),
-          fit: optional(this.client.fit(seriesId)),
-          settings: optional(this.client.modelSettings(seriesId)),
-          temperatures: optional(this.client.assumedTemperatures(seriesId)),
-        }).pipe(
-          map((data): PageState => ({ state: 'ready', ...data })),
+        return this.client.series(seriesId).pipe(
+          switchMap((series) => {
+            // A temperature station has no model, fit or assumed temperatures: asking would only earn 404s.
+            const load = series.kind === 'load';
+            return forkJoin({
+              review: optional(this.client.forecast(seriesId)),
+              versions: optional(this.client.versions(seriesId)),
+              fit: load ? optional(this.client.fit(seriesId)) : of(null),
+              settings: load ? optional(this.client.modelSettings(seriesId)) : of(null),
+              temperatures: load ? optional(this.client.assumedTemperatures(seriesId)) : of(null),
+            }).pipe(map((data): PageState => ({ state: 'ready', series, ...data })));
+          }),
           catchError((error: unknown) => of<PageState>({ state: 'failed', problem: problemMessage(error) })),
         );
       }),
