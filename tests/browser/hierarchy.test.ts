@@ -90,6 +90,17 @@ describe('the coherence view and reconciliation', () => {
     expect(blockingViolations(await findAccessibilityViolations(page))).toEqual([]);
   });
 
+  it('says plainly, without an alarm, when nothing is approved to compare yet', async () => {
+    await page.getByRole('radio', { name: 'Approved' }).click();
+    await expect.poll(verdict, { timeout: 15_000 }).toMatch(/Nothing to compare yet: the sum needs forecasts of the same hours/);
+    const shown = page.getByTestId('coherence-verdict');
+    expect(await shown.getAttribute('class')).toContain('nothing-yet');
+    expect(await shown.locator('mat-icon').getAttribute('data-mat-icon-name')).toBe('info');
+    expect(await page.locator('lw-coherence-panel table').count()).toBe(0);
+    await page.getByRole('radio', { name: 'Drafts' }).click();
+    await expect.poll(verdict, { timeout: 15_000 }).toMatch(/Off by 5\.66 % on average/);
+  });
+
   it('reconciles by minimum trace into drafts that add up at every hour', async () => {
     await page.getByRole('radio', { name: 'Minimum trace' }).click();
     await page.getByRole('button', { name: 'Reconcile the drafts' }).click();
