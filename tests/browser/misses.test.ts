@@ -160,6 +160,19 @@ describe('a planner overrides a rule for one series', () => {
     await page.getByRole('heading', { level: 2, name: `Rules in force for ${feeder!.name}` }).waitFor();
     expect(new URL(page.url()).searchParams.get('series')).toBe(String(seriesId));
   });
+
+  it('reads the model card of a missed forecast, saying why it has no residual checks', async () => {
+    const missed = (await api<{ id: number; seriesId: number }[]>('/api/misses'))[0]!;
+    await page.goto(`${server.url}/series/${missed.seriesId}`);
+    const card = page.locator('lw-model-card');
+    await card.getByText('Seasonal naive (same hour last week)').waitFor({ timeout: 15_000 });
+    expect(await card.getByTestId('no-residual-checks').textContent()).toContain('no model residuals to test');
+    // σ² is in the square of the series' unit, as σ beside it is in the unit.
+    expect(await card.locator('dt:text-is("Innovation variance σ²") + dd').textContent()).toMatch(
+      /^\s*[\d,.]+ [kM]W² \(σ = [\d,.]+ [kM]W\)\s*$/,
+    );
+    expect(await page.getByText('This series has not been fitted yet.').count()).toBe(0);
+  });
 });
 
 describe('an admin changes settings', () => {
