@@ -97,6 +97,12 @@ describe('the coherence view and reconciliation', () => {
     expect(await shown.getAttribute('class')).toContain('nothing-yet');
     expect(await shown.locator('mat-icon').getAttribute('data-mat-icon-name')).toBe('info');
     expect(await page.locator('lw-coherence-panel table').count()).toBe(0);
+    // On a phone the verdict wraps; its icon keeps its 24 px.
+    await page.setViewportSize({ width: 390, height: 844 });
+    await expect.poll(() => shown.locator('mat-icon').evaluate((icon) => icon.getBoundingClientRect().width)).toBe(24);
+    await page.locator('#coherence-heading').evaluate((heading) => heading.scrollIntoView({ block: 'start' }));
+    await page.screenshot({ path: resolve(artifacts, 'hierarchy-coherence-nothing-yet-phone.png') });
+    await page.setViewportSize({ width: 1440, height: 900 });
     await page.getByRole('radio', { name: 'Drafts' }).click();
     await expect.poll(verdict, { timeout: 15_000 }).toMatch(/Off by 5\.66 % on average/);
   });
