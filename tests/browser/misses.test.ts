@@ -172,6 +172,10 @@ describe('a planner overrides a rule for one series', () => {
       /^\s*[\d,.]+ [kM]W² \(σ = [\d,.]+ [kM]W\)\s*$/,
     );
     expect(await page.getByText('This series has not been fitted yet.').count()).toBe(0);
+    // The training window speaks the series' zone, as every other time on the page does.
+    expect(await card.locator('dt:text-is("Training window") + dd').textContent()).toMatch(
+      /^\s*\d+ \w{3} \d\d:\d\d C[SD]T – \d+ \w{3} \d\d:\d\d C[SD]T, [\d,]+ hours\s*$/,
+    );
   });
 });
 

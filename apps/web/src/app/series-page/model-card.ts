@@ -1,4 +1,4 @@
-import { DatePipe, DecimalPipe } from '@angular/common';
+import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { ChartData, ChartOptions } from 'chart.js';
 import { type FitSummary, modelMethodLabels } from '@loadwright/contracts';
@@ -10,7 +10,7 @@ import { coefficientRows } from './coefficients';
 /** The model card: method and orders, coefficients, σ², AIC/BIC, why auto chose it, and residual diagnostics. */
 @Component({
   selector: 'lw-model-card',
-  imports: [BaseChartDirective, DatePipe, DecimalPipe],
+  imports: [BaseChartDirective, DecimalPipe],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './model-card.html',
   styleUrl: './model-card.scss',
