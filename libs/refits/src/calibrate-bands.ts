@@ -14,15 +14,16 @@
 import type { ForecastBands } from '@loadwright/contracts';
 import {
   applyBands,
+  calendarOf,
   calibrateBandColumns,
   fitLoadModel,
-  localCalendar,
   type FittedLoadModel,
   type LoadForecast,
   type LoadModelSpec,
   type LoadSeriesData,
+  localCalendar,
 } from '@loadwright/forecasting';
-import { calendarFrom, originForecaster } from './origin-forecast';
+import { originForecaster } from './origin-forecast';
 import { extendModel, sliceData, type ExtendedModel } from './reanchor';
 
 /** Fewest daily origins worth calibrating on (two weeks); below that the Gaussian band stays. */
@@ -63,7 +64,7 @@ export function calibrateForecast(
   // The scores column by column (no object per score), with one calendar of the held-out hours, which the
   // origin forecasts share.
   const first = heldOut.estimatedOn;
-  const calendar = calendarFrom(data, first, model.spec.timeZone);
+  const calendar = calendarOf(data, model.spec.timeZone, first);
   const hourOfDay = calendar.hourOfDay;
   const forecastFrom = originForecaster(heldOut, horizon, calendar);
   const z = new Float64Array(origins.length * horizon);

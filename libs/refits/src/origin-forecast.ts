@@ -16,15 +16,13 @@
  * forecastLoadModel to rounding (origin-forecast.spec.ts).
  */
 import {
-  arWithSeasonalDifference,
   armaMeanForecaster,
+  arWithSeasonalDifference,
+  calendarOf,
   forecastArmaSe,
-  localCalendar,
+  type LocalCalendar,
   profileSlots,
   psiWeights,
-  sliceCalendar,
-  type LoadSeriesData,
-  type LocalCalendar,
 } from '@loadwright/forecasting';
 import type { ExtendedModel } from './reanchor';
 
@@ -35,17 +33,6 @@ import type { ExtendedModel } from './reanchor';
 export interface OriginForecast {
   mean: Float64Array;
   se: Float64Array;
-}
-
-/**
- * The local calendar of hours `first` … end of `data`: a slice of the calendar the data carries (made once per
- * refit) when it is for this zone, else computed for those hours alone.
- */
-export function calendarFrom(data: LoadSeriesData, first: number, timeZone: string): LocalCalendar {
-  const n = data.timestamps.length;
-  const carried = data.calendar;
-  if (carried && carried.timeZone === timeZone && carried.hourOfDay.length === n) return sliceCalendar(carried, first, n);
-  return localCalendar(data.timestamps.subarray(first), timeZone);
 }
 
 /**
@@ -68,7 +55,7 @@ export function originForecaster(
   // Slots are read only for the hours it can forecast, so the calendar starts where the estimation ended.
   const first = extended.estimatedOn;
   const last = extended.data.timestamps.length;
-  const slots = profile ? profileSlots(calendar ?? calendarFrom(extended.data, first, spec.timeZone), profile.slot) : null;
+  const slots = profile ? profileSlots(calendar ?? calendarOf(extended.data, spec.timeZone, first), profile.slot) : null;
   const multiplicative = profile !== null && profile.form === 'multiplicative';
   // The ARMA recursion needs only the last p values and the last q residuals.
   const reach = Math.max(arma.ar.length, arma.ma.length, 1);

@@ -6,13 +6,13 @@
 import {
   armaResiduals,
   assertFinite,
-  localCalendar,
-  sliceCalendar,
+  calendarOf,
+  type FittedLoadModel,
+  type LoadSeriesData,
   logTransform,
   profileSlots,
   regressorColumns,
-  type FittedLoadModel,
-  type LoadSeriesData,
+  sliceCalendar,
 } from '@loadwright/forecasting';
 
 /** A model whose parameters were estimated on the first hours of `data`, extended to all of it. */
@@ -52,10 +52,7 @@ export function extendModel(fitted: FittedLoadModel, data: LoadSeriesData): Exte
   if (extra > 0) {
     const tail = spec.log ? logTransform(data.values.subarray(m)) : data.values.subarray(m);
     transformed.set(tail, m);
-    const calendar =
-      data.calendar?.timeZone === spec.timeZone && data.calendar.hourOfDay.length === n
-        ? sliceCalendar(data.calendar, m, n)
-        : localCalendar(data.timestamps.subarray(m), spec.timeZone);
+    const calendar = calendarOf(data, spec.timeZone, m);
     const tailColumns = regressorColumns(spec, calendar, data.temperature?.subarray(m)).columns;
     regressors = fitted.regressors.map((column, j) => {
       const joined = new Float64Array(n);

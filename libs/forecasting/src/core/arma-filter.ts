@@ -25,19 +25,14 @@ export function armaResiduals(x: ArrayLike<number>, mean: number, ar: ArrayLike<
   if (!Number.isFinite(mean)) throw new ForecastingError('non-finite-input', 'armaResiduals', `mean is ${mean}`);
   const w = new Float64Array(x.length);
   for (let t = 0; t < x.length; t++) w[t] = x[t] - mean;
-  return filterResiduals(w, ar, ma);
+  return prewhiten(w, ar, ma);
 }
 
 /**
- * armaResiduals of a series already centred (mean 0) and known to be finite, as the GLS steps prewhiten their own
- * columns many times per fit: the same recursion without the checks and the centring copy.
+ * armaResiduals of a series already centred (mean 0) and known to be finite: the CSS recursion without the checks
+ * and the centring copy, as the GLS steps prewhiten their own columns many times per fit.
  */
 export function prewhiten(w: Float64Array, ar: ArrayLike<number>, ma: ArrayLike<number>): Float64Array {
-  return filterResiduals(w, ar, ma);
-}
-
-/** The CSS recursion on the centred series w (see armaResiduals). */
-function filterResiduals(w: Float64Array, ar: ArrayLike<number>, ma: ArrayLike<number>): Float64Array {
   const n = w.length;
   const p = ar.length;
   const q = ma.length;

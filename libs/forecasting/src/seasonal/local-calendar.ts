@@ -85,14 +85,16 @@ export function localCalendar(timestamps: ArrayLike<number>, timeZone: string): 
 }
 
 /**
- * The calendar of `data`'s timestamps in `timeZone`: the one it carries when that is for this zone and length (a
- * refit fits, extends and forecasts from the same hours many times, and computing the calendar is not free),
- * else computed.
+ * The calendar of `data`'s timestamps from hour `from` on, in `timeZone`: sliced from the one it carries when that
+ * is for this zone and length (a refit fits, extends and forecasts from the same hours many times, and computing
+ * the calendar is not free), else computed for those hours only.
  */
-export function calendarOf(data: { timestamps: ArrayLike<number>; calendar?: LocalCalendar }, timeZone: string): LocalCalendar {
+export function calendarOf(data: { timestamps: Float64Array; calendar?: LocalCalendar }, timeZone: string, from = 0): LocalCalendar {
+  const n = data.timestamps.length;
   const carried = data.calendar;
-  if (carried && carried.timeZone === timeZone && carried.hourOfDay.length === data.timestamps.length) return carried;
-  return localCalendar(data.timestamps, timeZone);
+  if (carried && carried.timeZone === timeZone && carried.hourOfDay.length === n)
+    return from === 0 ? carried : sliceCalendar(carried, from, n);
+  return localCalendar(from === 0 ? data.timestamps : data.timestamps.subarray(from), timeZone);
 }
 
 /** Hours start … end − 1 of a calendar (typed arrays shared, not copied). */
